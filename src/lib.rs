@@ -1,0 +1,16 @@
+//! residuary — singularities, residues, Laurent series and contour integrals.
+//!
+//! The core is plain Rust with no WebAssembly types. Every caller (the page
+//! through `wasm`, node, and the `residuary` command line) goes through
+//! [`api::run`], the one doorway.
+
+pub mod api;
+pub mod budget;
+pub mod contour;
+pub mod error;
+
+#[cfg(target_arch = "wasm32")]
+pub mod wasm;
+
+/// The complex number type used everywhere.
+pub type C = num_complex::Complex64;
