@@ -66,6 +66,52 @@ pub struct EvaluateResponse {
     pub derivatives: Vec<[f64; 2]>,
 }
 
+/// `phase_plot`: colour each pixel of the view box by arg f (and optionally |f|).
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct PhasePlotRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+    /// `[x0, x1, y0, y1]`: real range then imaginary range.
+    pub view: [f64; 4],
+    /// `[width, height]` in pixels.
+    pub size: [u32; 2],
+    #[serde(default)]
+    pub options: PlotOptionsInput,
+    /// `"png"` (default) or `"rgba"`; both base64 in `"data"`.
+    #[serde(default)]
+    pub format: Option<String>,
+    /// Optional `[first, end)` rows of the full image to render (for progressive drawing).
+    #[serde(default)]
+    pub rows: Option<[u32; 2]>,
+}
+
+#[derive(Debug, Clone, Default, Serialize, Deserialize)]
+pub struct PlotOptionsInput {
+    /// `"oklch"` (default, perceptually even) or `"hsv"`.
+    #[serde(default)]
+    pub wheel: Option<String>,
+    #[serde(default)]
+    pub modulus_lines: bool,
+    #[serde(default)]
+    pub phase_lines: bool,
+    /// Plot f(1/w) around w = 0 (the view is then in the w-plane).
+    #[serde(default)]
+    pub infinity: bool,
+}
+
+/// The pixels of a phase plot (rows `first..end` of a `width`-wide image).
+pub struct Pixels {
+    pub width: u32,
+    pub height: u32,
+    pub rgba: Vec<u8>,
+}
+
+/// The page's fast path: raw RGBA pixels, no base64, no PNG.
+pub fn phase_plot_rgba(request: &PhasePlotRequest) -> Result<Pixels, ApiError> {
+    let _ = request;
+    Err(ApiError::new("the \"phase_plot\" task is not built yet"))
+}
+
 /// The parsed request: one variant per task.
 #[derive(Debug, Clone)]
 pub enum Request {
