@@ -5,6 +5,7 @@
 
 use crate::contour::Contour;
 use crate::error::ApiError;
+use crate::tasks;
 use crate::C;
 use serde::{Deserialize, Serialize};
 use serde_json::Value;
@@ -108,16 +109,151 @@ pub struct Pixels {
 
 /// The page's fast path: raw RGBA pixels, no base64, no PNG.
 pub fn phase_plot_rgba(request: &PhasePlotRequest) -> Result<Pixels, ApiError> {
-    let _ = request;
-    Err(ApiError::new("the \"phase_plot\" task is not built yet"))
+    tasks::phase_plot::pixels(request)
+}
+
+/// `residue`: the residue of f at one point or at infinity.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ResidueRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+    pub at: Point,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ResidueResponse {
+    /// `null` where no residue exists (a branch point, or infinity not isolated).
+    pub residue: Option<[f64; 2]>,
+    /// `"pole"`, `"removable"`, `"regular"`, `"essential"` or `"branch_point"`.
+    pub kind: String,
+    pub order: Option<u32>,
+    pub error_estimate: Option<f64>,
+    /// Principal-part coefficients `c_{-1}, c_{-2}, …` where known.
+    pub principal_part: Vec<[f64; 2]>,
+    pub warnings: Vec<String>,
+}
+
+/// `singularities`: poles, zeros, essential singularities and branch points in a region.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct SingularitiesRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+    pub region: Contour,
+    #[serde(default)]
+    pub max_evaluations: Option<u64>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct PoleOut {
+    pub at: [f64; 2],
+    pub order: u32,
+    pub residue: Option<[f64; 2]>,
+    pub error_estimate: Option<f64>,
+    /// `c_{-1}, c_{-2}, …, c_{-order}`.
+    pub principal_part: Vec<[f64; 2]>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ZeroOut {
+    pub at: [f64; 2],
+    pub order: u32,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct PointOut {
+    pub at: [f64; 2],
+    /// For essential singularities, the residue `c_{-1}` where it could be computed.
+    #[serde(skip_serializing_if = "Option::is_none", default)]
+    pub residue: Option<[f64; 2]>,
+    #[serde(skip_serializing_if = "Option::is_none", default)]
+    pub error_estimate: Option<f64>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct SingularitiesResponse {
+    pub poles: Vec<PoleOut>,
+    pub zeros: Vec<ZeroOut>,
+    pub essential: Vec<PointOut>,
+    pub branch_points: Vec<PointOut>,
+    /// Removable singularities (common roots of numerator and denominator).
+    pub removable: Vec<PointOut>,
+    pub residue_at_infinity: Option<[f64; 2]>,
+    /// `|sum of all finite residues + residue at infinity|`, which must be ~0 (rational f).
+    pub residue_sum_defect: Option<f64>,
+    /// Zeros minus poles inside the region by the argument principle, where counted.
+    pub zeros_minus_poles: Option<i64>,
+    /// `"rational"` (exact polynomial algebra) or `"numerical"` (sampling methods).
+    pub method: String,
+    pub warnings: Vec<String>,
+}
+
+/// `laurent`: coefficients `c_n`, `n = from..=to`, on an annulus around a point or infinity.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct LaurentRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+    pub center: Point,
+    #[serde(default)]
+    pub inner: f64,
+    /// Omitted or `null`: as far as the nearest singularity allows.
+    #[serde(default)]
+    pub outer: Option<f64>,
+    pub from: i64,
+    pub to: i64,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct Coefficient {
+    pub n: i64,
+    pub c: [f64; 2],
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct LaurentResponse {
+    pub coefficients: Vec<Coefficient>,
+    pub error_estimate: f64,
+    /// Radii of the sampling circles used.
+    pub radii: Vec<f64>,
+    pub warnings: Vec<String>,
+}
+
+/// `partial_fractions`: a rational f as polynomial part plus Σ c/(z−a)^k.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct PartialFractionsRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct FractionTerm {
+    pub at: [f64; 2],
+    pub power: u32,
+    pub c: [f64; 2],
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct PartialFractionsResponse {
+    /// Ascending coefficients of the polynomial part.
+    pub polynomial: Vec<[f64; 2]>,
+    pub terms: Vec<FractionTerm>,
+    pub removable: Vec<[f64; 2]>,
+    /// The expansion written out, e.g. `1 + 0.5/(s + 1) - 0.5/(s + 3)`.
+    pub text: String,
+    pub error_estimate: f64,
+    pub warnings: Vec<String>,
 }
 
 /// The parsed request: one variant per task.
 #[derive(Debug, Clone)]
 pub enum Request {
     Evaluate(EvaluateRequest),
-    /// Tasks defined by the contract whose request body is kept as JSON until built.
-    Other { task: String, body: Value },
+    PhasePlot(PhasePlotRequest),
+    Residue(ResidueRequest),
+    Singularities(SingularitiesRequest),
+    Laurent(LaurentRequest),
+    PartialFractions(PartialFractionsRequest),
+    /// Tasks the contract defines that this version does not compute yet.
+    NotBuilt { task: String },
 }
 
 /// A response: serialises to the task's own JSON object.
@@ -125,6 +261,10 @@ pub enum Request {
 #[serde(untagged)]
 pub enum Response {
     Evaluate(EvaluateResponse),
+    Residue(ResidueResponse),
+    Singularities(SingularitiesResponse),
+    Laurent(LaurentResponse),
+    PartialFractions(PartialFractionsResponse),
     Json(Value),
 }
 
@@ -156,25 +296,37 @@ impl Request {
                 )))
             }
         };
-        let body = |v: Value| -> Result<_, ApiError> {
+        fn body<T: serde::de::DeserializeOwned>(task: &str, v: Value) -> Result<T, ApiError> {
             serde_json::from_value(v).map_err(|e| ApiError::new(format!("bad \"{task}\" request: {e}")))
-        };
-        match task.as_str() {
-            "evaluate" => Ok(Request::Evaluate(body(value)?)),
-            t if TASKS.contains(&t) => Ok(Request::Other { task, body: value }),
-            _ => Err(ApiError::new(format!(
-                "unknown task \"{task}\"; use one of: {}",
-                TASKS.join(", ")
-            ))),
         }
+        Ok(match task.as_str() {
+            "evaluate" => Request::Evaluate(body(&task, value)?),
+            "phase_plot" => Request::PhasePlot(body(&task, value)?),
+            "residue" => Request::Residue(body(&task, value)?),
+            "singularities" => Request::Singularities(body(&task, value)?),
+            "laurent" => Request::Laurent(body(&task, value)?),
+            "partial_fractions" => Request::PartialFractions(body(&task, value)?),
+            t if TASKS.contains(&t) => Request::NotBuilt { task },
+            _ => {
+                return Err(ApiError::new(format!(
+                    "unknown task \"{task}\"; use one of: {}",
+                    TASKS.join(", ")
+                )))
+            }
+        })
     }
 }
 
 /// Run one request.
 pub fn run(request: Request) -> Result<Response, ApiError> {
     match request {
-        Request::Evaluate(_) => Err(ApiError::new("the \"evaluate\" task is not built yet")),
-        Request::Other { task, .. } => Err(ApiError::new(format!(
+        Request::Evaluate(r) => tasks::evaluate::run(&r).map(Response::Evaluate),
+        Request::PhasePlot(r) => tasks::phase_plot::encoded(&r).map(Response::Json),
+        Request::Residue(r) => tasks::residue::run(&r).map(Response::Residue),
+        Request::Singularities(r) => tasks::singularities::run(&r).map(Response::Singularities),
+        Request::Laurent(r) => tasks::laurent::run(&r).map(Response::Laurent),
+        Request::PartialFractions(r) => tasks::partial_fractions::run(&r).map(Response::PartialFractions),
+        Request::NotBuilt { task } => Err(ApiError::new(format!(
             "the \"{task}\" task is not built yet in this version of residuary"
         ))),
     }
@@ -199,9 +351,3 @@ pub fn run_json_text(text: &str) -> (String, bool) {
     }
 }
 
-#[allow(dead_code)]
-fn contour_from(v: &Value) -> Result<Contour, ApiError> {
-    let c: Contour = serde_json::from_value(v.clone()).map_err(|e| ApiError::new(format!("bad contour: {e}")))?;
-    c.validate().map_err(ApiError::new)?;
-    Ok(c)
-}

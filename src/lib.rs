@@ -8,6 +8,10 @@ pub mod api;
 pub mod budget;
 pub mod contour;
 pub mod error;
+pub mod expr;
+pub mod plot;
+pub mod special;
+pub mod tasks;
 
 #[cfg(target_arch = "wasm32")]
 pub mod wasm;

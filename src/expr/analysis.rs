@@ -1,0 +1,229 @@
+//! Structural analysis of a compiled expression: rational form of the whole
+//! function and of each function argument, and the candidate points where
+//! essential singularities or branch points may sit.
+//!
+//! One bottom-up pass computes the rational form (if any) of every subtree.
+//! Candidate points are roots of small polynomials, solved exactly (linear,
+//! or the quadratic formula in its cancellation-free form); roots of larger
+//! polynomials are handed on as coefficient lists.
+
+use super::compile::R;
+use super::functions::Func;
+use super::parser::BinOp;
+use super::program::as_small_integer;
+use super::rational::{degree, is_zero, trim, Rational, RationalBuilder};
+use crate::C;
+
+/// What the structure of f says about its singularities.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct Analysis {
+    /// sqrt, log, asin/acos/atan of a non-constant, or a non-integer/complex power of a non-constant base.
+    pub uses_branch_functions: bool,
+    /// Finite points a where an entire transcendental function (exp, sin, …), a function
+    /// with infinitely many poles (tan, sec, gamma, …) or k^(…) is applied to a rational
+    /// argument with a pole at a.
+    pub essential_candidates: Vec<C>,
+    /// Finite points where a branch function's rational argument reaches a branch point
+    /// of that function (zeros/poles for sqrt, log and powers; ±1 and poles for
+    /// asin/acos; ±i for atan).
+    pub branch_candidates: Vec<C>,
+    /// Polynomials (ascending coefficients) of degree > 2 whose roots are further essential candidates.
+    pub essential_candidate_polys: Vec<Vec<C>>,
+    /// Polynomials (ascending coefficients) of degree > 2 whose roots are further branch candidates.
+    pub branch_candidate_polys: Vec<Vec<C>>,
+    /// gamma is applied to a non-constant argument.
+    pub has_gamma: bool,
+    /// f contains exp/sin/…/gamma/k^(…) of an argument that is not rational with a finite
+    /// limit at infinity, so infinity is not a pole (essential or worse).
+    pub is_entire_transcendental_at_infinity: bool,
+}
+
+/// Run the analysis; returns it with the rational form of the whole function.
+pub fn analyse(e: &R) -> (Analysis, Option<Rational>) {
+    let mut a = Analysis::default();
+    let mut b = RationalBuilder::new();
+    let r = walk(e, &mut a, &mut b);
+    (a, r)
+}
+
+fn walk(e: &R, an: &mut Analysis, b: &mut RationalBuilder) -> Option<Rational> {
+    match e {
+        R::Const(c) => b.constant(*c),
+        R::Var => Some(b.variable()),
+        R::Neg(x) => walk(x, an, b).map(|r| b.neg(r)),
+        R::Bin(op, x, y) => {
+            let rx = walk(x, an, b);
+            let ry = walk(y, an, b);
+            match op {
+                BinOp::Add => b.add(&rx?, &ry?),
+                BinOp::Sub => b.sub(&rx?, &ry?),
+                BinOp::Mul => b.mul(&rx?, &ry?),
+                BinOp::Div => b.div(&rx?, &ry?),
+                BinOp::Pow => power(x, y, rx, ry, an, b),
+            }
+        }
+        R::Call(f, x) => {
+            let rx = walk(x, an, b);
+            call(*f, rx, an);
+            None
+        }
+    }
+}
+
+fn power(
+    x: &R,
+    y: &R,
+    rx: Option<Rational>,
+    ry: Option<Rational>,
+    an: &mut Analysis,
+    b: &mut RationalBuilder,
+) -> Option<Rational> {
+    match (x.as_const(), y.as_const()) {
+        (_, Some(k)) => {
+            if let Some(n) = as_small_integer(k) {
+                return b.powi(&rx?, n as i64);
+            }
+            // Non-integer constant power of a non-constant base.
+            an.uses_branch_functions = true;
+            if let Some(r) = rx {
+                add_roots(
+                    &r.num,
+                    &mut an.branch_candidates,
+                    &mut an.branch_candidate_polys,
+                );
+                add_roots(
+                    &r.den,
+                    &mut an.branch_candidates,
+                    &mut an.branch_candidate_polys,
+                );
+            }
+            None
+        }
+        (Some(_), None) => {
+            // k^g = exp(g ln k): an entire function of g.
+            entire_of(ry.as_ref(), an);
+            None
+        }
+        (None, None) => {
+            an.uses_branch_functions = true;
+            an.is_entire_transcendental_at_infinity = true;
+            if let Some(r) = rx {
+                add_roots(
+                    &r.num,
+                    &mut an.branch_candidates,
+                    &mut an.branch_candidate_polys,
+                );
+                add_roots(
+                    &r.den,
+                    &mut an.branch_candidates,
+                    &mut an.branch_candidate_polys,
+                );
+            }
+            if let Some(r) = ry {
+                add_roots(
+                    &r.den,
+                    &mut an.essential_candidates,
+                    &mut an.essential_candidate_polys,
+                );
+            }
+            None
+        }
+    }
+}
+
+/// An entire (or infinitely-many-poles) function applied to `arg`.
+fn entire_of(arg: Option<&Rational>, an: &mut Analysis) {
+    match arg {
+        Some(r) => {
+            add_roots(
+                &r.den,
+                &mut an.essential_candidates,
+                &mut an.essential_candidate_polys,
+            );
+            if degree(&r.num) > degree(&r.den) {
+                an.is_entire_transcendental_at_infinity = true;
+            }
+        }
+        None => an.is_entire_transcendental_at_infinity = true,
+    }
+}
+
+fn call(f: Func, arg: Option<Rational>, an: &mut Analysis) {
+    let one = C::new(1.0, 0.0);
+    let i = C::new(0.0, 1.0);
+    if f == Func::Gamma {
+        an.has_gamma = true;
+    }
+    if !f.is_branch() {
+        entire_of(arg.as_ref(), an);
+        return;
+    }
+    an.uses_branch_functions = true;
+    let Some(r) = arg else { return };
+    let (pts, polys) = (&mut an.branch_candidates, &mut an.branch_candidate_polys);
+    // Points where num/den = w, i.e. roots of num - w den.
+    let level = |w: C| {
+        trim(super::rational::add(
+            &r.num,
+            &super::rational::scale(&r.den, -w),
+        ))
+    };
+    match f {
+        Func::Log | Func::Sqrt => {
+            add_roots(&r.num, pts, polys);
+            add_roots(&r.den, pts, polys);
+        }
+        Func::Asin | Func::Acos => {
+            add_roots(&level(one), pts, polys);
+            add_roots(&level(-one), pts, polys);
+            add_roots(&r.den, pts, polys);
+        }
+        Func::Atan => {
+            add_roots(&level(i), pts, polys);
+            add_roots(&level(-i), pts, polys);
+        }
+        _ => {}
+    }
+}
+
+/// Roots of `p` (degree <= 2) into `points`, or `p` itself into `polys`.
+fn add_roots(p: &[C], points: &mut Vec<C>, polys: &mut Vec<Vec<C>>) {
+    let p = trim(p.to_vec());
+    if is_zero(&p) {
+        return;
+    }
+    let mut push = |z: C| {
+        if z.re.is_finite() && z.im.is_finite() && !points.contains(&z) {
+            points.push(z);
+        }
+    };
+    match degree(&p) {
+        0 => {}
+        1 => push(-p[0] / p[1]),
+        2 => {
+            for z in quadratic_roots(p[2], p[1], p[0]) {
+                push(z);
+            }
+        }
+        _ => {
+            if !polys.contains(&p) {
+                polys.push(p);
+            }
+        }
+    }
+}
+
+/// Roots of a z^2 + b z + c (a != 0), avoiding cancellation:
+/// q = -(b + sign·sqrt(b^2 - 4ac))/2 with the sign making |q| largest; roots q/a, c/q.
+pub fn quadratic_roots(a: C, b: C, c: C) -> [C; 2] {
+    let s = (b * b - a * c * 4.0).sqrt();
+    let q = if (b + s).norm() >= (b - s).norm() {
+        -(b + s) / 2.0
+    } else {
+        -(b - s) / 2.0
+    };
+    if q == C::new(0.0, 0.0) {
+        return [C::new(0.0, 0.0), C::new(0.0, 0.0)];
+    }
+    [q / a, c / q]
+}

@@ -1,0 +1,56 @@
+//! `phase_plot`: colour the view box by arg f (and |f| lines), as PNG or raw RGBA.
+
+use super::compile;
+use crate::api::{PhasePlotRequest, Pixels};
+use crate::error::ApiError;
+use crate::plot::colour_wheel::Wheel;
+use crate::plot::phase_plot::{render_rows, PlotOptions, View};
+use crate::C;
+
+/// Render the requested rows of the plot as RGBA8.
+pub fn pixels(req: &PhasePlotRequest) -> Result<Pixels, ApiError> {
+    let f = compile(&req.function)?;
+    let [x0, x1, y0, y1] = req.view;
+    let [width, height] = req.size;
+    let wheel = match req.options.wheel.as_deref() {
+        None | Some("oklch") => Wheel::Oklch,
+        Some("hsv") => Wheel::Hsv,
+        Some(other) => {
+            return Err(ApiError::new(format!("unknown colour wheel \"{other}\"; use \"oklch\" or \"hsv\"")))
+        }
+    };
+    let opts = PlotOptions {
+        wheel,
+        modulus_lines: req.options.modulus_lines,
+        phase_lines: req.options.phase_lines,
+        infinity_view: req.options.infinity,
+        ..PlotOptions::default()
+    };
+    let [first, end] = req.rows.unwrap_or([0, height]);
+    let band = (end.saturating_sub(first) as usize).saturating_mul(width as usize).saturating_mul(4);
+    if band > 4 * 16_777_216 {
+        return Err(ApiError::new("the image is too large; at most 16 million pixels"));
+    }
+    let mut rgba = vec![0u8; band];
+    let mut eval = |zs: &[C], out: &mut [C]| f.eval_block(zs, out);
+    render_rows(&mut eval, View { x0, x1, y0, y1 }, width, height, first, end, &opts, &mut rgba)
+        .map_err(ApiError::new)?;
+    Ok(Pixels { width, height: end - first, rgba })
+}
+
+/// The JSON answer: `{"width","height","format","data"}` with base64 data.
+pub fn encoded(req: &PhasePlotRequest) -> Result<serde_json::Value, ApiError> {
+    let px = pixels(req)?;
+    let format = req.format.as_deref().unwrap_or("png");
+    let bytes = match format {
+        "png" => crate::plot::png_encode::encode_png_rgba(px.width, px.height, &px.rgba).map_err(ApiError::new)?,
+        "rgba" => px.rgba,
+        other => return Err(ApiError::new(format!("unknown format \"{other}\"; use \"png\" or \"rgba\""))),
+    };
+    Ok(serde_json::json!({
+        "width": px.width,
+        "height": px.height,
+        "format": format,
+        "data": crate::plot::base64::encode(&bytes),
+    }))
+}
