@@ -9,7 +9,12 @@ pub mod budget;
 pub mod contour;
 pub mod error;
 pub mod expr;
+pub mod linalg;
 pub mod plot;
+pub mod poly;
+pub mod quad;
+pub mod series;
+pub mod singular;
 pub mod special;
 pub mod tasks;
 

@@ -1,0 +1,326 @@
+//! All roots of a polynomial by the Aberth–Ehrlich simultaneous iteration.
+//!
+//! Method: O. Aberth, "Iteration methods for finding all zeros of a
+//! polynomial simultaneously", Math. Comp. 27 (1973); L. W. Ehrlich, "A
+//! modified Newton method for polynomials", Comm. ACM 10 (1967). Starting
+//! points on circles whose radii come from the Newton polygon, Gauss–Seidel
+//! updates, evaluation through the reversed polynomial outside the unit disc,
+//! and the stopping rule "|p(z)| below the running rounding-error bound" all
+//! follow D. A. Bini, "Numerical computation of polynomial zeros by means of
+//! Aberth's method", Numer. Algorithms 13 (1996). Inclusion radii
+//! `n·|p(z_i)| / |a_n Π_{j≠i}(z_i − z_j)|` are the Gerschgorin-type discs used
+//! there (each connected union of k discs holds exactly k roots).
+
+use super::{UNIT_ROUNDOFF, ZERO_C};
+use crate::C;
+
+/// Largest degree accepted.
+pub const MAX_DEGREE: usize = 5000;
+/// Safety factor applied to the first-order (condition × backward error) root error.
+const ERROR_SAFETY: f64 = 8.0;
+const MAX_ITERATIONS: usize = 500;
+
+/// Roots with per-root accuracy information.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Roots {
+    pub roots: Vec<C>,
+    /// First-order error estimate `(|p(z)| + rounding bound + u·Σ|p_k||z|^k)/|p'(z)|`, times a safety factor.
+    /// For members of a multiple root this is large (correctly: they are ill-conditioned).
+    pub errors: Vec<f64>,
+    /// Inclusion-disc radii (Bini 1996); overlapping discs mark clusters.
+    pub inclusion_radii: Vec<f64>,
+    /// Number of sweeps used.
+    pub iterations: usize,
+    /// Whether every root met the backward-error stopping rule.
+    pub converged: bool,
+}
+
+/// Value, derivative-over-value and rounding bound of `p` at `z`, computed as
+/// `ln|p(z)|`-safe quantities. Returns `(ratio p'/p, |p| ≤ bound?, log|p|+bound, |p|/|p'|-style scale)`.
+struct Eval {
+    /// p'(z)/p(z) (may be infinite when p(z) = 0).
+    ratio: C,
+    /// |p(z)| is below its rounding bound: z is a root to working precision.
+    converged: bool,
+    /// ln(|p(z)| + bound) — for the inclusion radius.
+    log_residual: f64,
+    /// (|p(z)| + bound + u·Σ|p_k||z|^k) / |p'(z)|: first-order error.
+    first_order_error: f64,
+}
+
+fn horner_with_derivative(p: &[C], z: C) -> (C, C, f64, f64) {
+    let az = z.norm();
+    let mut y = ZERO_C;
+    let mut dy = ZERO_C;
+    let mut mu = 0.0;
+    let mut scale = 0.0;
+    for &c in p.iter().rev() {
+        dy = dy * z + y;
+        y = y * z + c;
+        mu = mu * az + y.norm();
+        scale = scale * az + c.norm();
+    }
+    (y, dy, 4.0 * UNIT_ROUNDOFF * mu, scale)
+}
+
+/// Evaluate at `z`, through the reversed polynomial `rp` when |z| > 1 so that
+/// nothing overflows: `p(z) = z^n rp(1/z)`, `p'/p = w(n − w rp'(w)/rp(w))`.
+fn evaluate(p: &[C], rp: &[C], z: C) -> Eval {
+    let n = (p.len() - 1) as f64;
+    let (ratio, v, bound, scale, dv_abs, log_factor) = if z.norm() <= 1.0 {
+        let (v, dv, bound, scale) = horner_with_derivative(p, z);
+        (dv / v, v, bound, scale, dv.norm(), 0.0)
+    } else {
+        let w = z.inv();
+        let (v, dv, bound, scale) = horner_with_derivative(rp, w);
+        // p'(z) = z^(n−1) (n q(w) − w q'(w)); divide everything by |z|^n.
+        let dp = (v * n - w * dv) * w;
+        (dp / v, v, bound, scale, dp.norm(), n * z.norm().ln())
+    };
+    let residual = v.norm() + bound;
+    Eval {
+        ratio,
+        converged: v.norm() <= bound,
+        log_residual: residual.ln() + log_factor,
+        first_order_error: (residual + UNIT_ROUNDOFF * scale) / dv_abs,
+    }
+}
+
+/// Starting points on circles from the upper convex hull of `(k, ln|a_k|)` (Bini 1996, §3).
+fn initial_points(p: &[C]) -> Vec<C> {
+    let n = p.len() - 1;
+    let pts: Vec<(usize, f64)> = p
+        .iter()
+        .enumerate()
+        .filter(|(_, c)| c.norm() > 0.0)
+        .map(|(k, c)| (k, c.norm().ln()))
+        .collect();
+    // Upper hull by a monotone chain.
+    let mut hull: Vec<(usize, f64)> = Vec::new();
+    for &q in &pts {
+        while hull.len() >= 2 {
+            let (a, b) = (hull[hull.len() - 2], hull[hull.len() - 1]);
+            let cross =
+                (b.0 as f64 - a.0 as f64) * (q.1 - a.1) - (b.1 - a.1) * (q.0 as f64 - a.0 as f64);
+            if cross >= 0.0 {
+                hull.pop();
+            } else {
+                break;
+            }
+        }
+        hull.push(q);
+    }
+    let sigma = 0.7;
+    let mut out = Vec::with_capacity(n);
+    for w in hull.windows(2) {
+        let (k0, l0) = w[0];
+        let (k1, l1) = w[1];
+        let m = k1 - k0;
+        let radius = ((l0 - l1) / m as f64).exp();
+        for j in 0..m {
+            let angle =
+                std::f64::consts::TAU * (j as f64 / m as f64 + k0 as f64 / n as f64) + sigma;
+            out.push(C::from_polar(radius, angle));
+        }
+    }
+    out
+}
+
+fn check_input(p: &[C]) -> Result<(), String> {
+    if let Some(k) = p.iter().position(|c| !c.is_finite()) {
+        return Err(format!(
+            "coefficient {k} of the polynomial is not a finite number; check the expression for overflow or division by zero"
+        ));
+    }
+    Ok(())
+}
+
+/// All roots of `p` (ascending coefficients), with error estimates.
+///
+/// Zeros at the origin (vanishing low coefficients) are returned exactly, first.
+/// Errors: a non-finite coefficient, the zero polynomial, degree above [`MAX_DEGREE`].
+pub fn roots(p: &[C]) -> Result<Roots, String> {
+    check_input(p)?;
+    let p = super::trim(p);
+    if p.is_empty() {
+        return Err("the polynomial is identically zero, so it has no isolated roots".into());
+    }
+    if p.len() - 1 > MAX_DEGREE {
+        return Err(format!(
+            "the polynomial has degree {}, above the limit {MAX_DEGREE}; simplify or factor the expression",
+            p.len() - 1
+        ));
+    }
+    let zeros_at_origin = p.iter().position(|c| *c != ZERO_C).unwrap_or(0);
+    let q = &p[zeros_at_origin..];
+    // Scale by a power of two (exact) so the largest coefficient is about 1.
+    let big = q.iter().map(|c| c.norm()).fold(0.0, f64::max);
+    let s = 2f64.powi(-(big.log2().round() as i32));
+    let q: Vec<C> = q.iter().map(|c| c * s).collect();
+    let mut out = core_roots(&q);
+    let mut roots = vec![ZERO_C; zeros_at_origin];
+    roots.append(&mut out.roots);
+    let mut errors = vec![0.0; zeros_at_origin];
+    errors.append(&mut out.errors);
+    let mut radii = vec![0.0; zeros_at_origin];
+    radii.append(&mut out.inclusion_radii);
+    Ok(Roots {
+        roots,
+        errors,
+        inclusion_radii: radii,
+        ..out
+    })
+}
+
+/// Roots of a polynomial with nonzero constant and leading coefficients.
+fn core_roots(q: &[C]) -> Roots {
+    let n = q.len() - 1;
+    let mut z = match n {
+        0 => Vec::new(),
+        1 => vec![-q[0] / q[1]],
+        2 => quadratic(q),
+        _ => initial_points(q),
+    };
+    let rq = super::reverse(q);
+    let mut done = vec![n <= 2; n];
+    let mut iterations = 0;
+    if n > 2 {
+        while iterations < MAX_ITERATIONS && done.iter().any(|d| !d) {
+            iterations += 1;
+            for i in 0..n {
+                if done[i] {
+                    continue;
+                }
+                let e = evaluate(q, &rq, z[i]);
+                if e.converged || !e.ratio.is_finite() {
+                    done[i] = true;
+                    continue;
+                }
+                let step = aberth_step(&z, i, e.ratio);
+                if step.is_finite() {
+                    z[i] -= step;
+                } else {
+                    done[i] = true;
+                }
+            }
+        }
+    }
+    // Polishing: one more Aberth (Newton with implicit deflation) step for each root,
+    // kept only where it lowers the residual.
+    if n >= 2 {
+        for i in 0..n {
+            let e = evaluate(q, &rq, z[i]);
+            if !e.ratio.is_finite() {
+                continue;
+            }
+            let step = aberth_step(&z, i, e.ratio);
+            let cand = z[i] - step;
+            if cand.is_finite() && evaluate(q, &rq, cand).log_residual < e.log_residual {
+                z[i] = cand;
+            }
+        }
+    }
+    let converged = done.iter().all(|d| *d) && z.iter().all(|x| x.is_finite());
+    let (errors, radii) = accuracy(q, &rq, &z);
+    Roots {
+        roots: z,
+        errors,
+        inclusion_radii: radii,
+        iterations,
+        converged,
+    }
+}
+
+/// Aberth correction `1 / (p'/p − Σ_{j≠i} 1/(z_i − z_j))`.
+fn aberth_step(z: &[C], i: usize, ratio: C) -> C {
+    let zi = z[i];
+    let mut s = ZERO_C;
+    for (j, &zj) in z.iter().enumerate() {
+        if j != i {
+            let d = zi - zj;
+            let nd = d.norm_sqr();
+            if nd > 0.0 {
+                s += d.conj() / nd;
+            }
+        }
+    }
+    let denom = ratio - s;
+    if denom == ZERO_C {
+        ZERO_C
+    } else {
+        denom.inv()
+    }
+}
+
+/// Both roots of `q0 + q1 z + q2 z^2` without cancellation (common practice).
+fn quadratic(q: &[C]) -> Vec<C> {
+    let (c, b, a) = (q[0], q[1], q[2]);
+    let d = (b * b - a * c * 4.0).sqrt();
+    let t = if (b.conj() * d).re >= 0.0 {
+        -(b + d) / 2.0
+    } else {
+        -(b - d) / 2.0
+    };
+    if t == ZERO_C {
+        // Only reachable through underflow (t = 0 needs b = 0 and ac = 0).
+        let r = (-c / a).sqrt();
+        return vec![r, -r];
+    }
+    vec![t / a, c / t]
+}
+
+/// First-order errors and inclusion radii for all roots.
+fn accuracy(q: &[C], rq: &[C], z: &[C]) -> (Vec<f64>, Vec<f64>) {
+    let n = z.len();
+    let log_lead = q[n].norm().ln();
+    let mut errors = Vec::with_capacity(n);
+    let mut radii = Vec::with_capacity(n);
+    for i in 0..n {
+        let e = evaluate(q, rq, z[i]);
+        let mut log_prod = 0.0;
+        let mut coincident = false;
+        for (j, &zj) in z.iter().enumerate() {
+            if j != i {
+                let d = (z[i] - zj).norm();
+                if d == 0.0 {
+                    coincident = true;
+                } else {
+                    log_prod += d.ln();
+                }
+            }
+        }
+        let r = if coincident {
+            f64::INFINITY
+        } else {
+            ((n as f64).ln() + e.log_residual - log_lead - log_prod).exp()
+        };
+        let fe = ERROR_SAFETY * e.first_order_error;
+        errors.push(if fe.is_nan() { f64::INFINITY } else { fe });
+        radii.push(if r.is_nan() { f64::INFINITY } else { r });
+    }
+    (errors, radii)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn c(re: f64, im: f64) -> C {
+        C::new(re, im)
+    }
+
+    #[test]
+    fn zeros_at_origin_are_exact() {
+        // z^2 (z − 3): roots 0, 0, 3 by construction
+        let r = roots(&[c(0.0, 0.0), c(0.0, 0.0), c(-3.0, 0.0), c(1.0, 0.0)]).unwrap();
+        assert_eq!(&r.roots[..2], &[c(0.0, 0.0), c(0.0, 0.0)]);
+        assert!((r.roots[2] - c(3.0, 0.0)).norm() < 1e-15);
+    }
+
+    #[test]
+    fn bad_inputs_are_errors() {
+        assert!(roots(&[c(0.0, 0.0)]).is_err());
+        assert!(roots(&[c(f64::NAN, 0.0), c(1.0, 0.0)]).is_err());
+        assert!(roots(&vec![c(1.0, 0.0); MAX_DEGREE + 2]).is_err());
+    }
+}

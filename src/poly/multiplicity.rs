@@ -1,0 +1,231 @@
+//! Multiple roots from clusters of simple approximations.
+//!
+//! A root of multiplicity m comes out of a floating-point root finder as m
+//! points on a circle of radius about `(u·scale/|p^(m)/m!|)^(1/m)`. Clusters are
+//! the connected unions of the inclusion discs of Bini, "Numerical computation
+//! of polynomial zeros by means of Aberth's method", Numer. Algorithms 13
+//! (1996) (a union of k discs holds k roots). Each cluster is replaced by its
+//! centroid — the mean of the cluster's roots is a well-conditioned function of
+//! the coefficients (common practice) — and then refined by Newton's method on
+//! `p^(m−1)`, for which the m-fold root is simple. The idea that a multiple
+//! root is well-conditioned once its multiplicity is fixed is that of Z. Zeng,
+//! "Computing multiple roots of inexact polynomials", Math. Comp. 74 (2005).
+
+// `!(a <= b)` is deliberate: a NaN must take the cautious branch.
+#![allow(clippy::neg_cmp_op_on_partial_ord)]
+
+use super::aberth_ehrlich::{self, Roots};
+use super::taylor::{abs_coefficients_at, coefficients_at};
+use super::{nth_derivative, UNIT_ROUNDOFF};
+use crate::C;
+
+/// Safety factor on the first-order error of a refined multiple root.
+const ERROR_SAFETY: f64 = 8.0;
+/// A cluster wider than this many perturbation radii is not explained by one multiple root.
+const SPREAD_TOLERANCE: f64 = 30.0;
+
+/// One distinct root with its multiplicity.
+#[derive(Debug, Clone, PartialEq)]
+pub struct RootCluster {
+    /// Centroid of the cluster, refined by Newton on `p^(m−1)`.
+    pub center: C,
+    pub multiplicity: u32,
+    /// Error estimate of `center`.
+    pub error: f64,
+    /// How far rounding the coefficients to double precision alone can move an
+    /// m-fold root, ~(u·Σ|p_k||c|^k / |p^(m)(c)/m!|)^(1/m): a floor on the location error.
+    pub perturbation: f64,
+    /// Largest distance from a member approximation to the center.
+    pub spread: f64,
+    /// The simple approximations that formed the cluster.
+    pub members: Vec<C>,
+    /// False when the spread is too wide for a single m-fold root: then the cluster is
+    /// probably several distinct roots closer together than double precision resolves.
+    pub resolved: bool,
+}
+
+/// Roots of `p` grouped into distinct roots with multiplicities.
+pub fn distinct_roots(p: &[C]) -> Result<(Vec<RootCluster>, bool), String> {
+    let r = aberth_ehrlich::roots(p)?;
+    Ok((cluster_roots(p, &r), r.converged))
+}
+
+fn find(parent: &mut [usize], i: usize) -> usize {
+    let mut r = i;
+    while parent[r] != r {
+        r = parent[r];
+    }
+    let mut k = i;
+    while parent[k] != r {
+        let next = parent[k];
+        parent[k] = r;
+        k = next;
+    }
+    r
+}
+
+/// Group the approximations in `r` (roots of `p`) into clusters.
+pub fn cluster_roots(p: &[C], r: &Roots) -> Vec<RootCluster> {
+    let n = r.roots.len();
+    let radius: Vec<f64> = (0..n)
+        .map(|i| r.inclusion_radii[i].max(r.errors[i]))
+        .collect();
+    let mut parent: Vec<usize> = (0..n).collect();
+    // Sort by real part so only nearby pairs are compared.
+    let mut order: Vec<usize> = (0..n).collect();
+    order.sort_by(|&a, &b| r.roots[a].re.total_cmp(&r.roots[b].re));
+    let max_radius = radius
+        .iter()
+        .copied()
+        .filter(|x| x.is_finite())
+        .fold(0.0, f64::max);
+    for (oi, &i) in order.iter().enumerate() {
+        for &j in &order[oi + 1..] {
+            let dx = r.roots[j].re - r.roots[i].re;
+            if dx > radius[i] + max_radius && radius[i].is_finite() {
+                break;
+            }
+            let d = (r.roots[i] - r.roots[j]).norm();
+            if !(d > radius[i] + radius[j]) {
+                let (a, b) = (find(&mut parent, i), find(&mut parent, j));
+                if a != b {
+                    parent[a] = b;
+                }
+            }
+        }
+    }
+    let mut groups: Vec<Vec<usize>> = Vec::new();
+    let mut slot = vec![usize::MAX; n];
+    for i in 0..n {
+        let g = find(&mut parent, i);
+        if slot[g] == usize::MAX {
+            slot[g] = groups.len();
+            groups.push(Vec::new());
+        }
+        groups[slot[g]].push(i);
+    }
+    groups
+        .into_iter()
+        .map(|g| {
+            let members: Vec<C> = g.iter().map(|&i| r.roots[i]).collect();
+            if members.len() == 1 {
+                let i = g[0];
+                return RootCluster {
+                    center: members[0],
+                    multiplicity: 1,
+                    error: r.errors[i],
+                    perturbation: r.errors[i],
+                    spread: 0.0,
+                    members,
+                    resolved: true,
+                };
+            }
+            refine_cluster(p, members)
+        })
+        .collect()
+}
+
+/// Centroid, Newton refinement on `p^(m−1)`, error estimate and a resolvability check.
+fn refine_cluster(p: &[C], members: Vec<C>) -> RootCluster {
+    let m = members.len();
+    let centroid = members.iter().sum::<C>() / m as f64;
+    let spread = members
+        .iter()
+        .map(|z| (z - centroid).norm())
+        .fold(0.0, f64::max);
+    let mut resolved = true;
+    if members.iter().all(|z| *z == centroid) {
+        // Exact (e.g. zeros at the origin found by coefficient inspection).
+        return RootCluster {
+            center: centroid,
+            multiplicity: m as u32,
+            error: 0.0,
+            perturbation: 0.0,
+            spread,
+            members,
+            resolved,
+        };
+    }
+    // Perturbation radius of an m-fold root under coefficient noise u·Σ|p_k||c|^k (common practice).
+    let perturbation_at = |c: C| {
+        let tc = coefficients_at(p, c, m + 1);
+        let scale = abs_coefficients_at(p, c, 1)[0];
+        (4.0 * (p.len() as f64) * UNIT_ROUNDOFF * scale / tc[m].norm()).powf(1.0 / m as f64)
+    };
+    // Newton may move the centre as far as the members could be off: their
+    // spread, or the perturbation radius when the members bunched up early.
+    let reach = spread.max(perturbation_at(centroid)).max(UNIT_ROUNDOFF * centroid.norm());
+    let d = nth_derivative(p, m - 1);
+    let mut center = centroid;
+    for _ in 0..8 {
+        let t = coefficients_at(&d, center, 2);
+        if t[1] == C::new(0.0, 0.0) {
+            break;
+        }
+        let step = t[0] / t[1];
+        let next = center - step;
+        if !next.is_finite() || (next - centroid).norm() > 2.0 * reach {
+            break;
+        }
+        center = next;
+        if step.norm() <= 4.0 * UNIT_ROUNDOFF * center.norm() {
+            break;
+        }
+    }
+    // First-order error of the simple root of p^(m−1): (|value| + rounding + coefficient noise)/|slope|.
+    let t = coefficients_at(&d, center, 2);
+    let s = abs_coefficients_at(&d, center, 1)[0];
+    let dn = d.len().max(1) as f64;
+    let mut error = ERROR_SAFETY * (t[0].norm() + 4.0 * dn * UNIT_ROUNDOFF * s) / t[1].norm();
+    if !(error.is_finite()) || error > 2.0 * reach {
+        center = centroid;
+        error = 2.0 * reach;
+    }
+    let rho = perturbation_at(center);
+    if !(spread <= SPREAD_TOLERANCE * rho) {
+        resolved = false;
+    }
+    RootCluster {
+        center,
+        multiplicity: m as u32,
+        error,
+        perturbation: if rho.is_finite() { rho } else { spread },
+        spread,
+        members,
+        resolved,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::poly::from_roots;
+
+    #[test]
+    fn triple_double_simple() {
+        // (z−1)^3 (z+2)^2 (z−i): multiplicities by construction
+        let one = C::new(1.0, 0.0);
+        let p = from_roots(
+            one,
+            &[
+                one,
+                one,
+                one,
+                C::new(-2.0, 0.0),
+                C::new(-2.0, 0.0),
+                C::new(0.0, 1.0),
+            ],
+        );
+        let (mut cl, ok) = distinct_roots(&p).unwrap();
+        assert!(ok);
+        cl.sort_by_key(|c| std::cmp::Reverse(c.multiplicity));
+        assert_eq!(
+            cl.iter().map(|c| c.multiplicity).collect::<Vec<_>>(),
+            vec![3, 2, 1]
+        );
+        assert!((cl[0].center - one).norm() < 1e-10);
+        assert!((cl[1].center + 2.0).norm() < 1e-10);
+        assert!((cl[2].center - C::new(0.0, 1.0)).norm() < 1e-12);
+        assert!(cl.iter().all(|c| c.resolved));
+    }
+}

@@ -1,0 +1,499 @@
+//! Laurent coefficients by the FFT of samples on circles (Cauchy integrals by
+//! the trapezoidal rule).
+//!
+//! Method: c_n = (1/2πi) ∮ f(z) (z − a)^{−n−1} dz on |z − a| = ρ, discretised
+//! by the N-point trapezoidal rule, which is one FFT:
+//! c_n ≈ (1/N) Σ_k f(a + ρω^k) ω^{−nk} ρ^{−n}, ω = e^{2πi/N}.
+//! The choice of radius follows F. Bornemann, "Accuracy and stability of
+//! computing high-order derivatives of analytic functions by Cauchy
+//! integrals", Found. Comput. Math. 11 (2011) 1–63: the rounding error of c_n on
+//! |z − a| = ρ is about ε·max|f|·ρ^{−n}, so nonnegative n prefer large circles
+//! and negative n small ones. We sample on a ladder of radii inside the
+//! annulus and keep, for every n, the radius with the smallest error estimate.
+//!
+//! On each circle N (a power of two) is doubled, reusing old samples, until
+//! the coefficients stop changing (aliasing below the rounding floor) or a
+//! cap is reached. Error estimate per coefficient: 10·|c_n(N) − c_n(N/2)|
+//! plus the rounding floor ε·max|f|·ρ^{−n}·(4 + log₂N) + 4ε(|n|+1)|c_n|.
+//! Results from different radii must agree within their estimates: a large
+//! disagreement means a singularity lies between the circles and the request
+//! is refused; a small one widens the estimate.
+//!
+//! Around infinity the series is f(z) = Σ c_n z^n on r1 < |z| < ∞ (n < 0 are
+//! the decaying terms, Res∞ f = −c_{−1}). This is the expansion of
+//! g(w) = f(1/w) on 0 < |w| < 1/r1 with the index reversed: sampling f on
+//! |z| = ρ is sampling g on |w| = 1/ρ, so the same circles serve both.
+
+use crate::budget::Budget;
+use crate::C;
+use rustfft::FftPlanner;
+use std::f64::consts::PI;
+
+/// Most coefficients one request may ask for.
+pub const MAX_COEFFICIENTS: i64 = 4096;
+/// Largest |n| accepted.
+pub const MAX_INDEX: i64 = 1_000_000;
+/// Most samples on one circle.
+pub const MAX_SAMPLES_PER_CIRCLE: usize = 1 << 16;
+
+/// Where the series is centred.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Center {
+    Point(C),
+    /// Expansion in powers of z valid for |z| > inner (outer is ignored).
+    Infinity,
+}
+
+/// Coefficients c_from..=c_to of f on inner < |z − a| < outer.
+/// `outer` may be `f64::INFINITY`; `inner` may be 0 (punctured disk).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct LaurentRequest {
+    pub center: Center,
+    pub inner: f64,
+    pub outer: f64,
+    pub from: i64,
+    pub to: i64,
+}
+
+/// The coefficients with per-coefficient error estimates (upper bounds meant).
+#[derive(Debug, Clone, PartialEq)]
+pub struct LaurentResult {
+    /// (n, c_n) for n = from..=to.
+    pub coefficients: Vec<(i64, C)>,
+    /// Error estimate of each coefficient, same order.
+    pub errors: Vec<f64>,
+    /// The largest of `errors`.
+    pub error_estimate: f64,
+    /// The circle radius (|z − a|, or |z| around infinity) each coefficient came from.
+    pub radius_used: Vec<f64>,
+    /// Evaluations of f spent.
+    pub samples: usize,
+}
+
+/// The coefficients c_from..=c_to from exactly `samples` points on one circle
+/// |z − center| = radius, by one FFT (no error control). This is the fast
+/// kernel; [`laurent`] adds radius choice and convergence checks.
+pub fn coefficients_on_circle(
+    f: &mut dyn FnMut(C) -> C,
+    center: C,
+    radius: f64,
+    samples: usize,
+    from: i64,
+    to: i64,
+    budget: &mut Budget,
+) -> Result<Vec<C>, String> {
+    if samples == 0 || !(radius.is_finite() && radius > 0.0) || from > to {
+        return Err("need samples > 0, a positive finite radius and from ≤ to".into());
+    }
+    budget.spend(samples as u64).map_err(|e| e.to_string())?;
+    let mut values = Vec::with_capacity(samples);
+    for k in 0..samples {
+        let z = center + C::from_polar(radius, 2.0 * PI * k as f64 / samples as f64);
+        let v = f(z);
+        if !finite(v) {
+            return Err(not_finite_message(z, center, radius));
+        }
+        values.push(v);
+    }
+    let spectrum = fft(&values);
+    Ok((from..=to)
+        .map(|n| scaled(&spectrum, n, radius).0)
+        .collect())
+}
+
+/// Laurent coefficients of f; see the module doc for the method.
+///
+/// `known_singularities` are singular points found elsewhere; the request is
+/// refused, naming one, if any lies strictly inside the annulus.
+pub fn laurent<F: FnMut(C) -> C>(
+    mut f: F,
+    req: &LaurentRequest,
+    known_singularities: &[C],
+    budget: &mut Budget,
+) -> Result<LaurentResult, String> {
+    let (center, inner, outer) = check_request(req)?;
+    check_singularities(req, center, inner, outer, known_singularities)?;
+    let start = budget.used();
+    let mut fits = Vec::new();
+    let mut first_failure = None;
+    for rho in radius_ladder(inner, outer, req.from, req.to) {
+        match fit_on_circle(&mut f, center, rho, req.from, req.to, budget) {
+            Ok(fit) => fits.push(fit),
+            Err(CircleFailure::Budget(m)) => return Err(m),
+            Err(CircleFailure::NotFinite(z)) => {
+                first_failure.get_or_insert((z, rho));
+            }
+        }
+    }
+    if fits.len() < 2 {
+        let (z, rho) = first_failure.unwrap_or((center, inner));
+        return Err(not_finite_message(z, center, rho));
+    }
+    combine(&fits, req, center, budget.used() - start)
+}
+
+/// One circle's coefficients and their error estimates.
+struct CircleFit {
+    radius: f64,
+    values: Vec<C>,
+    errors: Vec<f64>,
+}
+
+enum CircleFailure {
+    NotFinite(C),
+    Budget(String),
+}
+
+fn finite(z: C) -> bool {
+    z.re.is_finite() && z.im.is_finite()
+}
+
+fn fft(values: &[C]) -> Vec<C> {
+    let mut buffer = values.to_vec();
+    FftPlanner::<f64>::new()
+        .plan_fft_forward(buffer.len())
+        .process(&mut buffer);
+    buffer
+}
+
+/// c_n from the spectrum of N samples on radius ρ, and the factor ρ^{−n}.
+fn scaled(spectrum: &[C], n: i64, radius: f64) -> (C, f64) {
+    let len = spectrum.len();
+    let b = spectrum[n.rem_euclid(len as i64) as usize] / len as f64;
+    let factor = (-(n as f64) * radius.ln()).exp();
+    let c = if b == C::new(0.0, 0.0) { b } else { b * factor };
+    (c, factor)
+}
+
+fn sample(f: &mut dyn FnMut(C) -> C, z: C) -> Result<C, CircleFailure> {
+    let v = f(z);
+    if finite(v) {
+        Ok(v)
+    } else {
+        Err(CircleFailure::NotFinite(z))
+    }
+}
+
+/// Sample on |z − a| = ρ with N doubling until the coefficients settle.
+fn fit_on_circle(
+    f: &mut dyn FnMut(C) -> C,
+    center: C,
+    rho: f64,
+    from: i64,
+    to: i64,
+    budget: &mut Budget,
+) -> Result<CircleFit, CircleFailure> {
+    let count = (to - from + 1) as usize;
+    let mut n = (2 * count).next_power_of_two().max(64);
+    let cap = MAX_SAMPLES_PER_CIRCLE.max(4 * n);
+    budget
+        .spend(n as u64)
+        .map_err(|e| CircleFailure::Budget(e.to_string()))?;
+    let mut samples = Vec::with_capacity(n);
+    for k in 0..n {
+        samples.push(sample(
+            f,
+            center + C::from_polar(rho, 2.0 * PI * k as f64 / n as f64),
+        )?);
+    }
+    let coarse_spectrum = fft(&samples);
+    let mut previous: Vec<C> = (from..=to)
+        .map(|m| scaled(&coarse_spectrum, m, rho).0)
+        .collect();
+    let mut previous_worst = f64::INFINITY;
+    loop {
+        budget
+            .spend(n as u64)
+            .map_err(|e| CircleFailure::Budget(e.to_string()))?;
+        let mut finer = Vec::with_capacity(2 * n);
+        for (k, &old) in samples.iter().enumerate() {
+            finer.push(old);
+            let angle = 2.0 * PI * (2 * k + 1) as f64 / (2 * n) as f64;
+            finer.push(sample(f, center + C::from_polar(rho, angle))?);
+        }
+        samples = finer;
+        n *= 2;
+        let spectrum = fft(&samples);
+        let max_f = samples.iter().map(|v| v.norm()).fold(0.0, f64::max);
+        let eps = f64::EPSILON;
+        let mut values = Vec::with_capacity(count);
+        let mut errors = Vec::with_capacity(count);
+        let mut settled = true;
+        // Largest change, measured in units of max|f| (the scale of the samples).
+        let mut worst = 0.0f64;
+        for (i, m) in (from..=to).enumerate() {
+            let (c, factor) = scaled(&spectrum, m, rho);
+            let diff = (c - previous[i]).norm();
+            let floor = eps * max_f * factor * (4.0 + (n as f64).log2())
+                + 4.0 * eps * (m.unsigned_abs() as f64 + 1.0) * c.norm();
+            let error = 10.0 * diff + floor;
+            if diff.is_nan() || diff > 2.0 * floor {
+                settled = false;
+            }
+            if factor > 0.0 && factor.is_finite() && max_f > 0.0 {
+                worst = worst.max(diff / (factor * max_f));
+            }
+            values.push(c);
+            errors.push(if error.is_nan() { f64::INFINITY } else { error });
+        }
+        // Stagnation at rounding level: further doubling cannot help.
+        let stagnant = worst <= 1e-10 && worst > 0.25 * previous_worst;
+        if settled || stagnant || n >= cap {
+            return Ok(CircleFit {
+                radius: rho,
+                values,
+                errors,
+            });
+        }
+        previous_worst = worst;
+        previous = values;
+    }
+}
+
+/// Circles to try, strictly inside the annulus. For high orders n next to a
+/// singular boundary circle R, Bornemann's balance ρ^{−n}/|R − ρ| favours
+/// ρ ≈ R(1 ∓ 1/n); we add ρ = R(1 ∓ 4/n), which still converges with N ≈ 10n.
+fn radius_ladder(inner: f64, outer: f64, from: i64, to: i64) -> Vec<f64> {
+    let mut radii = base_ladder(inner, outer);
+    if outer.is_finite() && to > 40 {
+        radii.push(outer * (1.0 - 4.0 / (to as f64 + 1.0)));
+    }
+    if inner > 0.0 && from < -40 {
+        radii.push(inner * (1.0 + 4.0 / (from.unsigned_abs() as f64 + 1.0)));
+    }
+    radii.retain(|&r| r > inner && r < outer);
+    radii
+}
+
+fn base_ladder(inner: f64, outer: f64) -> Vec<f64> {
+    match (inner > 0.0, outer.is_finite()) {
+        (false, true) => [1.0 / 64.0, 1.0 / 16.0, 0.25, 0.5, 0.75, 0.9]
+            .iter()
+            .map(|s| s * outer)
+            .collect(),
+        (false, false) => (-5..=5).map(|j| 2f64.powi(j)).collect(),
+        (true, false) => [1.1, 1.25, 1.6, 2.5, 4.0, 8.0, 32.0]
+            .iter()
+            .map(|s| s * inner)
+            .collect(),
+        (true, true) => [0.1, 0.25, 0.5, 0.75, 0.9]
+            .iter()
+            .map(|s| inner * (outer / inner).powf(*s))
+            .collect(),
+    }
+}
+
+/// For every n keep the radius with the smallest estimate; check agreement.
+fn combine(
+    fits: &[CircleFit],
+    req: &LaurentRequest,
+    center: C,
+    used: u64,
+) -> Result<LaurentResult, String> {
+    let mut coefficients = Vec::new();
+    let mut errors = Vec::new();
+    let mut radius_used = Vec::new();
+    for (i, n) in (req.from..=req.to).enumerate() {
+        let mut order: Vec<usize> = (0..fits.len()).collect();
+        order.sort_by(|&p, &q| fits[p].errors[i].total_cmp(&fits[q].errors[i]));
+        let (best, second) = (&fits[order[0]], &fits[order[1]]);
+        let (c, mut e) = (best.values[i], best.errors[i]);
+        if !(e.is_finite() && finite(c)) {
+            return Err(format!(
+                "c_{n} cannot be represented in double precision on this annulus (it over- or underflows); rescale the variable or ask for fewer coefficients"
+            ));
+        }
+        // Any two circles that both claim accuracy must agree.
+        for p in 0..fits.len() {
+            for q in p + 1..fits.len() {
+                let (a, b) = (&fits[p], &fits[q]);
+                let d = (a.values[i] - b.values[i]).norm();
+                if d > 1000.0 * (a.errors[i] + b.errors[i])
+                    && d > 1e-13 * a.values[i].norm().max(b.values[i].norm())
+                {
+                    let (lo, hi) = (a.radius.min(b.radius), a.radius.max(b.radius));
+                    let ring = ring_text(req.center, center);
+                    return Err(format!(
+                        "the coefficient c_{n} computed on {ring} = {} and on {ring} = {} disagree ({} vs {}): f probably has a singularity (or branch cut) with {} < {ring} < {} inside the requested annulus; narrow the annulus or pass the singular points in known_singularities",
+                        short(lo), short(hi), show(a.values[i]), show(b.values[i]), short(lo), short(hi)
+                    ));
+                }
+            }
+        }
+        let d = (c - second.values[i]).norm();
+        if d > e + second.errors[i] {
+            e = d + second.errors[i];
+        }
+        coefficients.push((n, c));
+        errors.push(e);
+        radius_used.push(best.radius);
+    }
+    let error_estimate = errors.iter().copied().fold(0.0, f64::max);
+    Ok(LaurentResult {
+        coefficients,
+        errors,
+        error_estimate,
+        radius_used,
+        samples: used as usize,
+    })
+}
+
+fn check_request(req: &LaurentRequest) -> Result<(C, f64, f64), String> {
+    let center = match req.center {
+        Center::Point(a) if finite(a) => a,
+        Center::Point(_) => return Err("the center must be a finite complex number".into()),
+        Center::Infinity => C::new(0.0, 0.0),
+    };
+    let inner = req.inner;
+    let outer = if req.center == Center::Infinity {
+        f64::INFINITY
+    } else {
+        req.outer
+    };
+    if !(inner.is_finite() && inner >= 0.0) {
+        return Err(format!(
+            "the inner radius must be a finite number ≥ 0, got {inner}"
+        ));
+    }
+    if outer.is_nan() || outer <= inner {
+        return Err(format!(
+            "the outer radius ({outer}) must be larger than the inner radius ({inner})"
+        ));
+    }
+    if req.from > req.to {
+        return Err(format!(
+            "from ({}) must not exceed to ({})",
+            req.from, req.to
+        ));
+    }
+    if req.from < -MAX_INDEX || req.to > MAX_INDEX {
+        return Err(format!("coefficient indices must lie within ±{MAX_INDEX}"));
+    }
+    if req.to - req.from + 1 > MAX_COEFFICIENTS {
+        return Err(format!(
+            "{} coefficients requested; at most {MAX_COEFFICIENTS} per request—narrow from..to",
+            req.to - req.from + 1
+        ));
+    }
+    Ok((center, inner, outer))
+}
+
+/// Refuse an annulus with a known singular point strictly inside, naming it.
+fn check_singularities(
+    req: &LaurentRequest,
+    center: C,
+    inner: f64,
+    outer: f64,
+    known: &[C],
+) -> Result<(), String> {
+    let scale = if outer.is_finite() {
+        outer
+    } else {
+        inner.max(1.0)
+    };
+    let lo = inner + 1e-9 * inner + 1e-12 * scale;
+    let hi = if outer.is_finite() {
+        outer * (1.0 - 1e-9)
+    } else {
+        f64::INFINITY
+    };
+    let inside: Vec<(C, f64)> = known
+        .iter()
+        .filter(|s| finite(**s))
+        .map(|&s| (s, (s - center).norm()))
+        .filter(|&(_, d)| d > lo && d < hi)
+        .collect();
+    let Some(&(first, _)) = inside.first() else {
+        return Ok(());
+    };
+    let d_min = inside.iter().map(|p| p.1).fold(f64::INFINITY, f64::min);
+    let d_max = inside.iter().map(|p| p.1).fold(0.0, f64::max);
+    let more = if inside.len() > 1 {
+        format!(" (and {} more)", inside.len() - 1)
+    } else {
+        String::new()
+    };
+    let ring = ring_text(req.center, center);
+    if req.center == Center::Infinity {
+        return Err(format!(
+            "the region {ring} > {} around infinity contains a singularity at {}{more}; choose r1 > {}",
+            short(inner), show(first), round_up(d_max)
+        ));
+    }
+    let region = if outer.is_finite() {
+        format!("{} < {ring} < {}", short(inner), short(outer))
+    } else {
+        format!("{ring} > {}", short(inner))
+    };
+    let mut advice = format!("choose r2 < {}", round_down(d_min));
+    if d_max < outer {
+        advice += &format!(" or r1 > {}", round_up(d_max));
+    }
+    Err(format!(
+        "the annulus {region} contains a singularity at {}{more}; {advice}",
+        show(first)
+    ))
+}
+
+fn not_finite_message(z: C, center: C, rho: f64) -> String {
+    format!(
+        "f is not finite at {} on the sampling circle |z − ({})| = {}; the annulus contains a singularity? Narrow the annulus or pass the singular points in known_singularities",
+        show(z),
+        show(center),
+        short(rho)
+    )
+}
+
+/// "|z − 1|", "|z + 2|", "|z|", "|z − (1 + 2i)|".
+fn ring_text(center: Center, a: C) -> String {
+    if center == Center::Infinity || a == C::new(0.0, 0.0) {
+        "|z|".into()
+    } else if a.im == 0.0 {
+        if a.re > 0.0 {
+            format!("|z − {}|", short(a.re))
+        } else {
+            format!("|z + {}|", short(-a.re))
+        }
+    } else {
+        format!("|z − ({})|", show(a))
+    }
+}
+
+/// A complex number for messages: "2 + 0i", "1.5 − 0.25i".
+fn show(z: C) -> String {
+    let sign = if z.im < 0.0 { '−' } else { '+' };
+    format!("{} {} {}i", short(z.re), sign, short(z.im.abs()))
+}
+
+/// A number for messages: 6 decimals at most, trailing zeros dropped.
+fn short(x: f64) -> String {
+    if x.is_infinite() {
+        return "∞".into();
+    }
+    if x != 0.0 && (x.abs() < 1e-4 || x.abs() >= 1e9) {
+        return format!("{x:.6e}");
+    }
+    let s = format!("{x:.6}");
+    let s = s.trim_end_matches('0').trim_end_matches('.');
+    if s == "-0" {
+        "0".into()
+    } else {
+        s.to_string()
+    }
+}
+
+/// x rounded to 6 significant digits, downwards/upwards (so strict advice stays true).
+fn round_down(x: f64) -> String {
+    round_significant(x, f64::floor)
+}
+fn round_up(x: f64) -> String {
+    round_significant(x, f64::ceil)
+}
+fn round_significant(x: f64, op: fn(f64) -> f64) -> String {
+    if x <= 0.0 || !x.is_finite() {
+        return format!("{x}");
+    }
+    let p = 10f64.powi(5 - x.log10().floor() as i32);
+    let r = op(x * p) / p;
+    format!("{r}")
+}

@@ -1,0 +1,3 @@
+//! Series expansions.
+
+pub mod laurent_fft;

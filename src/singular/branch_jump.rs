@@ -1,0 +1,121 @@
+//! Detection of jump discontinuities of f along a circle (a principal-branch
+//! cut crossing it) by bisection: a jump of an analytic function's values
+//! that does not shrink as the bracket shrinks to rounding level is a true
+//! discontinuity, not steep smooth variation.
+//!
+//! Method: bisection on the sample interval with the largest change, keeping
+//! the half with the larger change (the bisection method for locating a
+//! discontinuity; e.g. R. L. Burden & J. D. Faires, "Numerical Analysis",
+//! §2.1); a cut emanating from the centre crosses every small circle an odd
+//! number of times, a cut merely passing through the centre an even number.
+
+use super::{eval, is_finite};
+use crate::budget::Budget;
+use crate::C;
+use std::f64::consts::PI;
+
+/// Number of jumps found along |z − a| = r, and whether f was finite there.
+#[derive(Debug, Clone, PartialEq)]
+pub struct JumpScan {
+    /// Angles (radians) where f jumps.
+    pub jumps: Vec<f64>,
+    /// False when f was not finite at some sample.
+    pub finite: bool,
+}
+
+/// Scan |z − a| = r with `n` samples, bisect the suspicious intervals, and
+/// return the angles of the discontinuities.
+pub fn scan_for_jumps(
+    f: &dyn Fn(C) -> C,
+    a: C,
+    r: f64,
+    n: usize,
+    budget: &mut Budget,
+) -> Result<JumpScan, String> {
+    let at = |th: f64| a + C::from_polar(r, th);
+    let mut vals = Vec::with_capacity(n);
+    for j in 0..n {
+        let th = 2.0 * PI * j as f64 / n as f64;
+        vals.push(eval(f, at(th), budget)?);
+    }
+    if vals.iter().any(|v| !is_finite(*v)) {
+        return Ok(JumpScan {
+            jumps: Vec::new(),
+            finite: false,
+        });
+    }
+    let max_abs = vals.iter().map(|v| v.norm()).fold(0.0, f64::max);
+    let diffs: Vec<f64> = (0..n)
+        .map(|j| (vals[(j + 1) % n] - vals[j]).norm())
+        .collect();
+    // Suspicious: an interval whose change is much larger than both neighbours',
+    // or among the largest changes. Bisect at most 12 of them.
+    let mut order: Vec<usize> = (0..n).collect();
+    order.sort_by(|&x, &y| {
+        diffs[y]
+            .partial_cmp(&diffs[x])
+            .unwrap_or(std::cmp::Ordering::Equal)
+    });
+    let mut candidates: Vec<usize> = order.iter().take(6).cloned().collect();
+    for j in 0..n {
+        let l = diffs[(j + n - 1) % n];
+        let rr = diffs[(j + 1) % n];
+        if diffs[j] > 3.0 * l.max(rr) && !candidates.contains(&j) && candidates.len() < 12 {
+            candidates.push(j);
+        }
+    }
+    let mut jumps = Vec::new();
+    for j in candidates {
+        let d0 = diffs[j];
+        if d0 <= 1e-12 * max_abs {
+            continue;
+        }
+        let (mut t0, mut t1) = (
+            2.0 * PI * j as f64 / n as f64,
+            2.0 * PI * (j + 1) as f64 / n as f64,
+        );
+        let (mut v0, mut v1) = (vals[j], vals[(j + 1) % n]);
+        for _ in 0..44 {
+            let tm = 0.5 * (t0 + t1);
+            let vm = eval(f, at(tm), budget)?;
+            if !is_finite(vm) {
+                break;
+            }
+            if (vm - v0).norm() >= (v1 - vm).norm() {
+                t1 = tm;
+                v1 = vm;
+            } else {
+                t0 = tm;
+                v0 = vm;
+            }
+        }
+        let d = (v1 - v0).norm();
+        if d > 0.1 * d0 && d > 1e-9 * max_abs.max(f64::MIN_POSITIVE) {
+            jumps.push(0.5 * (t0 + t1));
+        }
+    }
+    jumps.sort_by(|x, y| x.partial_cmp(y).unwrap_or(std::cmp::Ordering::Equal));
+    jumps.dedup_by(|x, y| (*x - *y).abs() < 1e-9);
+    Ok(JumpScan {
+        jumps,
+        finite: true,
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn principal_sqrt_jumps_once_and_a_smooth_spike_does_not() {
+        let mut b = Budget::new(1_000_000);
+        // Principal sqrt has its cut on the negative real axis (common practice).
+        let s = scan_for_jumps(&|z: C| z.sqrt(), C::new(0.0, 0.0), 0.5, 256, &mut b).unwrap();
+        assert_eq!(s.jumps.len(), 1);
+        assert!((s.jumps[0] - PI).abs() < 1e-6);
+        // A pole just outside the circle: steep but continuous.
+        let p = C::new(0.5 + 1e-3, 0.0);
+        let s = scan_for_jumps(&|z: C| 1.0 / (z - p), C::new(0.0, 0.0), 0.5, 256, &mut b).unwrap();
+        assert!(s.jumps.is_empty());
+    }
+}

@@ -1,0 +1,408 @@
+//! Classification of a point a (or infinity) as pole (with order),
+//! removable, regular, essential or branch point, with the residue and the
+//! leading principal-part coefficients.
+//!
+//! Method: Laurent coefficients on four concentric circles of radii
+//! r, r/2, r/8, r/32 by the trapezoidal rule (see residue_trapezoid.rs). On a
+//! punctured disk free of other singularities the Laurent series is the same
+//! on every circle, so the coefficient sets must agree (this validates r and
+//! gives the error estimate). A pole of order m has exactly m significant
+//! principal coefficients on every circle; at an essential singularity the
+//! number of significant terms grows without bound as the circle shrinks,
+//! because max|f| grows faster than any power of 1/r (Casorati–Weierstrass;
+//! see E. Hille, "Analytic Function Theory" vol. 1, 1959, §8.4). Branch
+//! points are recognised by a jump of f along the circle that persists under
+//! bisection (branch_jump.rs), and then get no residue.
+
+use super::branch_jump::scan_for_jumps;
+use super::residue_trapezoid::{laurent_on_circle, CircleLaurent};
+use super::{eval, is_finite, show, Hints, Kind, PointResult};
+use crate::budget::Budget;
+use crate::C;
+
+/// Default first radius (an irrational-looking number keeps circles off
+/// lattices of singularities such as integers and multiples of π).
+const FIRST_RADIUS: f64 = 0.237_113;
+/// Coefficients c₋K..c_K examined on each circle.
+const K_WINDOW: usize = 48;
+/// A normalised coefficient counts as nonzero above this fraction of max|f|.
+const SIGNIFICANT: f64 = 1e-11;
+/// Most samples per circle.
+const N_MAX: usize = 8192;
+
+/// Classify f at the finite point a.
+pub fn classify_point(
+    f: &dyn Fn(C) -> C,
+    a: C,
+    hints: &Hints,
+    budget: &mut Budget,
+) -> Result<PointResult, String> {
+    classify_point_near(f, a, hints, &[], budget)
+}
+
+/// Classify f at infinity through h(w) = f(1/w) at w = 0. The residue at
+/// infinity is −(coefficient of w¹ in h) = −(coefficient of z⁻¹ in f); a pole
+/// of h of order n is a pole of f at infinity of order n, and
+/// `principal_part` lists the coefficients of h(w) at w⁻¹, w⁻², … (that is,
+/// of f at z¹, z², …).
+pub fn classify_infinity(
+    f: &dyn Fn(C) -> C,
+    hints: &Hints,
+    budget: &mut Budget,
+) -> Result<PointResult, String> {
+    let h = |w: C| f(C::new(1.0, 0.0) / w);
+    let map = |v: &Vec<C>| -> Vec<C> {
+        v.iter()
+            .filter(|p| p.norm() > 0.0)
+            .map(|p| C::new(1.0, 0.0) / p)
+            .collect()
+    };
+    let mapped = Hints {
+        essential_candidates: map(&hints.essential_candidates),
+        branch_candidates: map(&hints.branch_candidates),
+        uses_branch_functions: hints.uses_branch_functions,
+    };
+    let mut out = analyse(&h, C::new(0.0, 0.0), &mapped, &[], true, budget)?;
+    for w in out.warnings.iter_mut() {
+        *w = w.replace("{at}", "infinity");
+    }
+    Ok(out)
+}
+
+/// Classify f at a, keeping the circles away from the `others` (known
+/// singularities nearby).
+pub(crate) fn classify_point_near(
+    f: &dyn Fn(C) -> C,
+    a: C,
+    hints: &Hints,
+    others: &[C],
+    budget: &mut Budget,
+) -> Result<PointResult, String> {
+    if !is_finite(a) {
+        return Err(
+            "the point must be a finite complex number (use classify_infinity for infinity)".into(),
+        );
+    }
+    let mut out = analyse(f, a, hints, others, false, budget)?;
+    for w in out.warnings.iter_mut() {
+        *w = w.replace("{at}", &show(a));
+    }
+    Ok(out)
+}
+
+fn analyse(
+    f: &dyn Fn(C) -> C,
+    a: C,
+    hints: &Hints,
+    others: &[C],
+    at_infinity: bool,
+    budget: &mut Budget,
+) -> Result<PointResult, String> {
+    let scale = 1.0 + a.norm();
+    let mut cap = FIRST_RADIUS;
+    for p in others
+        .iter()
+        .chain(&hints.essential_candidates)
+        .chain(&hints.branch_candidates)
+    {
+        let d = (p - a).norm();
+        if d > 1e-12 * scale {
+            cap = cap.min(0.4 * d);
+        }
+    }
+    let hinted_branch = hints
+        .branch_candidates
+        .iter()
+        .any(|b| (b - a).norm() <= 1e-9 * scale);
+
+    // 1. Single-valuedness: jumps along circles of radius cap, cap/4, cap/16.
+    let radii = [cap, cap / 4.0, cap / 16.0];
+    let mut counts: Vec<Option<usize>> = Vec::new();
+    for &r in &radii {
+        let scan = scan_for_jumps(f, a, r, 256, budget)?;
+        counts.push(if scan.finite {
+            Some(scan.jumps.len())
+        } else {
+            None
+        });
+    }
+    if let Some(last) = counts.iter().rev().flatten().next().copied() {
+        if last % 2 == 1 || (last > 0 && hinted_branch) {
+            return Ok(branch_point());
+        }
+        if last > 0 {
+            return Err(format!(
+                "f's principal-branch cut passes through {}: f jumps across it there, so the point cannot be classified as a single-valued function; move the point off the cut or rewrite f with another branch",
+                if at_infinity { "infinity".to_string() } else { show(a) }
+            ));
+        }
+    }
+    if hinted_branch && counts.iter().all(|c| c.is_none()) {
+        return Ok(branch_point());
+    }
+    // Start from the largest radius below which no jump was seen.
+    let mut r = cap;
+    for (i, c) in counts.iter().enumerate() {
+        if matches!(c, Some(n) if *n > 0) {
+            r = radii[(i + 1).min(2)];
+        }
+    }
+
+    // 2. Laurent coefficients on r, r/2, r/8, r/32; shrink until they agree.
+    let mut inner_overflow = false;
+    let mut chosen: Option<Vec<CircleLaurent>> = None;
+    let mut probed = false;
+    for _attempt in 0..12 {
+        let mut rings = Vec::new();
+        let mut finite = true;
+        for div in [1.0, 2.0, 8.0, 32.0] {
+            match laurent_on_circle(f, a, r / div, K_WINDOW, N_MAX, budget)? {
+                Some(l) => rings.push(l),
+                None => {
+                    finite = false;
+                    break;
+                }
+            }
+        }
+        if !finite && rings.len() < 2 {
+            r *= 0.3;
+            continue;
+        }
+        let consistent = rings
+            .windows(2)
+            .all(|w| agree(&w[0], &w[1]) && !poles_inside_annulus(&w[0], &w[1]));
+        if !consistent {
+            r *= 0.25;
+            continue;
+        }
+        // A singularity inside every circle but not at a (e.g. a pole at
+        // distance δ < r/32) gives a principal part decaying geometrically,
+        // |ĉ₋ₖ|^{1/k} → δ/r; an essential singularity's decays faster than
+        // any geometric sequence. Shrink below δ in the first case.
+        if let Some(delta) = nearby_singularity(&rings[0]).or_else(|| {
+            if probed {
+                None
+            } else {
+                offset_pole(&rings[0])
+            }
+        }) {
+            if delta > 1e-13 * scale && delta < r {
+                probed = true;
+                r = 0.25 * delta;
+                continue;
+            }
+        }
+        inner_overflow = !finite;
+        chosen = Some(rings);
+        break;
+    }
+    let Some(rings) = chosen else {
+        return Ok(PointResult {
+            kind: Kind::Essential,
+            order: None,
+            residue: None,
+            principal_part: Vec::new(),
+            error_estimate: 0.0,
+            warnings: vec![format!(
+                "no punctured disk around {{at}} free of other singularities was found (down to radius {:.1e}): singularities such as poles accumulate at {{at}}, so it is not an isolated singularity and has no residue",
+                r
+            )],
+        });
+    };
+
+    // 3. Apparent pole order on each circle.
+    let orders: Vec<usize> = rings.iter().map(apparent_order).collect();
+    let rises = orders.windows(2).filter(|w| w[1] > w[0]).count();
+    let falls = orders.windows(2).any(|w| w[1] < w[0]);
+    let top = *orders.iter().max().unwrap_or(&0);
+    let essential = inner_overflow || top + 2 >= K_WINDOW || (rises >= 2 && !falls);
+
+    let outer = &rings[0];
+    let second = &rings[1];
+    // Residue at a finite point is c₋₁; at infinity it is −c₁ of f(1/w).
+    let k_res: i64 = if at_infinity { 1 } else { -1 };
+    let sign = if at_infinity { -1.0 } else { 1.0 };
+    let residue = outer.coeff(k_res) * sign;
+    let error = 2.0 * (outer.coeff(k_res) - second.coeff(k_res)).norm()
+        + finite_or_big(outer.coeff_change(k_res))
+        + outer.coeff_noise(k_res)
+        + 4.0 * f64::EPSILON * residue.norm();
+    let mut warnings = Vec::new();
+    if !outer.converged {
+        warnings.push("the Laurent coefficients at {at} did not settle within the sample limit; the error estimate may be pessimistic".to_string());
+    }
+    // Essential points and infinity can have huge terms on every circle; a
+    // residue whose error estimate is not small is withheld, never guessed.
+    let unreliable = !(error <= 1e-6 * residue.norm().max(1.0));
+    if (essential || at_infinity) && unreliable {
+        return Ok(PointResult {
+            kind: if essential { Kind::Essential } else { Kind::Pole },
+            order: None,
+            residue: None,
+            principal_part: Vec::new(),
+            error_estimate: 0.0,
+            warnings: vec![format!(
+                "f grows so fast near {{at}} that its residue there cannot be determined (estimated error {error:.1e}); singularities may accumulate at {{at}}, in which case no residue exists"
+            )],
+        });
+    }
+    if essential {
+        return Ok(PointResult {
+            kind: Kind::Essential,
+            order: None,
+            residue: Some(residue),
+            principal_part: (1..=10).map(|k| outer.coeff(-k)).collect(),
+            error_estimate: error,
+            warnings,
+        });
+    }
+    if top == 0 {
+        // Bounded near a: regular if f(a) matches the limit, else removable.
+        let c0 = outer.coeff(0);
+        let kind = if at_infinity {
+            Kind::Regular
+        } else {
+            let v = eval(f, a, budget)?;
+            if is_finite(v)
+                && (v - c0).norm() <= 1e-8 * outer.max_abs.max(c0.norm()).max(f64::MIN_POSITIVE)
+            {
+                Kind::Regular
+            } else {
+                Kind::Removable
+            }
+        };
+        let residue = if at_infinity {
+            residue
+        } else {
+            C::new(0.0, 0.0)
+        };
+        let error = if at_infinity {
+            error
+        } else {
+            outer.coeff(-1).norm() + outer.coeff_noise(-1)
+        };
+        return Ok(PointResult {
+            kind,
+            order: None,
+            residue: Some(residue),
+            principal_part: Vec::new(),
+            error_estimate: error,
+            warnings,
+        });
+    }
+    Ok(PointResult {
+        kind: Kind::Pole,
+        order: Some(top as u32),
+        residue: Some(residue),
+        principal_part: (1..=top as i64).map(|k| outer.coeff(-k)).collect(),
+        error_estimate: error,
+        warnings,
+    })
+}
+
+fn branch_point() -> PointResult {
+    PointResult {
+        kind: Kind::BranchPoint,
+        order: None,
+        residue: None,
+        principal_part: Vec::new(),
+        error_estimate: 0.0,
+        warnings: vec!["f is not single-valued around {at} (a branch point): it has no Laurent series and no residue there".to_string()],
+    }
+}
+
+fn finite_or_big(x: f64) -> f64 {
+    if x.is_finite() {
+        x
+    } else {
+        0.0
+    }
+}
+
+/// Distance of a singularity other than the centre, inside the circle, read
+/// from a geometrically decaying principal part (root test); `None` when the
+/// principal part terminates or decays faster than geometrically.
+fn nearby_singularity(l: &CircleLaurent) -> Option<f64> {
+    let top = apparent_order(l);
+    if top < 8 {
+        return None;
+    }
+    let root = |k: usize| l.normalized(-(k as i64)).norm().powf(1.0 / k as f64);
+    // Largest magnitude among a few k near top and near top/2 (skips zero
+    // coefficients of odd or even functions).
+    let near = |k: usize| {
+        (k.saturating_sub(2).max(1)..=k)
+            .map(root)
+            .fold(0.0, f64::max)
+    };
+    let (hi, lo) = (near(top), near(top / 2));
+    if lo > 0.0 && hi / lo > 0.75 {
+        Some(hi * l.radius)
+    } else {
+        None
+    }
+}
+
+/// A pole at distance δ from the centre looks like a short principal part
+/// with ratios c₋ₖ₋₁/c₋ₖ ≈ −δ (it ends only where the terms reach rounding
+/// level). Returns δ when the last ratios agree; the caller re-examines on a
+/// circle smaller than δ (harmless for a true pole, which looks the same there).
+fn offset_pole(l: &CircleLaurent) -> Option<f64> {
+    let top = apparent_order(l) as i64;
+    if !(2..=8).contains(&top) {
+        return None;
+    }
+    let c = |k: i64| l.coeff(-k);
+    let q1 = c(top) / c(top - 1);
+    let q0 = if top >= 3 {
+        c(top - 1) / c(top - 2)
+    } else {
+        q1
+    };
+    let near = (q1 - q0).norm() <= 0.2 * q1.norm().max(q0.norm());
+    let delta = q1.norm();
+    if near && delta.is_finite() && delta < 0.25 * l.radius {
+        Some(delta)
+    } else {
+        None
+    }
+}
+
+/// Largest k with a significant c₋ₖ on this circle (0 if none).
+fn apparent_order(l: &CircleLaurent) -> usize {
+    let floor = SIGNIFICANT * l.max_abs;
+    let mut m = 0;
+    for k in 1..=l.k_max as i64 {
+        let size = l.normalized(-k).norm();
+        let change = l.coeff_change(-k) * l.radius.powi(-k as i32);
+        let change = if change.is_finite() { change } else { 0.0 };
+        if size > floor && size > 10.0 * change {
+            m = k as usize;
+        }
+    }
+    m
+}
+
+/// Do two circles (outer radius R, inner radius ρ) give the same Laurent
+/// coefficients, within their rounding and truncation levels?
+fn agree(outer: &CircleLaurent, inner: &CircleLaurent) -> bool {
+    let ratio = outer.radius / inner.radius;
+    let kk = outer.k_max.min(inner.k_max) as i64;
+    for k in -kk..=kk {
+        // Compare in the outer circle's normalisation: c_k R^k.
+        let x = outer.normalized(k);
+        let y = inner.normalized(k) * ratio.powi(k as i32);
+        let tol = 1e-9 * (outer.max_abs + inner.max_abs * ratio.powi(k as i32));
+        if !((x - y).norm() <= tol) {
+            return false;
+        }
+    }
+    true
+}
+
+/// N − P inside a disk can only decrease as the disk shrinks around an
+/// isolated singularity (no poles near it); an increase means poles lie in
+/// the annulus between the circles.
+fn poles_inside_annulus(outer: &CircleLaurent, inner: &CircleLaurent) -> bool {
+    matches!((outer.winding, inner.winding), (Some(wo), Some(wi)) if wi > wo)
+}

@@ -1,0 +1,504 @@
+//! Exact singularity analysis of a rational function `num/den`.
+//!
+//! Method: roots of both polynomials by the Aberth–Ehrlich iteration
+//! (Bini, Numer. Algorithms 13, 1996), multiplicities from root clusters
+//! (centroid + Newton on `p^(m−1)`, after Zeng, Math. Comp. 74, 2005), common
+//! roots cancelled, principal parts from the partial-fraction structure
+//! (see `poly::partial_fractions`). The residue at infinity is computed
+//! independently from the expansion at infinity — `f = q + r/den` with
+//! `Res∞ f = −r_{n−1}/d_n`, `n = deg den` (common practice) — so that the
+//! residue theorem `Σ Res + Res∞ = 0` is a genuine check.
+
+// `!(a <= b)` is deliberate: a NaN must take the cautious branch.
+#![allow(clippy::neg_cmp_op_on_partial_ord)]
+
+use crate::poly::multiplicity::{distinct_roots, RootCluster};
+use crate::poly::partial_fractions::local_expansion;
+use crate::poly::{divrem, trim, UNIT_ROUNDOFF, ZERO_C};
+use crate::C;
+
+/// A pole with its Laurent principal part.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PoleInfo {
+    pub at: C,
+    /// Error estimate of `at`.
+    pub location_error: f64,
+    pub order: u32,
+    /// `c_{−1}`.
+    pub residue: C,
+    /// `c_{−1}, c_{−2}, …, c_{−order}`.
+    pub principal_part: Vec<C>,
+    /// Error estimate of each principal-part coefficient (same order).
+    pub principal_part_errors: Vec<f64>,
+    /// Error estimate of the residue.
+    pub error_estimate: f64,
+}
+
+/// A zero of f (after cancelling common roots).
+#[derive(Debug, Clone, PartialEq)]
+pub struct ZeroInfo {
+    pub at: C,
+    pub order: u32,
+    pub location_error: f64,
+}
+
+/// A root common to numerator and denominator that leaves f finite.
+#[derive(Debug, Clone, PartialEq)]
+pub struct RemovableInfo {
+    pub at: C,
+    /// The limit of f at this point.
+    pub value: C,
+    /// How many factors `(z − at)` cancelled.
+    pub cancelled_order: u32,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub struct RationalAnalysis {
+    /// Sorted by real part, then imaginary part.
+    pub poles: Vec<PoleInfo>,
+    pub zeros: Vec<ZeroInfo>,
+    pub removable: Vec<RemovableInfo>,
+    /// Quotient of `num ÷ den`, ascending coefficients (empty when deg num < deg den).
+    pub polynomial_part: Vec<C>,
+    pub residue_at_infinity: C,
+    /// `deg num − deg den`: > 0 pole order at ∞, < 0 zero order at ∞, 0 finite nonzero.
+    pub infinity_order: i32,
+    /// `|Σ finite residues + Res∞|`, which the residue theorem says is 0.
+    pub residue_sum_defect: f64,
+    /// What the defect may be from rounding alone: `Σ residue errors + rounding of Res∞`.
+    pub residue_sum_tolerance: f64,
+    pub warnings: Vec<String>,
+}
+
+fn check_finite(p: &[C], what: &str) -> Result<(), String> {
+    if let Some(k) = p.iter().position(|c| !c.is_finite()) {
+        return Err(format!(
+            "coefficient {k} of the {what} is not a finite number; check the expression"
+        ));
+    }
+    Ok(())
+}
+
+fn describe(z: C) -> String {
+    format_complex(z, 0.0)
+}
+
+fn cluster_warning(c: &RootCluster, what: &str) -> Option<String> {
+    if c.resolved || c.multiplicity < 2 {
+        return None;
+    }
+    let list: Vec<String> = c.members.iter().map(|z| describe(*z)).collect();
+    Some(format!(
+        "{what} at {} are closer than can be resolved at double precision; treated as one {} of order {} at {}",
+        list.join(" and "),
+        &what[..what.len() - 1],
+        c.multiplicity,
+        describe(c.center)
+    ))
+}
+
+/// Analyse `num/den` (ascending coefficients; common roots may remain).
+pub fn analyse_rational(num: &[C], den: &[C]) -> Result<RationalAnalysis, String> {
+    check_finite(num, "numerator")?;
+    check_finite(den, "denominator")?;
+    let num = trim(num);
+    let den = trim(den);
+    if den.is_empty() {
+        return Err(
+            "the denominator is identically zero; the expression is undefined everywhere".into(),
+        );
+    }
+    let mut warnings = Vec::new();
+    if num.is_empty() {
+        warnings.push("the function is identically zero: no poles, zeros or residues".into());
+        return Ok(RationalAnalysis {
+            poles: Vec::new(),
+            zeros: Vec::new(),
+            removable: Vec::new(),
+            polynomial_part: Vec::new(),
+            residue_at_infinity: ZERO_C,
+            infinity_order: 0,
+            residue_sum_defect: 0.0,
+            residue_sum_tolerance: 0.0,
+            warnings,
+        });
+    }
+    let (den_clusters, den_ok) = distinct_roots(&den).map_err(|e| format!("denominator: {e}"))?;
+    let (num_clusters, num_ok) = if num.len() > 1 {
+        distinct_roots(&num).map_err(|e| format!("numerator: {e}"))?
+    } else {
+        (Vec::new(), true)
+    };
+    if !den_ok || !num_ok {
+        warnings.push("the root finder did not meet its stopping rule for every root; results may be inaccurate".into());
+    }
+    warnings.extend(
+        den_clusters
+            .iter()
+            .filter_map(|c| cluster_warning(c, "poles")),
+    );
+    warnings.extend(
+        num_clusters
+            .iter()
+            .filter_map(|c| cluster_warning(c, "zeros")),
+    );
+
+    // Pair each denominator root with at most one numerator root at the same place.
+    let mut num_used = vec![false; num_clusters.len()];
+    let mut zero_order_at = vec![0usize; den_clusters.len()];
+    for (i, d) in den_clusters.iter().enumerate() {
+        let mut best: Option<(usize, f64)> = None;
+        for (j, z) in num_clusters.iter().enumerate() {
+            if num_used[j] {
+                continue;
+            }
+            let dist = (d.center - z.center).norm();
+            let tol = 4.0 * (d.error + z.error)
+                + 16.0 * UNIT_ROUNDOFF * d.center.norm().max(z.center.norm());
+            if dist <= tol && best.is_none_or(|(_, b)| dist < b) {
+                best = Some((j, dist));
+            }
+        }
+        if let Some((j, _)) = best {
+            num_used[j] = true;
+            zero_order_at[i] = num_clusters[j].multiplicity as usize;
+        }
+    }
+
+    let lead = den[den.len() - 1];
+    let factors: Vec<(C, u32)> = den_clusters
+        .iter()
+        .map(|c| (c.center, c.multiplicity))
+        .collect();
+    let factor_errors: Vec<f64> = den_clusters.iter().map(|c| c.error).collect();
+    let mut poles = Vec::new();
+    let mut removable = Vec::new();
+    let mut zeros = Vec::new();
+    for (i, d) in den_clusters.iter().enumerate() {
+        let k = zero_order_at[i];
+        let e = local_expansion(&num, &den, lead, &factors, &factor_errors, i, k);
+        match e.limit {
+            None => {
+                let residue = e.principal_part.first().copied().unwrap_or(ZERO_C);
+                let error_estimate = e.principal_part_errors.first().copied().unwrap_or(0.0);
+                poles.push(PoleInfo {
+                    at: d.center,
+                    location_error: d.error,
+                    order: d.multiplicity - k as u32,
+                    residue,
+                    principal_part: e.principal_part,
+                    principal_part_errors: e.principal_part_errors,
+                    error_estimate,
+                });
+            }
+            Some(value) => {
+                removable.push(RemovableInfo {
+                    at: d.center,
+                    value,
+                    cancelled_order: d.multiplicity,
+                });
+                if k > d.multiplicity as usize {
+                    zeros.push(ZeroInfo {
+                        at: d.center,
+                        order: k as u32 - d.multiplicity,
+                        location_error: d.error,
+                    });
+                }
+            }
+        }
+    }
+    for (j, z) in num_clusters.iter().enumerate() {
+        if !num_used[j] {
+            zeros.push(ZeroInfo {
+                at: z.center,
+                order: z.multiplicity,
+                location_error: z.error,
+            });
+        }
+    }
+    let by_position = |a: &C, b: &C| a.re.total_cmp(&b.re).then(a.im.total_cmp(&b.im));
+    poles.sort_by(|a, b| by_position(&a.at, &b.at));
+    zeros.sort_by(|a, b| by_position(&a.at, &b.at));
+    removable.sort_by(|a, b| by_position(&a.at, &b.at));
+
+    // Expansion at infinity, independent of the poles.
+    let (quotient, remainder) = divrem(&num, &den)?;
+    let n = den.len() - 1;
+    let r_top = if n >= 1 {
+        remainder.get(n - 1).copied().unwrap_or(ZERO_C)
+    } else {
+        ZERO_C
+    };
+    let residue_at_infinity = -r_top / lead;
+    let infinity_order = num.len() as i32 - den.len() as i32;
+    let sum: C = poles.iter().map(|p| p.residue).sum();
+    let residue_sum_defect = (sum + residue_at_infinity).norm();
+    let scale = num.iter().map(|c| c.norm()).fold(0.0, f64::max) / lead.norm();
+    let residue_sum_tolerance = poles.iter().map(|p| p.error_estimate).sum::<f64>()
+        + 8.0
+            * (num.len() + den.len()) as f64
+            * UNIT_ROUNDOFF
+            * (residue_at_infinity.norm() + sum.norm() + scale);
+    if !(residue_sum_defect <= 10.0 * residue_sum_tolerance) {
+        warnings.push(format!(
+            "the residues do not sum to zero within their error estimates (defect {residue_sum_defect:.3e}); some residues may be inaccurate"
+        ));
+    }
+    Ok(RationalAnalysis {
+        poles,
+        zeros,
+        removable,
+        polynomial_part: trim(&quotient),
+        residue_at_infinity,
+        infinity_order,
+        residue_sum_defect,
+        residue_sum_tolerance,
+        warnings,
+    })
+}
+
+/// What kind of point a residue was asked at.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum PointKind {
+    Pole,
+    Removable,
+    Regular,
+}
+
+impl PointKind {
+    pub fn as_str(self) -> &'static str {
+        match self {
+            PointKind::Pole => "pole",
+            PointKind::Removable => "removable",
+            PointKind::Regular => "regular",
+        }
+    }
+}
+
+/// The residue at one requested point.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PointResidue {
+    pub kind: PointKind,
+    /// The singular point matched (the computed pole location), or the requested point.
+    pub at: C,
+    /// Pole order (`None` unless `kind` is `Pole`).
+    pub order: Option<u32>,
+    pub residue: C,
+    pub error_estimate: f64,
+    pub principal_part: Vec<C>,
+    /// The limit of f at a removable point.
+    pub removable_value: Option<C>,
+    /// Nearest pole and its distance, so a caller can say "a pole lies 3e-6 away".
+    pub nearest_pole: Option<C>,
+    pub distance_to_nearest_pole: Option<f64>,
+}
+
+/// Relative tolerance for matching a requested point to a pole.
+pub const MATCH_RELATIVE: f64 = 1e-10;
+
+/// The matching rule: `a` is at a singular point `s` (location error `e`) when
+/// `|a − s| ≤ max(16·e, 1e-10·max(1, |s|))`. The nearest such point wins.
+fn matches(a: C, s: C, e: f64) -> Option<f64> {
+    let d = (a - s).norm();
+    let tol = (16.0 * e).max(MATCH_RELATIVE * s.norm().max(1.0));
+    (d <= tol).then_some(d)
+}
+
+/// Residue of `num/den` at the point `a`: pole, removable singularity or regular point.
+pub fn residue_at_point(num: &[C], den: &[C], a: C) -> Result<PointResidue, String> {
+    if !a.is_finite() {
+        return Err("the point must be finite; ask for the residue at infinity separately".into());
+    }
+    let r = analyse_rational(num, den)?;
+    let nearest = r
+        .poles
+        .iter()
+        .map(|p| (p.at, (p.at - a).norm()))
+        .min_by(|x, y| x.1.total_cmp(&y.1));
+    let mut out = PointResidue {
+        kind: PointKind::Regular,
+        at: a,
+        order: None,
+        residue: ZERO_C,
+        error_estimate: 0.0,
+        principal_part: Vec::new(),
+        removable_value: None,
+        nearest_pole: nearest.map(|n| n.0),
+        distance_to_nearest_pole: nearest.map(|n| n.1),
+    };
+    let pole = r
+        .poles
+        .iter()
+        .filter_map(|p| matches(a, p.at, p.location_error).map(|d| (p, d)))
+        .min_by(|x, y| x.1.total_cmp(&y.1));
+    if let Some((p, _)) = pole {
+        out.kind = PointKind::Pole;
+        out.at = p.at;
+        out.order = Some(p.order);
+        out.residue = p.residue;
+        out.error_estimate = p.error_estimate;
+        out.principal_part = p.principal_part.clone();
+        return Ok(out);
+    }
+    let rem = r
+        .removable
+        .iter()
+        .filter_map(|p| matches(a, p.at, 0.0).map(|d| (p, d)))
+        .min_by(|x, y| x.1.total_cmp(&y.1));
+    if let Some((p, _)) = rem {
+        out.kind = PointKind::Removable;
+        out.at = p.at;
+        out.removable_value = Some(p.value);
+    }
+    Ok(out)
+}
+
+/// Compact decimal text of a real number (12 significant digits, no trailing zeros).
+pub fn format_real(x: f64) -> String {
+    if !x.is_finite() {
+        return format!("{x}");
+    }
+    let r: f64 = format!("{x:.11e}").parse().unwrap_or(x);
+    if r == 0.0 {
+        "0".into()
+    } else if (1e-5..1e15).contains(&r.abs()) {
+        format!("{r}")
+    } else {
+        format!("{r:e}")
+    }
+}
+
+/// Text of a complex number; parts with magnitude ≤ `err` are dropped.
+pub fn format_complex(z: C, err: f64) -> String {
+    let re = if z.re.abs() <= err { 0.0 } else { z.re };
+    let im = if z.im.abs() <= err { 0.0 } else { z.im };
+    match (re == 0.0, im == 0.0) {
+        (_, true) => format_real(re),
+        (true, false) => format!("{}i", format_real(im)),
+        (false, false) => {
+            let sign = if im < 0.0 { "-" } else { "+" };
+            format!("{} {sign} {}i", format_real(re), format_real(im.abs()))
+        }
+    }
+}
+
+/// Sign and magnitude text of a coefficient: (" + ", "2") or (" - ", "(0.25 + 1i)").
+fn signed_coefficient(z: C, err: f64) -> (bool, String, bool) {
+    let re = if z.re.abs() <= err { 0.0 } else { z.re };
+    let im = if z.im.abs() <= err { 0.0 } else { z.im };
+    let negative = re < 0.0 || (re == 0.0 && im < 0.0);
+    let w = if negative {
+        -C::new(re, im)
+    } else {
+        C::new(re, im)
+    };
+    let text = format_complex(w, 0.0);
+    let compound = re != 0.0 && im != 0.0;
+    (
+        negative,
+        if compound { format!("({text})") } else { text },
+        w == C::new(1.0, 0.0),
+    )
+}
+
+/// `(z - a)` text for a pole location.
+fn linear_factor(var: &str, a: C, err: f64) -> String {
+    let re = if a.re.abs() <= err { 0.0 } else { a.re };
+    let im = if a.im.abs() <= err { 0.0 } else { a.im };
+    if re == 0.0 && im == 0.0 {
+        return var.to_string();
+    }
+    let (neg, text, _) = signed_coefficient(C::new(re, im), 0.0);
+    format!("({var} {} {text})", if neg { "+" } else { "-" })
+}
+
+/// Readable partial fractions, e.g. `2 + 0.5/(z - 1) - (0.25 + 1i)/(z + 2i)^2`.
+pub fn partial_fractions_string(a: &RationalAnalysis, var: &str) -> String {
+    let mut terms: Vec<(bool, String)> = Vec::new();
+    let q = &a.polynomial_part;
+    let q_err = 16.0
+        * (q.len() as f64 + 1.0)
+        * UNIT_ROUNDOFF
+        * q.iter().map(|c| c.norm()).fold(0.0, f64::max);
+    for (k, &c) in q.iter().enumerate().rev() {
+        if c.norm() <= q_err {
+            continue;
+        }
+        let (neg, text, one) = signed_coefficient(c, q_err);
+        let power = match k {
+            0 => String::new(),
+            1 => var.to_string(),
+            _ => format!("{var}^{k}"),
+        };
+        let body = match (k, one) {
+            (0, _) => text,
+            (_, true) => power,
+            (_, false) => format!("{text}*{power}"),
+        };
+        terms.push((neg, body));
+    }
+    for p in &a.poles {
+        let factor = linear_factor(var, p.at, p.location_error);
+        for (i, (&c, &e)) in p
+            .principal_part
+            .iter()
+            .zip(&p.principal_part_errors)
+            .enumerate()
+        {
+            if c.norm() <= e {
+                continue;
+            }
+            let (neg, text, _) = signed_coefficient(c, e);
+            let power = if i == 0 {
+                String::new()
+            } else {
+                format!("^{}", i + 1)
+            };
+            terms.push((neg, format!("{text}/{factor}{power}")));
+        }
+    }
+    if terms.is_empty() {
+        return "0".into();
+    }
+    let mut s = String::new();
+    for (i, (neg, body)) in terms.iter().enumerate() {
+        match (i, neg) {
+            (0, true) => s.push_str(&format!("-{body}")),
+            (0, false) => s.push_str(body),
+            (_, true) => s.push_str(&format!(" - {body}")),
+            (_, false) => s.push_str(&format!(" + {body}")),
+        }
+    }
+    s
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::poly::from_roots;
+
+    fn c(re: f64, im: f64) -> C {
+        C::new(re, im)
+    }
+
+    #[test]
+    fn string_form_of_a_small_example() {
+        // 2 + 0.5/(z − 1) − (0.25 + i)/(z + 2i)^2, combined by hand into num/den; poles print sorted by real part.
+        let one = c(1.0, 0.0);
+        let den = from_roots(one, &[one, c(0.0, -2.0), c(0.0, -2.0)]);
+        let zp2i = from_roots(one, &[c(0.0, -2.0), c(0.0, -2.0)]);
+        let zm1 = from_roots(one, &[one]);
+        let mut num = crate::poly::mul(&den, &[c(2.0, 0.0)]);
+        for (k, v) in zp2i.iter().enumerate() {
+            num[k] += v * 0.5;
+        }
+        for (k, v) in zm1.iter().enumerate() {
+            num[k] -= v * c(0.25, 1.0);
+        }
+        let a = analyse_rational(&num, &den).unwrap();
+        assert_eq!(
+            partial_fractions_string(&a, "z"),
+            "2 - (0.25 + 1i)/(z + 2i)^2 + 0.5/(z - 1)"
+        );
+    }
+}
