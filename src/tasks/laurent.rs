@@ -1,8 +1,87 @@
-//! `laurent` (being built).
+//! `laurent`: Laurent coefficients on an annulus around a point or around infinity.
+//!
+//! The coefficients come from FFTs of samples on circles inside the annulus;
+//! singularities already known (poles of a rational f, points found in the
+//! disk, structural candidates) are used to refuse an annulus that holds one.
 
-use crate::api::{LaurentRequest, LaurentResponse};
+use super::{budget, compile, hints, point};
+use crate::api::{Coefficient, LaurentRequest, LaurentResponse};
+use crate::contour::Contour;
 use crate::error::ApiError;
+use crate::expr::Function;
+use crate::series::laurent_fft::{self, Center};
+use crate::singular::find_singularities;
+use crate::C;
 
-pub fn run(_req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
-    Err(ApiError::new("the \"laurent\" task is not built yet"))
+pub fn run(req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
+    let f = compile(&req.function)?;
+    let center = match point(&req.center, "center")? {
+        Some(a) => Center::Point(a),
+        None => Center::Infinity,
+    };
+    let inner = req.inner;
+    let outer = req.outer.unwrap_or(f64::INFINITY);
+    if !(inner >= 0.0 && inner.is_finite()) {
+        return Err(ApiError::new("\"inner\" must be a finite number ≥ 0"));
+    }
+    if matches!(center, Center::Point(_)) && !(outer > inner) {
+        return Err(ApiError::new("\"outer\" must be larger than \"inner\" (or omitted for no limit)"));
+    }
+    let mut warnings = Vec::new();
+    let mut budget = budget(None);
+    let known = known_singularities(&f, center, inner, outer, &mut warnings, &mut budget);
+    let spec = laurent_fft::LaurentRequest { center, inner, outer, from: req.from, to: req.to };
+    let result = laurent_fft::laurent(|z| f.eval(z), &spec, &known, &mut budget).map_err(ApiError::new)?;
+    let mut radii = result.radius_used.clone();
+    radii.sort_by(f64::total_cmp);
+    radii.dedup();
+    Ok(LaurentResponse {
+        coefficients: result.coefficients.iter().map(|&(n, c)| Coefficient { n, c: [c.re, c.im] }).collect(),
+        error_estimate: result.error_estimate,
+        radii,
+        warnings,
+    })
+}
+
+/// Singular points that could lie in the annulus: exact poles of a rational f;
+/// otherwise structural candidates plus whatever a search of the disk finds.
+fn known_singularities(
+    f: &Function,
+    center: Center,
+    inner: f64,
+    outer: f64,
+    warnings: &mut Vec<String>,
+    budget: &mut crate::budget::Budget,
+) -> Vec<C> {
+    if let Some(r) = f.rational() {
+        return match crate::singular::rational_poles::analyse_rational(&r.num, &r.den) {
+            Ok(a) => a.poles.iter().map(|p| p.at).collect(),
+            Err(e) => {
+                warnings.push(format!("poles not located ({e}); the annulus was checked by sampling only"));
+                Vec::new()
+            }
+        };
+    }
+    let h = hints(f);
+    let mut known: Vec<C> = h.essential_candidates.iter().chain(&h.branch_candidates).copied().collect();
+    if let Center::Point(a) = center {
+        if outer.is_finite() && outer > inner {
+            // Search a disk slightly smaller than the outer circle, so a singularity
+            // on that circle does not stop the search.
+            let disk = Contour::circle(a, outer * (1.0 - 1e-9));
+            let eval = |z: C| f.eval(z);
+            let eval_d = |z: C| f.eval_d(z);
+            match find_singularities(&eval, &eval_d, &disk, &h, budget) {
+                Ok(found) => {
+                    known.extend(found.poles.iter().map(|p| p.at));
+                    known.extend(found.essential.iter().copied());
+                    known.extend(found.branch_points.iter().copied());
+                }
+                Err(e) => warnings.push(format!(
+                    "the disk |z − a| < outer was not searched for singularities ({e}); the annulus was checked by sampling only"
+                )),
+            }
+        }
+    }
+    known
 }

@@ -4,7 +4,9 @@
 pub mod evaluate;
 pub mod phase_plot;
 
-use crate::api::{FunctionInput, Number};
+use crate::api::{FunctionInput, Number, Point};
+use crate::budget::{Budget, DEFAULT_EVALUATIONS};
+use crate::singular::Hints;
 use crate::error::ApiError;
 use crate::expr::{ExprError, Function};
 use crate::C;
@@ -53,3 +55,46 @@ pub mod residue;
 pub mod singularities;
 pub mod laurent;
 pub mod partial_fractions;
+
+/// A point of the contract: `Some(z)` for `[x, y]`, `None` for `"infinity"`.
+pub fn point(p: &Point, field: &str) -> Result<Option<C>, ApiError> {
+    match p {
+        Point::Finite([x, y]) if x.is_finite() && y.is_finite() => Ok(Some(C::new(*x, *y))),
+        Point::Finite(_) => Err(ApiError::new(format!("\"{field}\" must be finite numbers [x, y]"))),
+        Point::Named(name) if name.eq_ignore_ascii_case("infinity") => Ok(None),
+        Point::Named(other) => Err(ApiError::new(format!(
+            "\"{field}\" must be [x, y] or \"infinity\", not \"{other}\""
+        ))),
+    }
+}
+
+/// The work budget a request asked for, or the default.
+pub fn budget(max_evaluations: Option<u64>) -> Budget {
+    Budget::new(max_evaluations.unwrap_or(DEFAULT_EVALUATIONS).clamp(1_000, 1_000_000_000))
+}
+
+/// What the expression's structure says about where essential singularities and
+/// branch points may sit (roots of arguments' numerators and denominators).
+pub fn hints(f: &Function) -> Hints {
+    let a = f.analysis();
+    let mut hints = Hints {
+        essential_candidates: a.essential_candidates.clone(),
+        branch_candidates: a.branch_candidates.clone(),
+        uses_branch_functions: a.uses_branch_functions,
+    };
+    let roots_of = |polys: &Vec<Vec<C>>| -> Vec<C> {
+        polys
+            .iter()
+            .filter_map(|p| crate::poly::multiplicity::distinct_roots(p).ok())
+            .flat_map(|(clusters, _)| clusters.into_iter().map(|c| c.center))
+            .collect()
+    };
+    hints.essential_candidates.extend(roots_of(&a.essential_candidate_polys));
+    hints.branch_candidates.extend(roots_of(&a.branch_candidate_polys));
+    hints
+}
+
+/// `[re, im]` list of points.
+pub fn pairs(zs: &[C]) -> Vec<[f64; 2]> {
+    zs.iter().map(|z| [z.re, z.im]).collect()
+}

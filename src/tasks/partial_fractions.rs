@@ -1,8 +1,34 @@
-//! `partial_fractions` (being built).
+//! `partial_fractions`: a rational f as polynomial part plus Σ c/(z − a)^k.
 
-use crate::api::{PartialFractionsRequest, PartialFractionsResponse};
+use super::{compile, pairs};
+use crate::api::{pair, FractionTerm, PartialFractionsRequest, PartialFractionsResponse};
 use crate::error::ApiError;
+use crate::singular::rational_poles::{analyse_rational, partial_fractions_string};
 
-pub fn run(_req: &PartialFractionsRequest) -> Result<PartialFractionsResponse, ApiError> {
-    Err(ApiError::new("the \"partial_fractions\" task is not built yet"))
+pub fn run(req: &PartialFractionsRequest) -> Result<PartialFractionsResponse, ApiError> {
+    let f = compile(&req.function)?;
+    let r = f.rational().ok_or_else(|| {
+        ApiError::new(format!(
+            "partial fractions need a rational function (a ratio of polynomials in {}); this f is not one. \
+             Use \"singularities\" or \"laurent\" for its poles and principal parts",
+            f.var()
+        ))
+    })?;
+    let a = analyse_rational(&r.num, &r.den).map_err(ApiError::new)?;
+    let mut terms = Vec::new();
+    let mut error_estimate: f64 = 0.0;
+    for p in &a.poles {
+        for (k, (&c, &e)) in p.principal_part.iter().zip(&p.principal_part_errors).enumerate() {
+            terms.push(FractionTerm { at: pair(p.at), power: k as u32 + 1, c: pair(c) });
+            error_estimate = error_estimate.max(e);
+        }
+    }
+    Ok(PartialFractionsResponse {
+        polynomial: a.polynomial_part.iter().map(|&c| pair(c)).collect(),
+        terms,
+        removable: pairs(&a.removable.iter().map(|r| r.at).collect::<Vec<_>>()),
+        text: partial_fractions_string(&a, f.var()),
+        error_estimate,
+        warnings: a.warnings,
+    })
 }

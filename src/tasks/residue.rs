@@ -1,8 +1,77 @@
-//! `residue` (being built).
+//! `residue`: the residue of f at one point or at infinity, with the point's kind and order.
+//!
+//! Rational f goes to exact partial-fraction algebra; anything else to the
+//! trapezoidal rule on small circles with classification of the point.
 
-use crate::api::{ResidueRequest, ResidueResponse};
+use super::{budget, compile, hints, point};
+use crate::api::{pair, ResidueRequest, ResidueResponse};
 use crate::error::ApiError;
+use crate::expr::Function;
+use crate::singular::rational_poles::{analyse_rational, format_complex, residue_at_point};
+use crate::singular::{classify_infinity, classify_point, PointResult};
+use crate::C;
 
-pub fn run(_req: &ResidueRequest) -> Result<ResidueResponse, ApiError> {
-    Err(ApiError::new("the \"residue\" task is not built yet"))
+pub fn run(req: &ResidueRequest) -> Result<ResidueResponse, ApiError> {
+    let f = compile(&req.function)?;
+    match (point(&req.at, "at")?, f.rational()) {
+        (Some(a), Some(r)) => rational_at(&r.num, &r.den, a),
+        (None, Some(r)) => rational_at_infinity(&r.num, &r.den),
+        (at, None) => general(&f, at),
+    }
+}
+
+fn rational_at(num: &[C], den: &[C], a: C) -> Result<ResidueResponse, ApiError> {
+    let r = residue_at_point(num, den, a).map_err(ApiError::new)?;
+    let mut warnings = Vec::new();
+    if r.kind.as_str() != "pole" {
+        if let (Some(p), Some(d)) = (r.nearest_pole, r.distance_to_nearest_pole) {
+            if d < 1e-3 * p.norm().max(1.0) {
+                warnings.push(format!(
+                    "a pole lies {d:.3e} away, at {}; ask for the residue there to get its residue",
+                    format_complex(p, 0.0)
+                ));
+            }
+        }
+    }
+    Ok(ResidueResponse {
+        residue: Some(pair(r.residue)),
+        kind: r.kind.as_str().into(),
+        order: r.order,
+        error_estimate: Some(r.error_estimate),
+        principal_part: r.principal_part.iter().map(|&c| pair(c)).collect(),
+        warnings,
+    })
+}
+
+fn rational_at_infinity(num: &[C], den: &[C]) -> Result<ResidueResponse, ApiError> {
+    let a = analyse_rational(num, den).map_err(ApiError::new)?;
+    let (kind, order) = if a.infinity_order > 0 { ("pole", Some(a.infinity_order as u32)) } else { ("regular", None) };
+    Ok(ResidueResponse {
+        residue: Some(pair(a.residue_at_infinity)),
+        kind: kind.into(),
+        order,
+        error_estimate: Some(a.residue_sum_tolerance.max(f64::EPSILON * a.residue_at_infinity.norm())),
+        principal_part: Vec::new(),
+        warnings: a.warnings,
+    })
+}
+
+fn general(f: &Function, at: Option<C>) -> Result<ResidueResponse, ApiError> {
+    let hints = hints(f);
+    let mut budget = budget(None);
+    let eval = |z: C| f.eval(z);
+    let r: PointResult = match at {
+        Some(a) => classify_point(&eval, a, &hints, &mut budget),
+        None => classify_infinity(&eval, &hints, &mut budget),
+    }
+    .map_err(ApiError::new)?;
+    let principal_part = if at.is_some() { r.principal_part.iter().map(|&c| pair(c)).collect() } else { Vec::new() };
+    Ok(ResidueResponse {
+        residue: r.residue.map(pair),
+        kind: r.kind.name().into(),
+        order: r.order,
+        error_estimate: r.residue.map(|_| r.error_estimate),
+        principal_part,
+        warnings: r.warnings,
+    })
 }

@@ -1,0 +1,188 @@
+// The engine: the wasm core on the main thread (quick calls such as the pointer
+// readout) plus two Web Workers started from Blob URLs built from the same
+// inlined glue and module — one draws phase plots band by band, the other runs
+// heavy tasks (singularities, Laurent series) and can be cancelled by ending it.
+// When workers are not available everything runs on the main thread in small steps.
+import * as wasmGlue from '../../dist/pkg/residuary.js';
+import { yieldToBrowser } from './util.js';
+
+/* global WASM_BASE64, GLUE_SOURCE, WORKER_SOURCE */
+
+export const Engine = {
+  ready: false,
+  version: '',
+  message: '',
+  usesWorkers: false,
+  test: null,
+  module: null,
+  plotWorker: null,
+  heavyWorker: null,
+  heavyPending: new Map(),
+  nextId: 1,
+  plotJob: null,
+};
+
+function decodeBase64(text) {
+  const bin = atob(text);
+  const bytes = new Uint8Array(bin.length);
+  for (let i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
+  return bytes;
+}
+
+function errorObject(e) {
+  if (e && e.error) return { error: e.error };
+  return { error: { message: String((e && e.message) || e), span: null } };
+}
+
+/** Load the core; resolves with {ok, message}. Never rejects. */
+export async function startEngine() {
+  if (globalThis.__residuaryTestEngine) {
+    Engine.test = globalThis.__residuaryTestEngine;
+    Engine.ready = true;
+    Engine.version = 'test';
+    return { ok: true };
+  }
+  try {
+    if (typeof WASM_BASE64 === 'string') {
+      Engine.module = await WebAssembly.compile(decodeBase64(WASM_BASE64));
+      await wasmGlue.default({ module_or_path: Engine.module });
+    } else {
+      await wasmGlue.default();
+    }
+    Engine.version = wasmGlue.version();
+    Engine.ready = true;
+  } catch (e) {
+    Engine.message = 'The computing core could not start: ' + String((e && e.message) || e);
+    return { ok: false, message: Engine.message };
+  }
+  if (Engine.module && typeof GLUE_SOURCE === 'string') {
+    Engine.plotWorker = await spawnWorker();
+    Engine.heavyWorker = Engine.plotWorker ? await spawnWorker() : null;
+    Engine.usesWorkers = Boolean(Engine.plotWorker && Engine.heavyWorker);
+    if (Engine.heavyWorker) attachHeavy(Engine.heavyWorker);
+    if (Engine.plotWorker) attachPlot(Engine.plotWorker);
+  }
+  return { ok: true };
+}
+
+/** Start one worker and wait for it to load the module; null if that fails. */
+function spawnWorker() {
+  return new Promise((resolve) => {
+    let worker;
+    try {
+      const blob = new Blob([GLUE_SOURCE, '\n', WORKER_SOURCE], { type: 'text/javascript' });
+      const url = URL.createObjectURL(blob);
+      worker = new Worker(url);
+      URL.revokeObjectURL(url);
+    } catch (e) {
+      resolve(null);
+      return;
+    }
+    const timer = setTimeout(() => { worker.terminate(); resolve(null); }, 10000);
+    worker.onmessage = (event) => {
+      clearTimeout(timer);
+      if (event.data.type === 'ready') resolve(worker);
+      else { worker.terminate(); resolve(null); }
+    };
+    worker.onerror = (event) => { event.preventDefault(); clearTimeout(timer); worker.terminate(); resolve(null); };
+    worker.postMessage({ type: 'init', module: Engine.module });
+  });
+}
+
+function attachHeavy(worker) {
+  worker.onmessage = (event) => {
+    const msg = event.data;
+    const pending = Engine.heavyPending.get(msg.id);
+    if (pending) {
+      Engine.heavyPending.delete(msg.id);
+      pending(msg.response);
+    }
+  };
+}
+
+/** A quick call on the main thread (e.g. evaluate at one point). Never throws. */
+export function runNow(request) {
+  if (!Engine.ready) return { error: { message: Engine.message || 'the computing core is still loading', span: null } };
+  try {
+    return Engine.test ? Engine.test.run(request) : wasmGlue.run(request);
+  } catch (e) {
+    return errorObject(e);
+  }
+}
+
+/** A heavy call, off the main thread when possible. Resolves with the response (or error object). */
+export async function runHeavy(request) {
+  if (!Engine.heavyWorker) {
+    await yieldToBrowser();
+    return runNow(request);
+  }
+  const id = Engine.nextId++;
+  return new Promise((resolve) => {
+    Engine.heavyPending.set(id, resolve);
+    Engine.heavyWorker.postMessage({ type: 'run', id, request });
+  });
+}
+
+/** Stop every heavy call in flight (their promises resolve with a "cancelled" error). */
+export async function cancelHeavy() {
+  if (!Engine.heavyWorker) return;
+  Engine.heavyWorker.terminate();
+  for (const resolve of Engine.heavyPending.values()) resolve({ error: { message: 'cancelled', span: null, cancelled: true } });
+  Engine.heavyPending.clear();
+  Engine.heavyWorker = null;
+  const worker = await spawnWorker();
+  if (worker) { attachHeavy(worker); Engine.heavyWorker = worker; }
+}
+
+function attachPlot(worker) {
+  worker.onmessage = (event) => {
+    const msg = event.data;
+    const job = Engine.plotJob;
+    if (!job || job.id !== msg.id) return;
+    if (msg.type === 'band') job.onBand(msg.rows, new Uint8Array(msg.rgba.buffer || msg.rgba));
+    else if (msg.type === 'plot-done') { Engine.plotJob = null; job.resolve({ done: true }); }
+    else if (msg.type === 'plot-error') { Engine.plotJob = null; job.resolve({ error: msg.error }); }
+  };
+}
+
+/** Draw a phase plot in row bands; `onBand(rows, rgba)` gets each band.
+ *  A newer call makes the older one resolve with {stale:true}. */
+export function plotBands(request, bands, onBand) {
+  if (Engine.plotJob) { Engine.plotJob.resolve({ stale: true }); Engine.plotJob = null; }
+  const id = Engine.nextId++;
+  return new Promise((resolve) => {
+    const job = { id, resolve, onBand };
+    Engine.plotJob = job;
+    if (Engine.plotWorker && !Engine.test) {
+      Engine.plotWorker.postMessage({ type: 'plot', id, request, bands });
+      return;
+    }
+    (async () => {
+      for (const rows of bands) {
+        await yieldToBrowser();
+        if (Engine.plotJob !== job) return;
+        let rgba;
+        try {
+          const req = Object.assign({}, request, rows ? { rows } : {});
+          rgba = Engine.test ? Engine.test.phasePlotRgba(req) : wasmGlue.phase_plot_rgba(req);
+        } catch (e) {
+          Engine.plotJob = null;
+          resolve(errorObject(e));
+          return;
+        }
+        onBand(rows, rgba);
+      }
+      if (Engine.plotJob === job) { Engine.plotJob = null; resolve({ done: true }); }
+    })();
+  });
+}
+
+/** One small phase plot in a single call (used for the colour key). */
+export function plotOnce(request) {
+  if (!Engine.ready) return errorObject(new Error('the computing core is still loading'));
+  try {
+    return { rgba: Engine.test ? Engine.test.phasePlotRgba(request) : wasmGlue.phase_plot_rgba(request) };
+  } catch (e) {
+    return errorObject(e);
+  }
+}

@@ -1,0 +1,50 @@
+// The colour key: the core's own colouring of f(z) = z on a small square, cut
+// to a ring, with the argument marked around it; and the marker key.
+import { plotOnce } from './engine.js';
+import { el } from './util.js';
+import { markerIcon, KIND_WORDS } from './singularities.js';
+
+/** Draw the colour ring for `wheel` ("oklch" or "hsv") into `canvas` (150 × 150 drawing units). */
+export function drawWheelKey(canvas, wheel) {
+  const ctx = canvas.getContext('2d');
+  const size = 96, off = (canvas.width - size) / 2;
+  ctx.clearRect(0, 0, canvas.width, canvas.height);
+  const result = plotOnce({ task: 'phase_plot', f: 'z', var: 'z', params: {}, view: [-1, 1, -1, 1], size: [size, size], options: { wheel }, format: 'rgba' });
+  if (result.error || !result.rgba || result.rgba.length !== size * size * 4) {
+    ctx.fillStyle = '#666';
+    ctx.font = '11px system-ui, sans-serif';
+    ctx.textAlign = 'center';
+    ctx.fillText('key appears when', canvas.width / 2, canvas.height / 2 - 7);
+    ctx.fillText('plotting works', canvas.width / 2, canvas.height / 2 + 8);
+    return false;
+  }
+  const data = new Uint8ClampedArray(result.rgba);
+  for (let j = 0; j < size; j++) {
+    for (let i = 0; i < size; i++) {
+      const x = (i + 0.5) / size * 2 - 1, y = 1 - (j + 0.5) / size * 2;
+      const r = Math.hypot(x, y);
+      if (r > 1 || r < 0.45) data[(j * size + i) * 4 + 3] = 0;
+    }
+  }
+  ctx.putImageData(new ImageData(data, size, size), off, off);
+  ctx.fillStyle = '#222';
+  ctx.font = '11px system-ui, sans-serif';
+  ctx.textAlign = 'center';
+  ctx.textBaseline = 'middle';
+  const c = canvas.width / 2, R = size / 2 + 11;
+  ctx.fillText('0', c + R, c);
+  ctx.fillText('π/2', c, c - R + 2);
+  ctx.fillText('±π', c - R - 2, c);
+  ctx.fillText('−π/2', c, c + R - 2);
+  ctx.fillText('arg f', c, c);
+  return true;
+}
+
+/** List each marker shape with its meaning. */
+export function fillMarkerKey(list) {
+  list.textContent = '';
+  for (const kind of ['pole', 'zero', 'essential', 'branch', 'removable']) {
+    list.append(el('li', {}, markerIcon(kind), ' ' + KIND_WORDS[kind]));
+  }
+  list.append(el('li', { class: 'hint', text: 'A number beside a marker is its order.' }));
+}

@@ -1,0 +1,401 @@
+// Wires the page together: state, inputs, the plot, the readout and the
+// singularities panel. Everything the user types is kept (see state.js).
+import { $, el, debounce, fmtComplex, fmtReal, cAbs, cArg, cInv, responseError, isFinitePair } from './util.js';
+import { Engine, startEngine, runNow, runHeavy } from './engine.js';
+import { loadState, saveState, fromHash, toHash } from './state.js';
+import { showUnderline, syncMirror } from './expr-input.js';
+import { renderParams, paramsForRequest } from './params.js';
+import { createPlot } from './plot.js';
+import { drawWheelKey, fillMarkerKey } from './legend.js';
+import { demoList, demoState } from './demos.js';
+import {
+  regionContour, regionProblem, itemsOf, stabilityReading, searchSingularities, cancelHeavy,
+  fillTable, highlightRow, laurentRadius, requestLaurent, showDetail,
+} from './singularities.js';
+
+const state = loadState();
+const ui = {
+  expr: $('expr'), mirror: $('expr-mirror'), message: $('expr-message'), varName: $('var-name'),
+  params: $('params'), modulus: $('opt-modulus'), phase: $('opt-phase'), infinity: $('opt-infinity'),
+  wheel: $('opt-wheel'), canvas: $('plot'), readout: $('readout'), plotStatus: $('plot-status'),
+  find: $('find'), cancel: $('cancel-find'), autoFind: $('auto-find'), findStatus: $('find-status'),
+  resInf: $('res-inf'), sumCheck: $('sum-check'), stability: $('stability'), caution: $('caution'),
+  warnings: $('warnings'), tbody: $('sing-body'), partial: $('partial-fractions'),
+  detail: { box: $('detail'), title: $('detail-title'), math: $('detail-math'), note: $('detail-note'), body: $('laurent-body') },
+};
+
+let exprOk = false;           // the last check found no error in the function
+let lastZView = state.view.slice();
+let found = { items: [], key: '' };
+let searchSerial = 0;
+
+// ---- requests ------------------------------------------------------------------
+
+function functionInput() {
+  const { params } = paramsForRequest(state.params);
+  return { f: state.f, var: state.var.trim() || 'z', params };
+}
+
+function plotRequestBase() {
+  return Object.assign(functionInput(), {
+    options: { wheel: state.wheel, modulus_lines: state.modulus, phase_lines: state.phase, infinity: state.infinity },
+  });
+}
+
+// ---- plot ----------------------------------------------------------------------
+
+const plot = createPlot(ui.canvas, {
+  baseRequest: () => (Engine.ready ? plotRequestBase() : null),
+  onViewChange: (view) => {
+    state.view = view;
+    if (!state.infinity) lastZView = view.slice();
+    persist();
+    if (state.region.mode === 'view') { fillRegionFields(); autoSearchSoon(1000); }
+  },
+  onPointer: (p) => readoutAt(p),
+  onMarkerClick: (i) => pick(i),
+  onStatus: (what, error) => {
+    ui.plotStatus.textContent = what === 'drawing' ? 'Drawing…' : what === 'error' ? 'Plot failed (see the message on the plot).' : '';
+    ui.canvas.dataset.status = what;
+  },
+});
+
+function applyAxisName() {
+  plot.axisName = state.infinity ? 'w' : (state.var.trim() || 'z');
+  plot.infinityMode = state.infinity;
+}
+
+// ---- persistence ---------------------------------------------------------------
+
+const persist = debounce(() => saveState(state), 250);
+
+// ---- expression checking ---------------------------------------------------------
+
+function checkExpression() {
+  syncMirror(ui.expr, ui.mirror);
+  const { problems } = paramsForRequest(state.params);
+  if (!Engine.ready) {
+    showUnderline(ui.mirror, state.f, null);
+    ui.message.textContent = Engine.message || 'Loading the computing core…';
+    return false;
+  }
+  if (state.f.trim() === '') {
+    showUnderline(ui.mirror, state.f, null);
+    ui.message.textContent = 'Type a function of ' + (state.var.trim() || 'z') + ', for example 1/(' + (state.var.trim() || 'z') + '^2 + 1.5*' + (state.var.trim() || 'z') + ' + 4).';
+    ui.message.className = 'expr-message';
+    return false;
+  }
+  const resp = runNow(Object.assign(functionInput(), { task: 'evaluate', at: [[0.31, 0.17]] }));
+  const err = responseError(resp);
+  showUnderline(ui.mirror, state.f, err && err.span);
+  if (err) {
+    ui.message.textContent = err.message.charAt(0).toUpperCase() + err.message.slice(1) + (err.message.endsWith('.') ? '' : '.');
+    ui.message.className = 'expr-message bad';
+    ui.expr.setAttribute('aria-invalid', 'true');
+    return false;
+  }
+  ui.expr.removeAttribute('aria-invalid');
+  if (problems.length) {
+    ui.message.textContent = 'Parameter: ' + problems[0] + '.';
+    ui.message.className = 'expr-message bad';
+    return false;
+  }
+  ui.message.textContent = 'f(' + functionInput().var + ') is understood.';
+  ui.message.className = 'expr-message good';
+  return true;
+}
+
+function showNoPicture() {
+  if (plot.coarse) return; // keep the last good picture
+  plot.message = Engine.ready ? 'No picture yet: the function needs fixing (see the message under it).' : Engine.message;
+  plot.draw();
+}
+
+const afterTyping = debounce(() => {
+  exprOk = checkExpression();
+  if (exprOk) plot.render();
+  else showNoPicture();
+  autoSearchSoon(700);
+}, 120);
+
+function inputsChanged() {
+  persist();
+  showUnderline(ui.mirror, state.f, null);
+  syncMirror(ui.expr, ui.mirror);
+  afterTyping();
+}
+
+// ---- pointer readout -------------------------------------------------------------
+
+let readoutPoint = null, readoutQueued = false;
+function readoutAt(p) {
+  readoutPoint = p;
+  if (readoutQueued) return;
+  readoutQueued = true;
+  requestAnimationFrame(() => {
+    readoutQueued = false;
+    const q = readoutPoint;
+    if (!q) { ui.readout.textContent = 'Move the pointer over the plot to read values.'; return; }
+    const v = state.var.trim() || 'z';
+    const z = state.infinity ? cInv(q) : q;
+    const where = state.infinity ? `w = ${fmtComplex(q, 5)}, ${v} = 1/w = ${fmtComplex(z, 5)}` : `${v} = ${fmtComplex(q, 5)}`;
+    if (!exprOk || !isFinitePair(z)) { ui.readout.textContent = where; return; }
+    const resp = runNow(Object.assign(functionInput(), { task: 'evaluate', at: [z] }));
+    const err = responseError(resp);
+    if (err || !resp.values || !resp.values[0]) { ui.readout.textContent = where + ' — ' + (err ? err.message : 'no value'); return; }
+    const f = resp.values[0].map((x) => (x === null ? NaN : x));
+    const mod = cAbs(f), arg = cArg(f);
+    ui.readout.textContent = `${where}   f = ${fmtComplex(f, 6)}   |f| = ${fmtReal(mod, 6)}   arg f = ` +
+      (Number.isFinite(arg) && Number.isFinite(mod) && mod > 0 ? `${fmtReal(arg, 5)} rad (${fmtReal((arg * 180) / Math.PI, 4)}°)` : 'undefined');
+  });
+}
+
+// ---- singularities ---------------------------------------------------------------
+
+function currentContour() {
+  const view = state.infinity ? lastZView : state.view;
+  return regionContour(state.region, view);
+}
+
+function fillRegionFields() {
+  const v = state.region.mode === 'view' ? (state.infinity ? lastZView : state.view) : state.region.rect;
+  const ids = ['rect-x0', 'rect-x1', 'rect-y0', 'rect-y1'];
+  ids.forEach((id, k) => { if (document.activeElement !== $(id)) $(id).value = fmtReal(v[k], 6).replace('−', '-'); });
+  const [cx, cy, r] = state.region.circle;
+  [['circ-x', cx], ['circ-y', cy], ['circ-r', r]].forEach(([id, x]) => { if (document.activeElement !== $(id)) $(id).value = x; });
+  for (const radio of document.querySelectorAll('input[name=region-mode]')) radio.checked = radio.value === state.region.mode;
+  $('region-rect').classList.toggle('dim', state.region.mode !== 'rect');
+  $('region-circle').classList.toggle('dim', state.region.mode !== 'circle');
+  plot.region = state.region.mode === 'view' ? null : currentContour();
+}
+
+const autoSearch = debounce(() => { if (state.autoFind) findSingularities(); }, 700);
+function autoSearchSoon() { if (state.autoFind) autoSearch(); }
+
+async function findSingularities() {
+  autoSearch.cancel();
+  if (!Engine.ready || !exprOk) {
+    ui.findStatus.textContent = exprOk ? 'The computing core is not ready.' : 'Fix the function first.';
+    return;
+  }
+  const contour = currentContour();
+  const problem = regionProblem(contour);
+  if (problem) { ui.findStatus.textContent = 'Region: ' + problem + '.'; return; }
+  const serial = ++searchSerial;
+  const base = functionInput();
+  ui.find.disabled = true;
+  ui.cancel.disabled = false;
+  ui.findStatus.textContent = 'Searching…';
+  ui.findStatus.className = 'find-status busy';
+  const resp = await searchSingularities(base, contour);
+  if (serial !== searchSerial) return;
+  ui.find.disabled = false;
+  ui.cancel.disabled = true;
+  ui.findStatus.className = 'find-status';
+  const err = responseError(resp);
+  if (err) {
+    ui.findStatus.textContent = err.message === 'cancelled' ? 'Search stopped.' : 'Search failed: ' + err.message;
+    return;
+  }
+  found = { items: itemsOf(resp), base, contour };
+  const n = found.items.length;
+  ui.findStatus.textContent = n ? `Found ${n} point${n === 1 ? '' : 's'} in the region. Choose a row or marker for its principal part.` : 'Search finished.';
+  fillTable(ui.tbody, found.items, pick);
+  plot.markers = found.items;
+  plot.selected = -1;
+  plot.draw();
+  ui.detail.box.hidden = true;
+  // residue at infinity and the sum check
+  const rinf = resp.residue_at_infinity;
+  ui.resInf.textContent = isFinitePair(rinf) ? fmtComplex(rinf, 10) : 'not available for this function';
+  const sum = found.items.filter((it) => it.kind === 'pole' && isFinitePair(it.residue))
+    .reduce((acc, it) => [acc[0] + it.residue[0], acc[1] + it.residue[1]], [0, 0]);
+  ui.sumCheck.textContent = `residues in the region add to ${fmtComplex(sum, 8)}` +
+    (isFinitePair(rinf) ? `; with the residue at infinity the total is ${fmtComplex([sum[0] + rinf[0], sum[1] + rinf[1]], 4)}` : '') +
+    (Number.isFinite(resp.residue_sum_defect) ? ` (defect ${fmtReal(resp.residue_sum_defect, 3)}; near 0 when every finite singularity lies inside the region)` : '');
+  ui.warnings.textContent = '';
+  for (const w of Array.isArray(resp.warnings) ? resp.warnings : []) ui.warnings.append(el('li', { text: String(w) }));
+  // stability reading (s or z) with the caution
+  const reading = stabilityReading(base.var, found.items, contour);
+  ui.stability.hidden = !reading;
+  ui.stability.textContent = reading;
+  ui.caution.hidden = !reading;
+  // partial fractions, shown only when the task answers
+  const pf = await runHeavy(Object.assign({}, base, { task: 'partial_fractions' }));
+  if (serial !== searchSerial) return;
+  const pfErr = responseError(pf);
+  ui.partial.hidden = Boolean(pfErr) || typeof pf.text !== 'string';
+  if (!ui.partial.hidden) ui.partial.textContent = 'Partial fractions: ' + pf.text;
+}
+
+async function pick(index) {
+  const item = found.items[index];
+  if (!item) return;
+  plot.selected = index;
+  plot.draw();
+  highlightRow(ui.tbody, index);
+  const c = found.contour;
+  const size = c.shape === 'circle' ? c.radius : Math.max(Math.abs(c.corners[1][0] - c.corners[0][0]), Math.abs(c.corners[1][1] - c.corners[0][1])) / 2;
+  const radius = laurentRadius(item, found.items, Math.max(size / 2, 1e-6));
+  ui.detail.box.hidden = false;
+  ui.detail.note.textContent = 'Computing the Laurent series…';
+  ui.detail.math.textContent = '';
+  ui.detail.body.textContent = '';
+  const resp = await requestLaurent(found.base, item, radius);
+  if (plot.selected !== index) return;
+  showDetail(ui.detail, found.base.var, item, resp, radius);
+}
+
+// ---- wiring ----------------------------------------------------------------------
+
+function applyStateToControls() {
+  ui.expr.value = state.f;
+  ui.varName.value = state.var;
+  ui.modulus.checked = state.modulus;
+  ui.phase.checked = state.phase;
+  ui.infinity.checked = state.infinity;
+  ui.wheel.value = state.wheel;
+  ui.autoFind.checked = state.autoFind;
+  renderParams(ui.params, state.params, inputsChanged);
+  applyAxisName();
+  fillRegionFields();
+  showUnderline(ui.mirror, state.f, null);
+  syncMirror(ui.expr, ui.mirror);
+}
+
+ui.expr.addEventListener('input', () => { state.f = ui.expr.value; inputsChanged(); });
+ui.expr.addEventListener('scroll', () => { ui.mirror.scrollTop = ui.expr.scrollTop; });
+ui.varName.addEventListener('input', () => { state.var = ui.varName.value; applyAxisName(); plot.draw(); inputsChanged(); });
+$('add-param').addEventListener('click', () => {
+  const used = new Set(state.params.map((p) => p.name));
+  const name = ['a', 'b', 'c', 'k', 'w0', 'zeta', 'tau'].find((n) => !used.has(n)) || 'p' + (state.params.length + 1);
+  state.params.push({ name, value: '1', lo: null, hi: null });
+  renderParams(ui.params, state.params, inputsChanged);
+  inputsChanged();
+  const inputs = ui.params.querySelectorAll('.p-name');
+  if (inputs.length) inputs[inputs.length - 1].focus();
+});
+const optionChanged = () => {
+  state.modulus = ui.modulus.checked;
+  state.phase = ui.phase.checked;
+  state.wheel = ui.wheel.value;
+  persist();
+  if (exprOk) plot.render();
+};
+ui.modulus.addEventListener('change', optionChanged);
+ui.phase.addEventListener('change', optionChanged);
+ui.wheel.addEventListener('change', () => { optionChanged(); drawWheelKey($('wheel'), state.wheel); });
+ui.infinity.addEventListener('change', () => {
+  state.infinity = ui.infinity.checked;
+  if (state.infinity) { lastZView = plot.getView(); plot.homeView = [-1, 1, -1, 1]; plot.setView([-1, 1, -1, 1]); }
+  else { plot.homeView = lastZView.slice(); plot.setView(lastZView); }
+  state.view = plot.getView();
+  applyAxisName();
+  fillRegionFields();
+  plot.coarse = null; plot.fine = null;
+  plot.draw();
+  persist();
+  if (exprOk) plot.render();
+});
+$('zoom-in').addEventListener('click', () => plot.zoom(1 / 1.5));
+$('zoom-out').addEventListener('click', () => plot.zoom(1.5));
+$('zoom-reset').addEventListener('click', () => plot.reset());
+
+for (const radio of document.querySelectorAll('input[name=region-mode]')) {
+  radio.addEventListener('change', () => {
+    if (!radio.checked) return;
+    if (radio.value === 'rect' && state.region.mode === 'view') state.region.rect = (state.infinity ? lastZView : state.view).slice();
+    state.region.mode = radio.value;
+    fillRegionFields();
+    plot.draw();
+    persist();
+    autoSearchSoon();
+  });
+}
+const regionTyped = () => {
+  const num = (id) => Number($(id).value);
+  const rect = ['rect-x0', 'rect-x1', 'rect-y0', 'rect-y1'].map(num);
+  if (rect.every(Number.isFinite)) {
+    if (state.region.mode === 'view') state.region.mode = 'rect';
+    if (state.region.mode === 'rect') state.region.rect = rect;
+  }
+  const circle = ['circ-x', 'circ-y', 'circ-r'].map(num);
+  if (circle.every(Number.isFinite)) state.region.circle = circle;
+  fillRegionFields();
+  plot.draw();
+  persist();
+  autoSearchSoon();
+};
+for (const id of ['rect-x0', 'rect-x1', 'rect-y0', 'rect-y1']) $(id).addEventListener('change', regionTyped);
+for (const id of ['circ-x', 'circ-y', 'circ-r']) $(id).addEventListener('change', () => {
+  if (state.region.mode !== 'circle') state.region.mode = 'circle';
+  regionTyped();
+});
+ui.find.addEventListener('click', findSingularities);
+ui.cancel.addEventListener('click', async () => {
+  searchSerial++;
+  ui.cancel.disabled = true;
+  ui.find.disabled = false;
+  ui.findStatus.className = 'find-status';
+  ui.findStatus.textContent = 'Search stopped.';
+  await cancelHeavy();
+});
+ui.autoFind.addEventListener('change', () => { state.autoFind = ui.autoFind.checked; persist(); });
+
+// Examples.
+const demos = demoList();
+const select = $('demo-select');
+demos.forEach((d, i) => select.append(el('option', { value: String(i), text: d.title })));
+if (demos.length === 0) select.closest('label').hidden = true;
+/** Take over a whole new setup (an example, or a link's state); keeps the display options unless given. */
+function adopt(next) {
+  Object.assign(state, next);
+  plot.homeView = state.infinity ? [-1, 1, -1, 1] : state.view.slice();
+  plot.setView(state.view);
+  if (!state.infinity) lastZView = plot.getView();
+  applyStateToControls();
+  plot.coarse = null; plot.fine = null;
+  plot.markers = []; plot.selected = -1;
+  ui.detail.box.hidden = true;
+  inputsChanged();
+}
+
+select.addEventListener('change', () => {
+  const d = demos[Number(select.value)];
+  if (!d) return;
+  adopt(Object.assign(demoState(d), { infinity: false, region: Object.assign({}, state.region, { mode: 'view' }) }));
+  $('demo-description').hidden = !d.description;
+  $('demo-description').textContent = d.description || '';
+});
+
+// A link followed while the page is open (only the address hash changes).
+window.addEventListener('hashchange', () => {
+  const next = fromHash(window.location.hash);
+  if (next && toHash(state) !== window.location.hash) adopt(next);
+});
+
+// Layout follows the container (also inside an iframe).
+let resizeTimer = 0;
+const resized = () => { clearTimeout(resizeTimer); resizeTimer = setTimeout(() => { plot.resize(); if (exprOk) plot.scheduleRender(0); }, 80); };
+if (typeof ResizeObserver === 'function') new ResizeObserver(resized).observe(ui.canvas.parentElement);
+else window.addEventListener('resize', resized);
+
+// ---- start -------------------------------------------------------------------------
+
+fillMarkerKey($('marker-key'));
+plot.resize();
+plot.homeView = state.infinity ? [-1, 1, -1, 1] : state.view.slice();
+plot.setView(state.view);
+applyStateToControls();
+ui.message.textContent = 'Loading the computing core…';
+
+startEngine().then(() => {
+  $('version').textContent = Engine.ready ? `Core version ${Engine.version}.` : '';
+  drawWheelKey($('wheel'), state.wheel);
+  exprOk = checkExpression();
+  if (exprOk) plot.render();
+  else showNoPicture();
+  if (exprOk && state.autoFind) findSingularities();
+  document.body.dataset.workers = String(Engine.usesWorkers);
+  document.body.dataset.ready = 'true';
+});

@@ -1,0 +1,89 @@
+// The page state, and keeping it: localStorage (when the browser allows it on
+// this page) and the URL hash, so a link can carry a whole setup.
+import { safeStorage } from './util.js';
+
+const STORAGE_KEY = 'residuary.page.v1';
+
+export function defaultState() {
+  return {
+    f: '(z^3 - 1) / (z^2 + 0.4*z + 4)',
+    var: 'z',
+    params: [],
+    view: [-3, 3, -3, 3],
+    modulus: false,
+    phase: false,
+    infinity: false,
+    wheel: 'oklch',
+    region: { mode: 'view', rect: [-3, 3, -3, 3], circle: [0, 0, 2] },
+    autoFind: true,
+  };
+}
+
+/** Bring any stored object into the current shape, dropping what does not fit. */
+export function sanitize(raw) {
+  const s = defaultState();
+  if (!raw || typeof raw !== 'object') return s;
+  const num4 = (v) => Array.isArray(v) && v.length === 4 && v.every(Number.isFinite);
+  if (typeof raw.f === 'string') s.f = raw.f.slice(0, 4000);
+  if (typeof raw.var === 'string') s.var = raw.var.slice(0, 40);
+  if (Array.isArray(raw.params)) {
+    s.params = raw.params
+      .filter((p) => p && typeof p.name === 'string')
+      .slice(0, 40)
+      .map((p) => ({
+        name: p.name.slice(0, 40),
+        value: String(p.value ?? '0').slice(0, 80),
+        lo: Number.isFinite(p.lo) ? p.lo : null,
+        hi: Number.isFinite(p.hi) ? p.hi : null,
+      }));
+  }
+  if (num4(raw.view) && raw.view[1] > raw.view[0] && raw.view[3] > raw.view[2]) s.view = raw.view;
+  for (const k of ['modulus', 'phase', 'infinity', 'autoFind']) if (typeof raw[k] === 'boolean') s[k] = raw[k];
+  if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
+  const r = raw.region;
+  if (r && typeof r === 'object') {
+    if (['view', 'rect', 'circle'].includes(r.mode)) s.region.mode = r.mode;
+    if (num4(r.rect)) s.region.rect = r.rect;
+    if (Array.isArray(r.circle) && r.circle.length === 3 && r.circle.every(Number.isFinite)) s.region.circle = r.circle;
+  }
+  return s;
+}
+
+/** Encode for the URL hash. */
+export function toHash(state) {
+  return '#s=' + encodeURIComponent(JSON.stringify(state));
+}
+
+/** The state carried by a hash, or null. */
+export function fromHash(hash) {
+  const m = /^#s=(.*)$/.exec(hash || '');
+  if (!m) return null;
+  try {
+    return sanitize(JSON.parse(decodeURIComponent(m[1])));
+  } catch (e) {
+    return null;
+  }
+}
+
+/** Where the page starts: the link's hash first, then what this browser kept, then the defaults. */
+export function loadState() {
+  const fromLink = fromHash(window.location.hash);
+  if (fromLink) return fromLink;
+  const stored = safeStorage.get(STORAGE_KEY);
+  if (stored) {
+    try { return sanitize(JSON.parse(stored)); } catch (e) { /* fall through */ }
+  }
+  return defaultState();
+}
+
+/** Keep the state in both places; failures are ignored (the page still works). */
+export function saveState(state) {
+  safeStorage.set(STORAGE_KEY, JSON.stringify(state));
+  const hash = toHash(state);
+  if (window.location.hash === hash) return;
+  try {
+    window.history.replaceState(null, '', hash);
+  } catch (e) {
+    try { window.location.replace(hash); } catch (e2) { /* keep going */ }
+  }
+}

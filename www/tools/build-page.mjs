@@ -1,0 +1,136 @@
+#!/usr/bin/env node
+// Builds ONE self-contained page, dist/residuary.html, from:
+//   www/index.html (the template), www/style.css, www/js/*.js (our modules),
+//   dist/pkg/residuary.js + residuary_bg.wasm (wasm-bindgen --target web output),
+//   demo-data/*.json (the example menu).
+// Our modules are written as ES modules for development; here they are joined
+// in dependency order with their import lines removed and `export` dropped, so
+// every top-level name must be unique (checked below). The wasm-bindgen glue is
+// wrapped into one namespace object `wasmGlue`; the wasm goes in as base64.
+// The same glue text, plus www/js/worker-body.js, is kept as a string so the
+// page can start Web Workers from Blob URLs (nothing is fetched, even from file://).
+// No npm dependencies: node's standard library only.
+import { readFileSync, writeFileSync, readdirSync, mkdirSync, existsSync } from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
+const www = join(root, 'www');
+const out = join(root, 'dist', 'residuary.html');
+const pkg = join(root, 'dist', 'pkg');
+
+// Dependency order: a module comes after every module it imports.
+const MODULES = ['util', 'engine', 'state', 'expr-input', 'params', 'plot', 'singularities', 'legend', 'demos', 'main'];
+
+function fail(message) {
+  console.error('build-page: ' + message);
+  process.exit(1);
+}
+
+function read(path) {
+  if (!existsSync(path)) fail(`missing ${path} (run the wasm build first: make build)`);
+  return readFileSync(path, 'utf8');
+}
+
+/** Strip import lines and `export` keywords from one of our modules. */
+function flattenModule(name) {
+  const text = read(join(www, 'js', name + '.js'));
+  const stripped = text
+    .replace(/^import\s[^;]*?from\s+['"][^'"]+['"];?[ \t]*$/gm, '')
+    .replace(/^export\s*\{[^}]*\}\s*(from\s+['"][^'"]+['"])?;?[ \t]*$/gm, '');
+  const lines = stripped.split('\n');
+  const body = lines.map((l) => l.replace(/^export\s+(default\s+)?(?=(async\s+)?function|const|let|class)/, '')).join('\n');
+  if (/^\s*(import|export)\s/m.test(body)) fail(`www/js/${name}.js: an import/export the bundler cannot flatten (write import {..} from './x.js'; or export function ...)`);
+  return `// ---- www/js/${name}.js ----\n${body}`;
+}
+
+/** Top-level names declared at column 0. */
+function topLevelNames(code) {
+  const names = [];
+  const re = /^(?:async\s+)?(?:function\*?|const|let|var|class)\s+([A-Za-z_$][\w$]*)/gm;
+  let m;
+  while ((m = re.exec(code))) names.push(m[1]);
+  return names;
+}
+
+/** Wrap the wasm-bindgen glue into `const wasmGlue = (() => {...})();`. */
+function wrapGlue(glue) {
+  if (/^\s*import\s/m.test(glue)) fail('the wasm-bindgen glue imports other files; this build expects none (no JS snippets)');
+  const exported = [];
+  let body = glue.replace(/^export\s+(function|class|const|let)\s+([A-Za-z_$][\w$]*)/gm, (_, kind, name) => {
+    exported.push([name, name]);
+    return `${kind} ${name}`;
+  });
+  body = body.replace(/^export\s*\{([^}]*)\};?\s*$/gm, (_, list) => {
+    for (const item of list.split(',')) {
+      const parts = item.trim().split(/\s+as\s+/);
+      if (parts[0]) exported.push([parts[1] || parts[0], parts[0]]);
+    }
+    return '';
+  });
+  body = body.replace(/^export\s+default\s+([A-Za-z_$][\w$]*);?\s*$/gm, (_, name) => { exported.push(['default', name]); return ''; });
+  if (/^\s*export\s/m.test(body)) fail('an export in the wasm-bindgen glue was not understood');
+  // Classic worker scripts cannot contain import.meta; the page never uses that path (it passes the module).
+  body = body.replace(/import\.meta\.url/g, 'self.location.href');
+  const names = exported.map(([as, name]) => `${JSON.stringify(as)}: ${name}`).join(', ');
+  for (const need of ['run', 'run_json', 'phase_plot_rgba', 'version', 'initSync', 'default']) {
+    if (!exported.some(([as]) => as === need)) fail(`the wasm glue does not export ${need}`);
+  }
+  return `const wasmGlue = (() => {\n${body}\nreturn { ${names} };\n})();\n`;
+}
+
+/** Safe inside a <script> element. */
+function scriptSafe(code, what) {
+  if (/<\/script/i.test(code)) fail(`${what} contains "</script", which would end the inline script`);
+  return code;
+}
+const jsonString = (s) => JSON.stringify(s).replace(/</g, '\\u003c');
+
+// Demo data: our own scenarios.
+function loadDemos() {
+  const dir = join(root, 'demo-data');
+  if (!existsSync(dir)) return [];
+  return readdirSync(dir).filter((f) => f.endsWith('.json')).sort().map((f) => {
+    let d;
+    try { d = JSON.parse(readFileSync(join(dir, f), 'utf8')); } catch (e) { fail(`demo-data/${f}: ${e.message}`); }
+    for (const k of ['title', 'f']) if (typeof d[k] !== 'string') fail(`demo-data/${f}: needs a "${k}" string`);
+    if (d.view && !(Array.isArray(d.view) && d.view.length === 4 && d.view[1] > d.view[0] && d.view[3] > d.view[2])) {
+      fail(`demo-data/${f}: "view" must be [x0, x1, y0, y1] with x0 < x1 and y0 < y1`);
+    }
+    return { id: f.replace(/\.json$/, ''), ...d };
+  });
+}
+
+const glue = wrapGlue(read(join(pkg, 'residuary.js')));
+const wasm = readFileSync(join(pkg, 'residuary_bg.wasm'));
+const workerBody = read(join(www, 'js', 'worker-body.js'));
+const app = MODULES.map(flattenModule).join('\n');
+const demos = loadDemos();
+
+const seen = new Map();
+for (const name of topLevelNames(app)) {
+  if (seen.has(name)) fail(`top-level name "${name}" is declared twice in www/js; rename one`);
+  seen.set(name, true);
+}
+
+const bundle = [
+  '// residuary page bundle (generated by www/tools/build-page.mjs)',
+  `const WASM_BASE64 = "${wasm.toString('base64')}";`,
+  `const GLUE_SOURCE = ${jsonString(glue)};`,
+  `const WORKER_SOURCE = ${jsonString(workerBody)};`,
+  `const DEMO_DATA = ${JSON.stringify(demos).replace(/</g, '\\u003c')};`,
+  scriptSafe(glue, 'the wasm glue'),
+  scriptSafe(app, 'www/js'),
+].join('\n');
+
+let html = read(join(www, 'index.html'));
+const css = read(join(www, 'style.css'));
+const linkTag = /<link rel="stylesheet" href="style\.css">/;
+const scriptTag = /<script type="module" src="js\/main\.js"><\/script>/;
+if (!linkTag.test(html) || !scriptTag.test(html)) fail('www/index.html must contain the style.css link and the js/main.js module script');
+html = html.replace(linkTag, () => `<style>\n${scriptSafe(css, 'style.css').replace(/<\/style/gi, '<\\/style')}\n</style>`);
+html = html.replace(scriptTag, () => `<script type="module">\n${bundle}\n</script>`);
+
+mkdirSync(dirname(out), { recursive: true });
+writeFileSync(out, html);
+console.log(`build-page: wrote ${out} (${(html.length / 1024).toFixed(0)} KiB; wasm ${(wasm.length / 1024).toFixed(0)} KiB; ${demos.length} examples)`);
