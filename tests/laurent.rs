@@ -1,6 +1,8 @@
 //! Laurent series by FFT: against handbook identities and mpmath 1.3.0 (40
 //! digits) fixtures in tests/fixtures/laurent.json (generator gen_laurent.py).
 
+mod common;
+
 use residuary::budget::Budget;
 use residuary::series::laurent_fft::{
     coefficients_on_circle, laurent, Center, LaurentRequest, LaurentResult,
@@ -10,12 +12,7 @@ use serde_json::Value;
 use std::f64::consts::PI;
 
 fn fixtures() -> Value {
-    let text = std::fs::read_to_string(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/tests/fixtures/laurent.json"
-    ))
-    .unwrap();
-    serde_json::from_str(&text).unwrap()
+    common::fixture("laurent")
 }
 
 fn case(name: &str) -> Value {

@@ -1,9 +1,12 @@
 //! Aberth–Ehrlich roots and multiplicities against outside references.
 
+mod common;
+
 use residuary::poly::aberth_ehrlich::{roots, MAX_DEGREE};
 use residuary::poly::multiplicity::distinct_roots;
 use residuary::poly::{abs_eval, eval, from_roots};
 use residuary::C;
+use common::list;
 use serde_json::Value;
 
 fn c(re: f64, im: f64) -> C {
@@ -11,25 +14,10 @@ fn c(re: f64, im: f64) -> C {
 }
 
 fn fixtures() -> Value {
-    let text = std::fs::read_to_string(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/tests/fixtures/rational.json"
-    ))
-    .unwrap();
-    serde_json::from_str(&text).unwrap()
+    common::fixture("rational")
 }
 
-fn num(v: &Value) -> C {
-    let f = |x: &Value| match x {
-        Value::String(s) => s.parse::<f64>().unwrap(),
-        other => other.as_f64().unwrap(),
-    };
-    c(f(&v[0]), f(&v[1]))
-}
 
-fn list(v: &Value) -> Vec<C> {
-    v.as_array().unwrap().iter().map(num).collect()
-}
 
 /// Max over roots of |p(r)| / Σ|p_k||r|^k (normwise backward error, common practice),
 /// through the reversed polynomial where |r| > 1 so nothing overflows; NaN fails loudly.

@@ -1,6 +1,8 @@
 //! Gauss–Kronrod, periodic trapezoid and contour integrals against closed forms
 //! and mpmath 1.3.0 (40 digits) fixtures in tests/fixtures/laurent.json.
 
+mod common;
+
 use residuary::budget::Budget;
 use residuary::contour::Contour;
 use residuary::quad::contour_quadrature::contour_integral;
@@ -16,12 +18,7 @@ use std::f64::consts::{E, PI};
 const I: C = C { re: 0.0, im: 1.0 };
 
 fn fixtures() -> Value {
-    let text = std::fs::read_to_string(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/tests/fixtures/laurent.json"
-    ))
-    .unwrap();
-    serde_json::from_str(&text).unwrap()
+    common::fixture("laurent")
 }
 
 fn tight() -> Tolerance {

@@ -1,11 +1,14 @@
 //! Poles, residues, partial fractions and the residue at infinity of rational
 //! functions, against mpmath fixtures and closed forms.
 
+mod common;
+
 use residuary::poly::from_roots;
 use residuary::singular::rational_poles::{
     analyse_rational, partial_fractions_string, residue_at_point, PointKind, RationalAnalysis,
 };
 use residuary::C;
+use common::{list, num};
 use serde_json::Value;
 
 fn c(re: f64, im: f64) -> C {
@@ -13,25 +16,10 @@ fn c(re: f64, im: f64) -> C {
 }
 
 fn fixtures() -> Value {
-    let text = std::fs::read_to_string(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/tests/fixtures/rational.json"
-    ))
-    .unwrap();
-    serde_json::from_str(&text).unwrap()
+    common::fixture("rational")
 }
 
-fn num(v: &Value) -> C {
-    let f = |x: &Value| match x {
-        Value::String(s) => s.parse::<f64>().unwrap(),
-        other => other.as_f64().unwrap(),
-    };
-    c(f(&v[0]), f(&v[1]))
-}
 
-fn list(v: &Value) -> Vec<C> {
-    v.as_array().unwrap().iter().map(num).collect()
-}
 
 #[test]
 fn fixtures_poles_residues_principal_parts() {
