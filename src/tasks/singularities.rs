@@ -68,6 +68,14 @@ fn rational(num: &[C], den: &[C], region: &Contour) -> Result<SingularitiesRespo
         .filter(|r| inside(region, r.at) == Some(true))
         .map(|r| PointOut { at: pair(r.at), residue: Some([0.0, 0.0]), error_estimate: None })
         .collect();
+    if poles.iter().any(|p| p.order > 1) {
+        warnings.push(
+            "a pole of order m > 1 could also be m separate poles closer together than double precision \
+             can tell apart (about 1e-8 relative for m = 2), which would have large residues of opposite \
+             sign; this matters when coefficients were rounded"
+                .into(),
+        );
+    }
     if a.residue_sum_defect > a.residue_sum_tolerance.max(1e-300) * 10.0 {
         warnings.push(format!(
             "the residues do not add up: |Σ residues + Res∞| = {:.2e} exceeds what rounding explains ({:.2e}); treat the residues with care",
