@@ -13,7 +13,7 @@ PAGE := dist/residuary.html
 E2E_DEPS := tests/e2e/node_modules/playwright-core/package.json
 export PATH := $(HOME)/.cargo/bin:$(PATH)
 
-.PHONY: run build test test-native test-wasm test-e2e bench tools clean
+.PHONY: run build test test-native test-wasm test-e2e bench bench-wasm tools clean
 
 run: build
 	@page="$(abspath $(PAGE))"; \
@@ -49,8 +49,32 @@ test-wasm: tools
 test-e2e: build $(E2E_DEPS)
 	node --test tests/e2e/run.mjs
 
-bench:
-	@echo "bench: no benchmarks yet"
+# Benchmarks print figures and ratios; they are not tests. The python parts
+# (numpy side by side) run only when python3 can import numpy.
+BENCH_WASM := bench/wasm/target/$(WASM_TARGET)/release/residuary_bench_wasm.wasm
+HAVE_NUMPY = python3 -c 'import numpy' 2>/dev/null
+# One BLAS thread: the Rust side is single-threaded, and on a shared machine
+# extra BLAS threads only contend.
+ONE_THREAD := OPENBLAS_NUM_THREADS=1 OMP_NUM_THREADS=1 MKL_NUM_THREADS=1
+
+bench: bench-wasm
+	@echo "== phase plot, native: interpreted vs hand-written (bench/phase_plot_native.rs) =="
+	$(CARGO) run -q --release --example phase_plot_native
+	@echo
+	@echo "== phase plot, wasm in node: (a) interpreted, (b) hand-written, (c) numpy =="
+	$(ONE_THREAD) node bench/wasm/run.mjs
+	@echo
+	@echo "== polynomial roots: Aberth-Ehrlich vs numpy.roots, one BLAS thread (bench/roots.rs, bench/roots.py) =="
+	@if $(HAVE_NUMPY); then $(ONE_THREAD) python3 bench/roots.py && $(CARGO) run -q --release --example roots; \
+	else echo "skipped: python3 with numpy not found"; fi
+	@echo
+	@echo "== singularities: degree-100 timing and residue accuracy (bench/singularities.rs) =="
+	$(CARGO) run -q --release --example singularities
+
+# The benchmark's own wasm module (bench/wasm, not part of the product's module).
+bench-wasm: tools
+	$(CARGO) build --release --target $(WASM_TARGET) --manifest-path bench/wasm/Cargo.toml --target-dir bench/wasm/target
+	wasm-bindgen --target nodejs --out-dir bench/wasm/pkg $(BENCH_WASM)
 
 clean:
 	rm -rf dist tests/e2e/artifacts

@@ -1,47 +1,117 @@
-//! Benchmark of the phase-plot renderer with hand-written Rust evaluators.
+//! Benchmark of the phase-plot renderer, native: the interpreted evaluator
+//! (`expr::Function::eval_block`) against the same functions hand-written in
+//! Rust, for the three functions of bench/cases.rs.
 //!
 //! Run: `cargo run --release --example phase_plot_native [-- --png DIR]`
-//! Prints Mpixel/s for evaluation alone, colouring alone (identity f) and the
-//! full render, for three functions of growing cost. `--png DIR` also writes
-//! the pictures. To compare another evaluator (e.g. the interpreted one), add
-//! one line to `cases()`.
+//! Prints Mpixel/s (median of repetitions) for evaluation alone, the plain
+//! render (colour only, no lines; what bench/phase_plot_numpy.py times) and
+//! the full render with lines, and the ratio interpreted/hand-written.
+//! `--png DIR` also writes the pictures.
 
+#[path = "cases.rs"]
+mod cases;
+
+use cases::{CASES, HEIGHT, VIEW, WIDTH};
+use residuary::expr::Function;
 use residuary::plot::phase_plot::{render, PlotOptions, View};
 use residuary::plot::png_encode::encode_png_rgba;
 use residuary::C;
 use std::time::Instant;
 
-type Block = Box<dyn FnMut(&[C], &mut [C])>;
+const REPS: usize = 9;
 
-/// Applies a pointwise function to a block.
-fn pointwise(f: impl Fn(C) -> C + 'static) -> Block {
-    Box::new(move |zs: &[C], out: &mut [C]| {
-        for (o, z) in out.iter_mut().zip(zs) {
-            *o = f(*z);
-        }
-    })
+/// Median wall times in seconds of `REPS` runs of each of `a` and `b`, after
+/// one warm-up run each. The runs alternate (a, b, a, b, ...) so that load
+/// from other processes on a shared machine falls on both alike.
+fn median_pair(a: &mut dyn FnMut(), b: &mut dyn FnMut()) -> (f64, f64) {
+    a();
+    b();
+    let (mut ta, mut tb) = (Vec::new(), Vec::new());
+    for _ in 0..REPS {
+        let t = Instant::now();
+        a();
+        ta.push(t.elapsed().as_secs_f64());
+        let t = Instant::now();
+        b();
+        tb.push(t.elapsed().as_secs_f64());
+    }
+    let median = |mut ts: Vec<f64>| {
+        ts.sort_by(f64::total_cmp);
+        ts[REPS / 2]
+    };
+    (median(ta), median(tb))
 }
 
-/// The cases: (name, evaluator). One line per evaluator.
-fn cases() -> Vec<(&'static str, Block)> {
-    vec![
-        // Second-order low-pass filter H(s) = wn²/(s² + 2ζ wn s + wn²), wn = 2, ζ = 0.3.
-        (
-            "lowpass2 (rational)",
-            pointwise(|s| {
-                let (wn, zeta) = (2.0, 0.3);
-                C::new(wn * wn, 0.0) / (s * s + 2.0 * zeta * wn * s + wn * wn)
-            }),
-        ),
-        // Essential singularity at 0 times an entire function.
-        ("exp(1/z)*sin(z)", pointwise(|z| z.inv().exp() * z.sin())),
-        // Several transcendental calls per point.
-        (
-            "sin(z)/(z^3-1) + exp(z)cos(z^2)",
-            pointwise(|z| z.sin() / (z * z * z - 1.0) + z.exp() * (z * z).cos()),
-        ),
-        // ("interpreted lowpass2", interpreted_block("2^2/(z^2+2*0.3*2*z+2^2)")),
-    ]
+/// Pixel centres of the image, row by row from the top (as the renderer samples).
+fn grid(view: View) -> Vec<C> {
+    (0..HEIGHT)
+        .flat_map(|j| {
+            (0..WIDTH).map(move |i| {
+                C::new(
+                    view.x0 + (f64::from(i) + 0.5) * (view.x1 - view.x0) / f64::from(WIDTH),
+                    view.y1 - (f64::from(j) + 0.5) * (view.y1 - view.y0) / f64::from(HEIGHT),
+                )
+            })
+        })
+        .collect()
+}
+
+/// Mpixel/s of evaluation alone, plain render and full render.
+struct Rates {
+    eval: f64,
+    plain: f64,
+    full: f64,
+}
+
+type Block<'a> = &'a mut dyn FnMut(&[C], &mut [C]);
+
+/// Rates of two evaluators, measured alternately.
+fn measure(a: Block, b: Block, view: View) -> (Rates, Rates) {
+    let mpx = f64::from(WIDTH * HEIGHT) / 1e6;
+    let zs = grid(view);
+    let w = WIDTH as usize;
+    let (mut fa, mut fb) = (
+        vec![C::new(0.0, 0.0); zs.len()],
+        vec![C::new(0.0, 0.0); zs.len()],
+    );
+    let (mut oa, mut ob) = (vec![0u8; zs.len() * 4], vec![0u8; zs.len() * 4]);
+    let (ea, eb) = median_pair(
+        &mut || {
+            zs.chunks(w)
+                .zip(fa.chunks_mut(w))
+                .for_each(|(z, f)| a(z, f))
+        },
+        &mut || {
+            zs.chunks(w)
+                .zip(fb.chunks_mut(w))
+                .for_each(|(z, f)| b(z, f))
+        },
+    );
+    let lines = PlotOptions::default();
+    let plain = PlotOptions {
+        modulus_lines: false,
+        phase_lines: false,
+        ..lines
+    };
+    let mut times = [(0.0, 0.0); 2];
+    for (k, opts) in [plain, lines].iter().enumerate() {
+        times[k] = median_pair(
+            &mut || render(a, view, WIDTH, HEIGHT, opts, &mut oa).expect("render"),
+            &mut || render(b, view, WIDTH, HEIGHT, opts, &mut ob).expect("render"),
+        );
+    }
+    (
+        Rates {
+            eval: mpx / ea,
+            plain: mpx / times[0].0,
+            full: mpx / times[1].0,
+        },
+        Rates {
+            eval: mpx / eb,
+            plain: mpx / times[0].1,
+            full: mpx / times[1].1,
+        },
+    )
 }
 
 fn main() {
@@ -50,78 +120,74 @@ fn main() {
         .iter()
         .position(|a| a == "--png")
         .and_then(|k| args.get(k + 1).cloned());
-    let (width, height) = (800u32, 600u32);
     let view = View {
-        x0: -3.0,
-        x1: 3.0,
-        y0: -2.25,
-        y1: 2.25,
+        x0: VIEW[0],
+        x1: VIEW[1],
+        y0: VIEW[2],
+        y1: VIEW[3],
     };
-    let opts = PlotOptions::default();
-    let mpx = f64::from(width * height) / 1e6;
-    let mut out = vec![0u8; (width * height * 4) as usize];
-    let reps = 5;
+    let mut out = vec![0u8; (WIDTH * HEIGHT * 4) as usize];
 
-    let mut identity = pointwise(|z| z);
-    let t = Instant::now();
-    for _ in 0..reps {
-        render(&mut identity, view, width, height, &opts, &mut out).expect("render");
-    }
-    let colour_rate = mpx * reps as f64 / t.elapsed().as_secs_f64();
-    let plain = PlotOptions {
-        modulus_lines: false,
-        phase_lines: false,
-        ..opts
-    };
-    let t = Instant::now();
-    for _ in 0..reps {
-        render(&mut identity, view, width, height, &plain, &mut out).expect("render");
-    }
-    let plain_rate = mpx * reps as f64 / t.elapsed().as_secs_f64();
-    println!("{width}x{height}, {reps} repetitions, lines on");
-    println!("colouring only, no lines: {plain_rate:.2} Mpx/s");
     println!(
-        "{:<36} {:>12} {:>12} {:>12}",
-        "function", "eval Mpx/s", "render Mpx/s", "colour Mpx/s"
+        "native phase plot, {WIDTH}x{HEIGHT} on [{},{}]x[{},{}], median of {REPS} runs, Mpixel/s",
+        VIEW[0], VIEW[1], VIEW[2], VIEW[3]
+    );
+    let mut identity = |zs: &[C], fs: &mut [C]| fs.copy_from_slice(&zs[..fs.len()]);
+    let mut identity2 = |zs: &[C], fs: &mut [C]| fs.copy_from_slice(&zs[..fs.len()]);
+    let (id, _) = measure(&mut identity, &mut identity2, view);
+    println!(
+        "colouring alone (f = z): plain {:.2}, with lines {:.2}",
+        id.plain, id.full
     );
     println!(
-        "{:<36} {:>12} {:>12.2} {:>12.2}",
-        "identity (colouring only)", "-", colour_rate, colour_rate
+        "{:<10} {:<12} {:>8} {:>8} {:>8}",
+        "function", "evaluator", "eval", "plain", "lines"
     );
-
-    for (name, mut block) in cases() {
-        // Evaluation alone, same grid.
-        let zs: Vec<C> = (0..height)
-            .flat_map(|j| {
-                (0..width).map(move |i| {
-                    C::new(
-                        view.x0 + (f64::from(i) + 0.5) * (view.x1 - view.x0) / f64::from(width),
-                        view.y1 - (f64::from(j) + 0.5) * (view.y1 - view.y0) / f64::from(height),
-                    )
-                })
-            })
-            .collect();
-        let mut fs = vec![C::new(0.0, 0.0); zs.len()];
-        let t = Instant::now();
-        for _ in 0..reps {
-            for (zr, fr) in zs.chunks(width as usize).zip(fs.chunks_mut(width as usize)) {
-                block(zr, fr);
+    for case in CASES.iter() {
+        let f = case.handwritten;
+        let mut hand = |zs: &[C], fs: &mut [C]| {
+            for (o, z) in fs.iter_mut().zip(zs) {
+                *o = f(*z);
             }
+        };
+        let compiled = match Function::compile(case.expr, "z", &[]) {
+            Ok(c) => c,
+            Err(e) => {
+                eprintln!(
+                    "{}: cannot compile {:?}: {}",
+                    case.name, case.expr, e.message
+                );
+                std::process::exit(1);
+            }
+        };
+        let mut interp = |zs: &[C], fs: &mut [C]| compiled.eval_block(zs, fs);
+        let (it, hw) = measure(&mut interp, &mut hand, view);
+        for (who, r) in [("hand", &hw), ("interpreted", &it)] {
+            println!(
+                "{:<10} {:<12} {:>8.2} {:>8.2} {:>8.2}",
+                case.name, who, r.eval, r.plain, r.full
+            );
         }
-        let eval_rate = mpx * reps as f64 / t.elapsed().as_secs_f64();
-        let t = Instant::now();
-        for _ in 0..reps {
-            render(&mut block, view, width, height, &opts, &mut out).expect("render");
-        }
-        let render_rate = mpx * reps as f64 / t.elapsed().as_secs_f64();
-        println!("{name:<36} {eval_rate:>12.2} {render_rate:>12.2} {colour_rate:>12.2}");
+        println!(
+            "{:<10} {:<12} {:>8.2} {:>8.2} {:>8.2}",
+            case.name,
+            "ratio i/h",
+            it.eval / hw.eval,
+            it.plain / hw.plain,
+            it.full / hw.full
+        );
         if let Some(dir) = &png_dir {
-            let png = encode_png_rgba(width, height, &out).expect("png");
-            let file: String = name
-                .chars()
-                .map(|c| if c.is_ascii_alphanumeric() { c } else { '_' })
-                .collect();
-            std::fs::write(format!("{dir}/{file}.png"), png).expect("write png");
+            render(
+                &mut interp,
+                view,
+                WIDTH,
+                HEIGHT,
+                &PlotOptions::default(),
+                &mut out,
+            )
+            .expect("render");
+            let png = encode_png_rgba(WIDTH, HEIGHT, &out).expect("png");
+            std::fs::write(format!("{dir}/{}.png", case.name), png).expect("write png");
         }
     }
 }

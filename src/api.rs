@@ -243,6 +243,84 @@ pub struct PartialFractionsResponse {
     pub warnings: Vec<String>,
 }
 
+/// `contour_integral`: ∮ f dz computed three independent ways (quadrature,
+/// residues inside, residues outside plus infinity), disagreement shown.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ContourIntegralRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+    pub contour: Contour,
+    #[serde(default)]
+    pub max_evaluations: Option<u64>,
+}
+
+/// A singular point with the contour's winding number about it.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct WindingOut {
+    pub at: [f64; 2],
+    pub winding: i32,
+    /// `"pole"`, `"essential"` or `"branch_point"`.
+    pub kind: String,
+    #[serde(skip_serializing_if = "Option::is_none", default)]
+    pub order: Option<u32>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ContourIntegralResponse {
+    pub value: [f64; 2],
+    pub by_quadrature: [f64; 2],
+    pub by_inside_residues: Option<[f64; 2]>,
+    pub by_outside_residues: Option<[f64; 2]>,
+    /// Largest pairwise |difference| among the available ways.
+    pub max_discrepancy: f64,
+    pub winding: Vec<WindingOut>,
+    /// Which way `value` is: `"quadrature"`, `"inside_residues"` or `"outside_residues"`.
+    pub value_from: String,
+    pub error_estimate: f64,
+    pub quadrature_error_estimate: f64,
+    pub inside_residues_error_estimate: Option<f64>,
+    pub outside_residues_error_estimate: Option<f64>,
+    /// One sentence: do the ways agree, and to what.
+    pub agreement: String,
+    /// `"rational"` (exact polynomial algebra) or `"numerical"`.
+    pub method: String,
+    pub warnings: Vec<String>,
+}
+
+/// `argument_count`: zeros − poles inside a contour by the argument principle.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ArgumentCountRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+    pub contour: Contour,
+    #[serde(default)]
+    pub max_evaluations: Option<u64>,
+}
+
+/// A zero or pole counted, with the contour's winding number about it.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct CountedPoint {
+    pub at: [f64; 2],
+    /// `"zero"` or `"pole"`.
+    pub kind: String,
+    pub order: u32,
+    pub winding: i32,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ArgumentCountResponse {
+    /// Zeros with multiplicity, each weighted by the winding number (null when not certain).
+    pub zeros: Option<i64>,
+    /// Poles with multiplicity, each weighted by the winding number (null when not certain).
+    pub poles: Option<i64>,
+    /// The argument principle: (1/2π) × total change of arg f along the contour.
+    pub zeros_minus_poles: i64,
+    /// The zeros and poles behind `zeros` and `poles`.
+    pub points: Vec<CountedPoint>,
+    pub method: String,
+    pub warnings: Vec<String>,
+}
+
 /// The parsed request: one variant per task.
 #[derive(Debug, Clone)]
 pub enum Request {
@@ -252,6 +330,8 @@ pub enum Request {
     Singularities(SingularitiesRequest),
     Laurent(LaurentRequest),
     PartialFractions(PartialFractionsRequest),
+    ContourIntegral(ContourIntegralRequest),
+    ArgumentCount(ArgumentCountRequest),
     /// Tasks the contract defines that this version does not compute yet.
     NotBuilt { task: String },
 }
@@ -265,6 +345,8 @@ pub enum Response {
     Singularities(SingularitiesResponse),
     Laurent(LaurentResponse),
     PartialFractions(PartialFractionsResponse),
+    ContourIntegral(ContourIntegralResponse),
+    ArgumentCount(ArgumentCountResponse),
     Json(Value),
 }
 
@@ -306,6 +388,8 @@ impl Request {
             "singularities" => Request::Singularities(body(&task, value)?),
             "laurent" => Request::Laurent(body(&task, value)?),
             "partial_fractions" => Request::PartialFractions(body(&task, value)?),
+            "contour_integral" => Request::ContourIntegral(body(&task, value)?),
+            "argument_count" => Request::ArgumentCount(body(&task, value)?),
             t if TASKS.contains(&t) => Request::NotBuilt { task },
             _ => {
                 return Err(ApiError::new(format!(
@@ -326,6 +410,8 @@ pub fn run(request: Request) -> Result<Response, ApiError> {
         Request::Singularities(r) => tasks::singularities::run(&r).map(Response::Singularities),
         Request::Laurent(r) => tasks::laurent::run(&r).map(Response::Laurent),
         Request::PartialFractions(r) => tasks::partial_fractions::run(&r).map(Response::PartialFractions),
+        Request::ContourIntegral(r) => tasks::contour_integral::run(&r).map(Response::ContourIntegral),
+        Request::ArgumentCount(r) => tasks::argument_count::run(&r).map(Response::ArgumentCount),
         Request::NotBuilt { task } => Err(ApiError::new(format!(
             "the \"{task}\" task is not built yet in this version of residuary"
         ))),

@@ -8,6 +8,7 @@ pub mod aaa;
 pub mod argument_principle;
 pub mod branch_jump;
 pub mod classify;
+pub mod cut_crossing;
 pub mod meromorphic;
 pub mod newton_refine;
 pub mod rational_poles;

@@ -55,6 +55,8 @@ pub mod residue;
 pub mod singularities;
 pub mod laurent;
 pub mod partial_fractions;
+pub mod contour_integral;
+pub mod argument_count;
 
 /// A point of the contract: `Some(z)` for `[x, y]`, `None` for `"infinity"`.
 pub fn point(p: &Point, field: &str) -> Result<Option<C>, ApiError> {
