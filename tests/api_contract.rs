@@ -178,3 +178,54 @@ fn partial_fractions_shape() {
     let e = run_err(json!({"task": "partial_fractions", "f": "exp(s)/(s+1)", "var": "s"}));
     assert!(e["message"].as_str().unwrap().contains("rational"));
 }
+
+#[test]
+fn ill_conditioned_expansion_is_flagged_and_its_estimates_cover_the_error() {
+    // 1/Π(z − p_k) for 80 poles near the unit circle, typed as a product. Expanding it into
+    // coefficients makes the roots very sensitive to rounding; the exact residue of the
+    // factored form is 1/Π_{j≠k}(p_k − p_j) (simple-pole rule; common practice).
+    let n = 80;
+    let poles: Vec<(f64, f64)> = (0..n)
+        .map(|k| {
+            let t = 2.0 * std::f64::consts::PI * (k as f64 + 0.3) / n as f64;
+            let r = 0.9 + 0.05 * ((3 * k) as f64).sin();
+            (r * t.cos(), r * t.sin())
+        })
+        .collect();
+    let f = format!(
+        "1/({})",
+        poles.iter().map(|(x, y)| format!("(z - ({x:.17} + {y:.17}i))")).collect::<Vec<_>>().join("*")
+    );
+    let v = run(json!({"task": "singularities", "f": f, "region": {"shape": "circle", "center": [0, 0], "radius": 2}}));
+    let mut worst_ratio: f64 = 0.0;
+    let mut worst_location: f64 = 0.0;
+    for p in v["poles"].as_array().unwrap() {
+        let (x, y) = c(&p["at"]);
+        let z = residuary::C::new(x, y);
+        let (k, distance) = poles
+            .iter()
+            .enumerate()
+            .map(|(k, &(a, b))| (k, (z - residuary::C::new(a, b)).norm()))
+            .min_by(|a, b| a.1.total_cmp(&b.1))
+            .unwrap();
+        worst_location = worst_location.max(distance);
+        if distance > 1e-8 {
+            continue; // a misplaced pole: its residue belongs to no true pole
+        }
+        let pk = residuary::C::new(poles[k].0, poles[k].1);
+        let exact = poles
+            .iter()
+            .enumerate()
+            .filter(|&(j, _)| j != k)
+            .fold(residuary::C::new(1.0, 0.0), |acc, (_, &(a, b))| acc * (pk - residuary::C::new(a, b)))
+            .inv();
+        let (re, im) = c(&p["residue"]);
+        let err = (residuary::C::new(re, im) - exact).norm();
+        worst_ratio = worst_ratio.max(err / p["error_estimate"].as_f64().unwrap());
+    }
+    let warned = v["warnings"].as_array().unwrap().iter().any(|w| w.as_str().unwrap().contains("disagree"));
+    // Where a pole is in the right place its estimate covers the residue error; where the
+    // expansion moved poles, the response says so.
+    assert!(worst_ratio <= 1.0, "an estimate undercuts the error by a factor {worst_ratio}");
+    assert!(worst_location < 1e-8 || warned, "poles moved by {worst_location:e} with no warning");
+}

@@ -7,6 +7,7 @@ use super::{budget, compile, hints, point};
 use crate::api::{pair, ResidueRequest, ResidueResponse};
 use crate::error::ApiError;
 use crate::expr::Function;
+use crate::singular::rational_check::check_residues;
 use crate::singular::rational_poles::{analyse_rational, format_complex, residue_at_point};
 use crate::singular::{classify_infinity, classify_point, PointResult};
 use crate::C;
@@ -14,15 +15,31 @@ use crate::C;
 pub fn run(req: &ResidueRequest) -> Result<ResidueResponse, ApiError> {
     let f = compile(&req.function)?;
     match (point(&req.at, "at")?, f.rational()) {
-        (Some(a), Some(r)) => rational_at(&r.num, &r.den, a),
+        (Some(a), Some(r)) => rational_at(&f, &r.num, &r.den, a),
         (None, Some(r)) => rational_at_infinity(&r.num, &r.den),
         (at, None) => general(&f, at),
     }
 }
 
-fn rational_at(num: &[C], den: &[C], a: C) -> Result<ResidueResponse, ApiError> {
+fn rational_at(f: &Function, num: &[C], den: &[C], a: C) -> Result<ResidueResponse, ApiError> {
     let r = residue_at_point(num, den, a).map_err(ApiError::new)?;
     let mut warnings = Vec::new();
+    let mut error_estimate = r.error_estimate;
+    if r.kind.as_str() == "pole" {
+        // The same independent check as in `singularities`: sample the expression as typed.
+        let all: Vec<C> = analyse_rational(num, den).map(|x| x.poles.iter().map(|p| p.at).collect()).unwrap_or_default();
+        let eval = |z: C| f.eval(z);
+        if let Some(Some(c)) = check_residues(&eval, &[(r.at, r.residue, r.error_estimate)], &all, &mut budget(None)).pop() {
+            error_estimate = error_estimate.max(c.difference + c.sampled_error);
+            if !c.agrees {
+                warnings.push(format!(
+                    "the residue from the expanded polynomials disagrees with the trapezoidal rule on the expression \
+                     as typed by {:.2e}; the expanded coefficients are sensitive to rounding, so this residue is uncertain",
+                    c.difference
+                ));
+            }
+        }
+    }
     if r.kind.as_str() != "pole" {
         if let (Some(p), Some(d)) = (r.nearest_pole, r.distance_to_nearest_pole) {
             if d < 1e-3 * p.norm().max(1.0) {
@@ -37,7 +54,7 @@ fn rational_at(num: &[C], den: &[C], a: C) -> Result<ResidueResponse, ApiError> 
         residue: Some(pair(r.residue)),
         kind: r.kind.as_str().into(),
         order: r.order,
-        error_estimate: Some(r.error_estimate),
+        error_estimate: Some(error_estimate),
         principal_part: r.principal_part.iter().map(|&c| pair(c)).collect(),
         warnings,
     })

@@ -6,6 +6,7 @@ use crate::api::{pair, PointOut, PoleOut, SingularitiesRequest, SingularitiesRes
 use crate::contour::Contour;
 use crate::error::ApiError;
 use crate::expr::Function;
+use crate::singular::rational_check::check_residues;
 use crate::singular::rational_poles::{analyse_rational, format_complex};
 use crate::singular::{classify_infinity, classify_point, find_singularities, Kind};
 use crate::C;
@@ -14,7 +15,7 @@ pub fn run(req: &SingularitiesRequest) -> Result<SingularitiesResponse, ApiError
     let f = compile(&req.function)?;
     req.region.validate().map_err(|e| ApiError::new(format!("region: {e}")))?;
     match f.rational() {
-        Some(r) => rational(&r.num, &r.den, &req.region),
+        Some(r) => rational(&f, &r.num, &r.den, &req.region),
         None => general(&f, &req.region, req.max_evaluations),
     }
 }
@@ -24,11 +25,12 @@ fn inside(region: &Contour, z: C) -> Option<bool> {
     region.winding_number(z).map(|w| w != 0)
 }
 
-fn rational(num: &[C], den: &[C], region: &Contour) -> Result<SingularitiesResponse, ApiError> {
+fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<SingularitiesResponse, ApiError> {
     let a = analyse_rational(num, den).map_err(ApiError::new)?;
     let mut warnings = a.warnings.clone();
+    let mut boundary = Vec::new();
     let mut on_boundary = |what: &str, z: C| {
-        warnings.push(format!(
+        boundary.push(format!(
             "a {what} at {} lies on the region's boundary; it is left out: move the boundary",
             format_complex(z, 0.0)
         ))
@@ -62,6 +64,8 @@ fn rational(num: &[C], den: &[C], region: &Contour) -> Result<SingularitiesRespo
             None => on_boundary("zero", z.at),
         }
     }
+    warnings.append(&mut boundary);
+    cross_check(f, &mut poles, &a.poles.iter().map(|p| p.at).collect::<Vec<_>>(), &mut warnings);
     let removable = a
         .removable
         .iter()
@@ -94,6 +98,40 @@ fn rational(num: &[C], den: &[C], region: &Contour) -> Result<SingularitiesRespo
         method: "rational".into(),
         warnings,
     })
+}
+
+/// Compare each exact residue with the trapezoidal rule on the expression as
+/// typed; where they disagree, say so and widen the error estimate to cover it.
+fn cross_check(f: &Function, poles: &mut [PoleOut], all: &[C], warnings: &mut Vec<String>) {
+    let claims: Vec<(C, C, f64)> = poles
+        .iter()
+        .map(|p| {
+            let r = p.residue.unwrap_or([0.0, 0.0]);
+            (C::new(p.at[0], p.at[1]), C::new(r[0], r[1]), p.error_estimate.unwrap_or(0.0))
+        })
+        .collect();
+    let eval = |z: C| f.eval(z);
+    let checks = check_residues(&eval, &claims, all, &mut budget(None));
+    let mut disagreeing = 0;
+    let mut worst: f64 = 0.0;
+    for (pole, check) in poles.iter_mut().zip(checks) {
+        let Some(check) = check else { continue };
+        // Two independent values: the exact one is claimed no better than their
+        // difference plus the sampled value's own error.
+        let bound = check.difference + check.sampled_error;
+        pole.error_estimate = Some(pole.error_estimate.unwrap_or(0.0).max(bound));
+        if !check.agrees {
+            disagreeing += 1;
+            worst = worst.max(check.difference);
+        }
+    }
+    if disagreeing > 0 {
+        warnings.push(format!(
+            "{disagreeing} residue(s) from the expanded polynomials disagree with the trapezoidal rule on the \
+             expression as typed (by up to {worst:.2e}); the expanded coefficients are sensitive to rounding, so \
+             these poles and residues are uncertain — their error estimates now include the disagreement"
+        ));
+    }
 }
 
 fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Result<SingularitiesResponse, ApiError> {
