@@ -1,8 +1,8 @@
 //! Tests of the WebAssembly exports (src/wasm.rs), run in node:
 //! `CARGO_TARGET_WASM32_UNKNOWN_UNKNOWN_RUNNER=wasm-bindgen-test-runner cargo test --target wasm32-unknown-unknown --test wasm_api`
 //!
-//! Tests marked `NEEDS CORE` exercise tasks that the skeleton answers with
-//! "not built yet"; they pass once the numerical core is integrated.
+//! Besides the export plumbing, these pin the response shapes the page reads
+//! (www/js/singularities.js, main.js): a field renamed in the core breaks here first.
 #![cfg(target_arch = "wasm32")]
 
 use residuary::wasm;
@@ -73,11 +73,11 @@ fn phase_plot_rgba_rejects_a_bad_request_with_an_error_object() {
     assert!(error_message(&out).is_some(), "got {out}");
 }
 
-// ---- NEEDS CORE: pass once evaluate / phase_plot are integrated ----------------
+// ---- tasks through the wasm exports ----------------------------------------------
 
-/// NEEDS CORE. (1 + i)^2 + 1 = 1 + 2i (common practice).
+/// (1 + i)^2 + 1 = 1 + 2i (common practice).
 #[wasm_bindgen_test]
-fn needs_core_evaluate_a_polynomial() {
+fn evaluate_a_polynomial() {
     let out = json_of(&wasm::run(js(
         &json!({"task": "evaluate", "f": "z^2+1", "at": [[1, 1]]}),
     )));
@@ -86,21 +86,89 @@ fn needs_core_evaluate_a_polynomial() {
     assert!((v[1].as_f64().unwrap() - 2.0).abs() < 1e-12, "got {out}");
 }
 
-/// NEEDS CORE. Integer JS numbers (size, rows) must reach the u32 fields.
+/// Integer JS numbers (size, rows) must reach the u32 fields.
 #[wasm_bindgen_test]
-fn needs_core_phase_plot_rgba_returns_width_times_rows_pixels() {
+fn phase_plot_rgba_returns_width_times_rows_pixels() {
     let req = json!({"task": "phase_plot", "f": "z", "view": [-1, 1, -1, 1], "size": [8, 6], "rows": [2, 5]});
     let bytes = wasm::phase_plot_rgba(js(&req)).expect("pixels");
     assert_eq!(bytes.len(), 8 * 3 * 4);
     assert!(bytes.chunks(4).all(|p| p[3] == 255), "every pixel opaque");
 }
 
-/// NEEDS CORE. A parse error carries the character span of the fault.
+/// A parse error carries the character span of the fault: here the '(' never closed.
 #[wasm_bindgen_test]
-fn needs_core_parse_error_has_a_span() {
+fn parse_error_has_the_span_of_the_unclosed_bracket() {
     let out = json_of(&wasm::run(js(
         &json!({"task": "evaluate", "f": "(z+1", "at": [[0, 0]]}),
     )));
-    let span = &out["error"]["span"];
-    assert!(span.is_array(), "got {out}");
+    // the unclosed '(' is character 0
+    assert_eq!(out["error"]["span"], json!([0, 1]), "got {out}");
+}
+
+fn pair(v: &Value) -> (f64, f64) {
+    (v[0].as_f64().unwrap_or(f64::NAN), v[1].as_f64().unwrap_or(f64::NAN))
+}
+
+/// The `singularities` shape the page reads, on a second-order low-pass section
+/// wn^2/(s^2 + 2 zeta wn s + wn^2): poles at -zeta wn ± i wn sqrt(1 - zeta^2) (common practice).
+#[wasm_bindgen_test]
+fn singularities_response_has_the_fields_the_page_reads() {
+    let req = json!({"task": "singularities", "f": "wn^2/(s^2 + 2*zeta*wn*s + wn^2)", "var": "s",
+        "params": {"wn": 2, "zeta": 0.3}, "region": {"shape": "rectangle", "corners": [[-4, -3], [2, 3]]}});
+    let out = json_of(&wasm::run(js(&req)));
+    for key in ["poles", "zeros", "essential", "branch_points", "removable", "warnings"] {
+        assert!(out[key].is_array(), "{key} missing: {out}");
+    }
+    assert!(out.get("residue_at_infinity").is_some() && out.get("method").is_some(), "{out}");
+    let poles = out["poles"].as_array().expect("poles");
+    assert_eq!(poles.len(), 2, "{out}");
+    let im = 2.0 * (1.0f64 - 0.09).sqrt();
+    for p in poles {
+        let (re, y) = pair(&p["at"]);
+        assert!((re + 0.6).abs() < 1e-9 && (y.abs() - im).abs() < 1e-9, "{p}");
+        assert_eq!(p["order"], 1);
+        // simple pole: residue = wn^2 / (p - conj p) (common practice: N/D')
+        let (rr, ri) = pair(&p["residue"]);
+        assert!(rr.abs() < 1e-9 && (ri + 4.0 / (2.0 * y)).abs() < 1e-9, "{p}");
+        assert!(p["error_estimate"].as_f64().is_some(), "{p}");
+        assert!(p["principal_part"].is_array(), "{p}");
+    }
+}
+
+/// `residue`: principal_part[k] is the coefficient of (s - a)^-(k+1).
+/// (s+3)/((s+1)^2 (s+2)) = 1/(s+2) - 1/(s+1) + 2/(s+1)^2 (partial fractions by hand).
+#[wasm_bindgen_test]
+fn residue_principal_part_is_ordered_from_c_minus_1() {
+    let req = json!({"task": "residue", "f": "(s+3)/((s+1)^2*(s+2))", "var": "s", "at": [-1, 0]});
+    let out = json_of(&wasm::run(js(&req)));
+    assert_eq!(out["order"], 2, "{out}");
+    let pp = out["principal_part"].as_array().expect("principal_part");
+    assert_eq!(pp.len(), 2, "{out}");
+    let (c1, _) = pair(&pp[0]);
+    let (c2, _) = pair(&pp[1]);
+    assert!((c1 + 1.0).abs() < 1e-9 && (c2 - 2.0).abs() < 1e-9, "{out}");
+    assert!(out["warnings"].is_array(), "{out}");
+}
+
+/// `laurent`: {coefficients: [{n, c}], error_estimate}. exp(1/u) = sum u^-k / k! (DLMF 4.2.19).
+#[wasm_bindgen_test]
+fn laurent_response_lists_n_and_c() {
+    let req = json!({"task": "laurent", "f": "exp(1/(z-1))", "center": [1, 0], "inner": 0, "outer": 1, "from": -4, "to": 1});
+    let out = json_of(&wasm::run(js(&req)));
+    let coeffs = out["coefficients"].as_array().expect("coefficients");
+    let c3 = coeffs.iter().find(|t| t["n"] == -3).expect("n = -3");
+    let (re, im) = pair(&c3["c"]);
+    assert!((re - 1.0 / 6.0).abs() < 1e-9 && im.abs() < 1e-9, "{out}");
+    assert!(out["error_estimate"].as_f64().is_some() && out["warnings"].is_array(), "{out}");
+}
+
+/// `partial_fractions`: a text and the terms; for a non-rational f an error with a way out.
+#[wasm_bindgen_test]
+fn partial_fractions_text_or_an_error_for_non_rational_f() {
+    let req = json!({"task": "partial_fractions", "f": "(s+3)/((s+1)^2*(s+2))", "var": "s"});
+    let out = json_of(&wasm::run(js(&req)));
+    assert!(out["text"].is_string() && out["terms"].as_array().map_or(0, |t| t.len()) == 3, "{out}");
+    let req = json!({"task": "partial_fractions", "f": "exp(-s)/(s+1)^2", "var": "s"});
+    let out = json_of(&wasm::run(js(&req)));
+    assert!(error_message(&out).is_some_and(|m| m.contains("rational")), "{out}");
 }

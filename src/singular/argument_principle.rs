@@ -32,7 +32,7 @@ pub fn count_by_argument_principle(
     let rounded = turns.round();
     if (turns - rounded).abs() > 0.05 {
         return Err(format!(
-            "the argument principle gave a non-integer count {turns:.3}; f may be discontinuous on the contour (a branch cut crosses it); move or shrink the contour"
+            "the argument principle gave a non-integer count {turns:.3}: f may be discontinuous on the contour (a branch cut crosses the contour); move or shrink the contour"
         ));
     }
     Ok(rounded as i64)
@@ -74,15 +74,26 @@ fn piece_phase_change(
     budget: &mut Budget,
 ) -> Result<f64, String> {
     let n0 = 64;
+    let mut values = Vec::with_capacity(n0 + 1);
+    for k in 0..=n0 {
+        values.push(value_at(f, piece, k as f64 / n0 as f64, budget)?);
+    }
+    // Typical size of f on the piece: a jump between values of this size is a
+    // cut, not a zero or pole (near which |f| is tiny or huge).
+    let mut sizes: Vec<f64> = values.iter().map(|v| v.norm()).collect();
+    sizes.sort_by(|x, y| x.partial_cmp(y).unwrap_or(std::cmp::Ordering::Equal));
+    let typical = sizes[sizes.len() / 2];
     let mut total = 0.0;
-    let mut t0 = 0.0;
-    let mut v0 = value_at(f, piece, 0.0, budget)?;
-    for k in 1..=n0 {
-        let t1 = k as f64 / n0 as f64;
-        let v1 = value_at(f, piece, t1, budget)?;
-        total += interval_phase(f, piece, (t0, v0), (t1, v1), budget)?;
-        t0 = t1;
-        v0 = v1;
+    for k in 0..n0 {
+        let (t0, t1) = (k as f64 / n0 as f64, (k + 1) as f64 / n0 as f64);
+        total += interval_phase(
+            f,
+            piece,
+            (t0, values[k]),
+            (t1, values[k + 1]),
+            typical,
+            budget,
+        )?;
     }
     Ok(total)
 }
@@ -93,6 +104,7 @@ fn interval_phase(
     piece: &Piece,
     a: (f64, C),
     b: (f64, C),
+    typical: f64,
     budget: &mut Budget,
 ) -> Result<f64, String> {
     let mut total = 0.0;
@@ -115,6 +127,11 @@ fn interval_phase(
         if fine {
             total += d1 + d2;
         } else if tb - ta < MIN_STEP {
+            let moderate = |v: C| (1e-6 * typical..=1e6 * typical).contains(&v.norm());
+            let jump = (va - vb).norm() > 1e-3 * va.norm().max(vb.norm());
+            if moderate(va) && moderate(vb) && jump {
+                return Err(jump_message(piece.point(tm)));
+            }
             return Err(on_contour_message(piece.point(tm)));
         } else {
             stack.push(((tm, vm), (tb, vb)));
@@ -122,6 +139,20 @@ fn interval_phase(
         }
     }
     Ok(total)
+}
+
+/// The message for a discontinuity of f on the contour (the marker phrase
+/// "branch cut crosses the contour" lets callers recognise it).
+pub(crate) fn jump_message(z: C) -> String {
+    format!(
+        "f jumps near {} on the contour: a branch cut crosses the contour (principal branch of log, sqrt or a non-integer power), so the argument principle cannot count zeros and poles inside it",
+        show(z)
+    )
+}
+
+/// True when `count_by_argument_principle` failed because f is discontinuous on the contour.
+pub fn is_cut_error(message: &str) -> bool {
+    message.contains("branch cut crosses the contour") || message.contains("non-integer count")
 }
 
 #[cfg(test)]
@@ -137,6 +168,27 @@ mod tests {
             count_by_argument_principle(&f, &Contour::circle(C::new(0.0, 0.0), 1.0), &mut b),
             Ok(1)
         );
+    }
+
+    #[test]
+    fn a_cut_crossing_the_contour_is_named_as_such() {
+        // Principal sqrt jumps across the negative real axis (common practice).
+        let mut b = Budget::new(1_000_000);
+        let e = count_by_argument_principle(
+            &|z: C| z.sqrt(),
+            &Contour::circle(C::new(0.0, 0.0), 2.0),
+            &mut b,
+        )
+        .unwrap_err();
+        assert!(is_cut_error(&e), "{e}");
+        // A pole on the contour is not called a cut.
+        let e = count_by_argument_principle(
+            &|z: C| 1.0 / (z - 2.0),
+            &Contour::circle(C::new(0.0, 0.0), 2.0),
+            &mut b,
+        )
+        .unwrap_err();
+        assert!(!is_cut_error(&e) && e.contains("move the contour"), "{e}");
     }
 
     #[test]

@@ -116,9 +116,16 @@ fn analyse(
         .any(|b| (b - a).norm() <= 1e-9 * scale);
 
     // 1. Single-valuedness: jumps along circles of radius cap, cap/4, cap/16.
+    // Skipped when the expression has no multivalued function (then f is
+    // single-valued and the scan, about half the cost, can find nothing).
     let radii = [cap, cap / 4.0, cap / 16.0];
     let mut counts: Vec<Option<usize>> = Vec::new();
-    for &r in &radii {
+    let scan_radii: &[f64] = if hints.uses_branch_functions || hinted_branch {
+        &radii
+    } else {
+        &[]
+    };
+    for &r in scan_radii {
         let scan = scan_for_jumps(f, a, r, 256, budget)?;
         counts.push(if scan.finite {
             Some(scan.jumps.len())
@@ -132,7 +139,7 @@ fn analyse(
         }
         if last > 0 {
             return Err(format!(
-                "f's principal-branch cut passes through {}: f jumps across it there, so the point cannot be classified as a single-valued function; move the point off the cut or rewrite f with another branch",
+                "f jumps across a branch cut through {} (the principal branch of log, sqrt or a non-integer power): f is not analytic in any punctured disk around it, so a residue is not defined there, and it is not a branch point either; ask at a point off the cut, or rewrite f so that its cut lies elsewhere (e.g. log(-z) instead of log(z) moves log's cut to the positive real axis)",
                 if at_infinity { "infinity".to_string() } else { show(a) }
             ));
         }
@@ -152,6 +159,10 @@ fn analyse(
     let mut inner_overflow = false;
     let mut chosen: Option<Vec<CircleLaurent>> = None;
     let mut probed = false;
+    // The rings before the first shrink towards a suspected nearby
+    // singularity: used if the smaller circles turn out unusable (the
+    // suspicion was wrong, e.g. a fast-decaying essential principal part).
+    let mut before_probe: Option<(Vec<CircleLaurent>, bool)> = None;
     for _attempt in 0..12 {
         let mut rings = Vec::new();
         let mut finite = true;
@@ -164,15 +175,17 @@ fn analyse(
                 }
             }
         }
-        if !finite && rings.len() < 2 {
-            r *= 0.3;
-            continue;
-        }
-        let consistent = rings
-            .windows(2)
-            .all(|w| agree(&w[0], &w[1]) && !poles_inside_annulus(&w[0], &w[1]));
+        let consistent = rings.len() >= 2
+            && rings
+                .windows(2)
+                .all(|w| agree(&w[0], &w[1]) && !poles_inside_annulus(&w[0], &w[1]));
         if !consistent {
-            r *= 0.25;
+            if let Some((old, overflow)) = before_probe.take() {
+                inner_overflow = overflow;
+                chosen = Some(old);
+                break;
+            }
+            r *= if rings.len() < 2 { 0.3 } else { 0.25 };
             continue;
         }
         // A singularity inside every circle but not at a (e.g. a pole at
@@ -186,7 +199,10 @@ fn analyse(
                 offset_pole(&rings[0])
             }
         }) {
-            if delta > 1e-13 * scale && delta < r {
+            if delta > 1e-13 * scale && delta < r && !(probed && before_probe.is_none()) {
+                if !probed {
+                    before_probe = Some((rings.clone(), !finite));
+                }
                 probed = true;
                 r = 0.25 * delta;
                 continue;
@@ -320,24 +336,38 @@ fn finite_or_big(x: f64) -> f64 {
 }
 
 /// Distance of a singularity other than the centre, inside the circle, read
-/// from a geometrically decaying principal part (root test); `None` when the
-/// principal part terminates or decays faster than geometrically.
+/// from a geometrically decaying principal part: log|ĉ₋ₖ| is then linear in k
+/// with slope log(δ/r) (root test). An essential singularity's principal part
+/// decays faster than geometrically (log|ĉ₋ₖ| concave, like −k log k), so the
+/// slope over the upper half of the terms must match the slope over the
+/// lower half. `None` when the principal part terminates or is not geometric.
 fn nearby_singularity(l: &CircleLaurent) -> Option<f64> {
     let top = apparent_order(l);
     if top < 8 {
         return None;
     }
-    let root = |k: usize| l.normalized(-(k as i64)).norm().powf(1.0 / k as f64);
-    // Largest magnitude among a few k near top and near top/2 (skips zero
+    // (k, log|ĉ₋ₖ|) for the larger of two neighbours (skips the zero
     // coefficients of odd or even functions).
-    let near = |k: usize| {
-        (k.saturating_sub(2).max(1)..=k)
-            .map(root)
-            .fold(0.0, f64::max)
+    let point = |k: usize| {
+        let k = k.max(2);
+        let (a, b) = (
+            l.normalized(-(k as i64)).norm(),
+            l.normalized(-(k as i64 - 1)).norm(),
+        );
+        if a >= b {
+            (k as f64, a.ln())
+        } else {
+            ((k - 1) as f64, b.ln())
+        }
     };
-    let (hi, lo) = (near(top), near(top / 2));
-    if lo > 0.0 && hi / lo > 0.75 {
-        Some(hi * l.radius)
+    let (p1, p2, p3) = (point(top / 4), point(top / 2), point(top));
+    let slope = |p: (f64, f64), q: (f64, f64)| (q.1 - p.1) / (q.0 - p.0);
+    let (s_lo, s_hi) = (slope(p1, p2), slope(p2, p3));
+    if !(s_lo.is_finite() && s_hi.is_finite()) || s_hi >= 0.0 {
+        return None;
+    }
+    if (s_lo - s_hi).abs() <= 0.15 + 0.05 * s_hi.abs() {
+        Some(s_hi.exp() * l.radius)
     } else {
         None
     }

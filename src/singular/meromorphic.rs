@@ -13,10 +13,10 @@
 //! classify.rs (trapezoidal rule on circles).
 
 use super::aaa::aaa;
-use super::argument_principle::count_by_argument_principle;
+use super::argument_principle::{count_by_argument_principle, is_cut_error};
 use super::classify::classify_point_near;
 use super::newton_refine::{newton_refine, Refined, Target};
-use super::residue_trapezoid::recenter_pole;
+use super::residue_trapezoid::{laurent_on_circle, recenter_pole};
 use super::{eval, is_finite, show, Found, Hints, Kind, RegionResult};
 use crate::budget::Budget;
 use crate::contour::{Contour, Piece};
@@ -48,6 +48,11 @@ struct Ctx<'a> {
     /// AAA poles outside the searched pieces (keeps residue circles away from them).
     outside_poles: Vec<C>,
     merge_tol: f64,
+    /// AAA poles inside the region that no winding check confirmed (a
+    /// cluster of them marks a possible essential singularity).
+    dropped: Vec<C>,
+    /// Centres of the smallest cells whose count a branch cut prevented.
+    uncounted: Vec<C>,
 }
 
 /// Zeros, poles, essential singularities and branch points of f inside `region`.
@@ -59,11 +64,20 @@ pub fn find_singularities(
     budget: &mut Budget,
 ) -> Result<RegionResult, String> {
     region.validate()?;
-    let count = count_by_argument_principle(f, region, budget)?;
+    let mut warnings = Vec::new();
+    let count = match count_by_argument_principle(f, region, budget) {
+        Ok(n) => Some(n),
+        Err(e) if is_cut_error(&e) => {
+            warnings.push(format!(
+                "{e}; zeros and poles were located piece by piece, each piece checked where no cut crosses it"
+            ));
+            None
+        }
+        Err(e) => return Err(e),
+    };
     let size = region.size();
     let mut essential = Vec::new();
     let mut branch_points = Vec::new();
-    let mut warnings = Vec::new();
 
     // Points symbolic analysis flagged: classify those inside the region.
     let flagged: Vec<C> = hints
@@ -103,12 +117,41 @@ pub fn find_singularities(
         warnings: Vec::new(),
         outside_poles: Vec::new(),
         merge_tol: 1e-7 * size,
+        dropped: Vec::new(),
+        uncounted: Vec::new(),
     };
     let pts = search(&mut ctx, region, count, 0, budget)?;
     warnings.append(&mut ctx.warnings);
+    if !ctx.uncounted.is_empty() {
+        warnings.push(format!(
+            "a branch cut crosses {} small part(s) of the region (near {}): zeros and poles there were located without the argument-principle check, and points on the cut itself are never reported",
+            ctx.uncounted.len(),
+            ctx.uncounted.iter().take(4).map(|z| show(*z)).collect::<Vec<_>>().join(", ")
+        ));
+    }
+    // Essential singularities no hint named: AAA poles that cluster without
+    // converging to a pole.
+    let known: Vec<C> = pts.iter().map(|p| p.at).collect();
+    for e in unhinted_essential(&mut ctx, region, &known, hints, budget)? {
+        if !essential
+            .iter()
+            .any(|q: &C| (q - e).norm() <= ctx.merge_tol)
+        {
+            essential.push(e);
+        }
+    }
 
     // Residues of the poles, keeping each circle away from every other singularity.
     let pole_sites: Vec<C> = pts.iter().filter(|p| p.order < 0).map(|p| p.at).collect();
+    // AAA poles outside a cell that are mere images of a point found in a
+    // neighbouring cell (a multiple pole is fitted by a few nearby poles)
+    // must not shrink the residue circles.
+    let images_removed: Vec<C> = ctx
+        .outside_poles
+        .iter()
+        .cloned()
+        .filter(|q| !pts.iter().any(|p| (p.at - q).norm() < 1e-3 * size))
+        .collect();
     let mut poles = Vec::new();
     let mut zeros = Vec::new();
     let classify_hints = Hints {
@@ -123,17 +166,36 @@ pub fn find_singularities(
                 order: p.order as u32,
                 residue: None,
                 error_estimate: p.loc_err,
+                principal_part: Vec::new(),
             });
             continue;
         }
         let others: Vec<C> = pole_sites
             .iter()
-            .chain(&ctx.outside_poles)
+            .chain(&images_removed)
             .chain(&ctx.excluded)
             .cloned()
             .filter(|q| (q - p.at).norm() > ctx.merge_tol)
             .collect();
-        let r = classify_point_near(f, p.at, &classify_hints, &others, budget)?;
+        let r = match classify_point_near(f, p.at, &classify_hints, &others, budget) {
+            Ok(r) => r,
+            Err(e) if e.contains("budget") => return Err(e),
+            Err(e) => {
+                warnings.push(format!(
+                    "a pole of order {} at {} could not be examined further: {e}",
+                    -p.order,
+                    show(p.at)
+                ));
+                poles.push(Found {
+                    at: p.at,
+                    order: (-p.order) as u32,
+                    residue: None,
+                    error_estimate: 0.0,
+                    principal_part: Vec::new(),
+                });
+                continue;
+            }
+        };
         for w in r.warnings {
             warnings.push(w);
         }
@@ -152,6 +214,7 @@ pub fn find_singularities(
                     order: (-p.order) as u32,
                     residue: r.residue,
                     error_estimate: r.error_estimate,
+                    principal_part: r.principal_part,
                 });
             }
             Kind::Essential => essential.push(p.at),
@@ -167,7 +230,8 @@ pub fn find_singularities(
         - poles.iter().map(|p| p.order as i64).sum::<i64>();
     if !essential.is_empty() || !branch_points.is_empty() {
         warnings.push("an essential singularity or branch point lies inside the region, so the argument-principle count does not check the zeros and poles found".to_string());
-    } else if net != count {
+    } else if count.is_some_and(|count| net != count) {
+        let count = count.unwrap_or(0);
         warnings.push(format!(
             "the zeros and poles found give N − P = {net}, but the argument principle gives {count}; some may be missing (too many or too close together); try a smaller region"
         ));
@@ -188,7 +252,8 @@ pub fn find_singularities(
         zeros,
         essential,
         branch_points,
-        zeros_minus_poles: count,
+        zeros_minus_poles: count.unwrap_or(net),
+        boundary_count: count,
         warnings,
     })
 }
@@ -197,36 +262,59 @@ fn inside(c: &Contour, z: C) -> bool {
     matches!(c.winding_number(z), Some(w) if w != 0)
 }
 
-/// Locate the points inside `c` (whose N − P is `count`), subdividing when needed.
+/// Locate the points inside `c` (whose N − P is `count`, `None` when a cut
+/// crossing the boundary prevents counting), subdividing when needed.
 fn search(
     ctx: &mut Ctx,
     c: &Contour,
-    count: i64,
+    count: Option<i64>,
     depth: usize,
     budget: &mut Budget,
 ) -> Result<Vec<Pt>, String> {
-    let (pts, aaa_ok) = locate(ctx, c, budget)?;
+    // Uncountable cells: split first (AAA on data with a jump is costly and poor).
+    if count.is_none() && depth < MAX_DEPTH {
+        if let Some(all) = subdivide(ctx, c, depth, budget)? {
+            return Ok(all);
+        }
+    }
+    let (pts, aaa_ok) = locate(ctx, c, count.is_some(), budget)?;
     let net: i64 = pts.iter().map(|p| p.order).sum();
     let has_excluded = ctx
         .excluded
         .iter()
         .any(|e| inside(c, *e) || c.distance_to_boundary(*e) < ctx.excluded_radius);
-    if aaa_ok && (net == count || has_excluded) {
-        return Ok(pts);
+    if let Some(count) = count {
+        if aaa_ok && (net == count || has_excluded) {
+            return Ok(pts);
+        }
     }
-    if depth >= MAX_DEPTH {
-        if net != count && !has_excluded {
-            ctx.warnings.push(format!(
+    if depth >= MAX_DEPTH || count.is_none() {
+        match count {
+            Some(count) if net != count && !has_excluded => ctx.warnings.push(format!(
                 "could not reconcile the count in part of the region near {} (found N − P = {net}, expected {count}) at the deepest subdivision",
                 show(mid(c))
-            ));
+            )),
+            None => ctx.uncounted.push(mid(c)),
+            _ => {}
         }
         return Ok(pts);
     }
+    Ok(subdivide(ctx, c, depth, budget)?.unwrap_or(pts))
+}
+
+/// Search the four quadrants of c's bounding box (shifting the split point
+/// if a zero, pole or branch point lies on a quadrant's edge). `None` when no
+/// split could be counted.
+fn subdivide(
+    ctx: &mut Ctx,
+    c: &Contour,
+    depth: usize,
+    budget: &mut Budget,
+) -> Result<Option<Vec<Pt>>, String> {
     let (lo, hi) = c.bounding_box();
     let mut last_err = String::new();
     for attempt in 0..4 {
-        let shift = [0.0, 0.0123, -0.0311, 0.0457][attempt];
+        let shift = [0.0123, -0.0311, 0.0457, 0.0][attempt];
         let xm = lo.re + (hi.re - lo.re) * (0.5 + shift);
         let ym = lo.im + (hi.im - lo.im) * (0.5 - shift * 0.7);
         let quads = [
@@ -239,8 +327,9 @@ fn search(
         let mut ok = true;
         for q in &quads {
             match count_by_argument_principle(ctx.f, q, budget) {
-                Ok(n) => counts.push(n),
+                Ok(n) => counts.push(Some(n)),
                 Err(e) if e.contains("budget") => return Err(e),
+                Err(e) if is_cut_error(&e) => counts.push(None),
                 Err(e) => {
                     last_err = e;
                     ok = false;
@@ -264,13 +353,13 @@ fn search(
                 ));
             }
         }
-        return Ok(all);
+        return Ok(Some(all));
     }
     ctx.warnings.push(format!(
         "could not subdivide the region near {}: {last_err}",
         show(mid(c))
     ));
-    Ok(pts)
+    Ok(None)
 }
 
 fn mid(c: &Contour) -> C {
@@ -290,7 +379,12 @@ fn piece_length(p: &Piece) -> f64 {
 
 /// AAA on the boundary of `c`, then Newton and winding orders. Returns the
 /// points inside `c` and whether AAA resolved the boundary data.
-fn locate(ctx: &mut Ctx, c: &Contour, budget: &mut Budget) -> Result<(Vec<Pt>, bool), String> {
+fn locate(
+    ctx: &mut Ctx,
+    c: &Contour,
+    counted: bool,
+    budget: &mut Budget,
+) -> Result<(Vec<Pt>, bool), String> {
     let pieces = c.pieces();
     let lengths: Vec<f64> = pieces.iter().map(piece_length).collect();
     let total: f64 = lengths.iter().sum();
@@ -312,14 +406,21 @@ fn locate(ctx: &mut Ctx, c: &Contour, budget: &mut Budget) -> Result<(Vec<Pt>, b
             }
         }
     }
-    let r = aaa(&zs, &fs, 1e-12, MAX_TERMS);
+    // Data with a jump (a cut crosses c) cannot be fitted to 1e-12; a
+    // shorter fit still places the poles and zeros away from the cut.
+    let terms = if counted { MAX_TERMS } else { MAX_TERMS / 3 };
+    let r = aaa(&zs, &fs, 1e-12, terms);
     let size = c.size();
     let near = |z: C| inside(c, z) || c.distance_to_boundary(z) < 0.1 * size;
     let mut refined: Vec<(C, Target, f64)> = Vec::new();
     let poles = r.poles();
-    for &p in &poles {
-        if !inside(c, p) && c.distance_to_boundary(p) < 3.0 * size {
-            ctx.outside_poles.push(p);
+    // Only a converged fit's poles outside c are trusted as singularities of f
+    // (an unconverged fit, e.g. of data with a jump, scatters spurious ones).
+    if r.converged {
+        for &p in &poles {
+            if !inside(c, p) && c.distance_to_boundary(p) < 3.0 * size {
+                ctx.outside_poles.push(p);
+            }
         }
     }
     let candidates: Vec<(C, Target)> = poles
@@ -332,6 +433,9 @@ fn locate(ctx: &mut Ctx, c: &Contour, budget: &mut Budget) -> Result<(Vec<Pt>, b
         // Newton, or (if it fails, e.g. an inexact derivative) the raw AAA point,
         // which the winding check and the recentring below then confirm or drop.
         let nr = newton_refine(ctx.fd, z0, target, 0.5 * size, budget)?;
+        if nr.is_none() && target == Target::Pole && inside(c, z0) {
+            ctx.dropped.push(z0);
+        }
         let x = nr.unwrap_or(Refined {
             at: z0,
             last_step: f64::NAN,
@@ -382,7 +486,11 @@ fn locate(ctx: &mut Ctx, c: &Contour, budget: &mut Budget) -> Result<(Vec<Pt>, b
             }
         }
         match order {
-            Some(0) | None => {}
+            Some(0) | None => {
+                if target == Target::Pole {
+                    ctx.dropped.push(z);
+                }
+            }
             Some(n) => {
                 // Derivative-free polish (needed when Newton could not converge).
                 let z = if step.is_nan() || n.abs() > 1 || n < 0 || step > 1e-12 * size {
@@ -391,6 +499,20 @@ fn locate(ctx: &mut Ctx, c: &Contour, budget: &mut Budget) -> Result<(Vec<Pt>, b
                     z
                 };
                 let step = if step.is_nan() { 1e-3 * rho } else { step };
+                // A winding number |n| > 1 is one point of order |n| only if
+                // the lower Taylor coefficients of f (zero) or 1/f (pole)
+                // vanish there; otherwise |n| distinct points crowd inside
+                // the circle (e.g. zeros accumulating at an essential point).
+                if n.abs() > 1 && !single_point_of_order(ctx.f, z, n, rho, budget)? {
+                    ctx.warnings.push(format!(
+                        "f winds {n} times around a circle of radius {rho:.1e} about {}, but no single zero or pole of that order is there: zeros or poles crowd there, or an essential singularity sits there; nothing is listed for it (ask for the residue near there to classify it)",
+                        show(z)
+                    ));
+                    if n < 0 {
+                        ctx.dropped.push(z);
+                    }
+                    continue;
+                }
                 if (n > 0) != (target == Target::Zero) {
                     ctx.warnings.push(format!(
                         "Newton aimed at a {} but the winding number at {} is {n}",
@@ -413,4 +535,169 @@ fn locate(ctx: &mut Ctx, c: &Contour, budget: &mut Budget) -> Result<(Vec<Pt>, b
         }
     }
     Ok((pts, r.converged))
+}
+
+/// Most AAA-pole clusters examined as possible essential singularities.
+const MAX_CLUSTERS: usize = 4;
+
+/// Essential singularities that symbolic analysis did not flag. AAA fits an
+/// essential singularity with poles that crowd around it without any of them
+/// being a pole of f (Nakatsukasa, Sète & Trefethen 2018, §6). For each such
+/// cluster, the log-derivative f'/f (meromorphic at p when f = e^{h}, h with
+/// a pole at p) is recentred onto its pole by `recenter_pole`, and the point
+/// is kept only if `classify_point_near` calls it essential. Clusters that
+/// cannot be pinned down are reported as warnings, never as points.
+fn unhinted_essential(
+    ctx: &mut Ctx,
+    region: &Contour,
+    known: &[C],
+    hints: &Hints,
+    budget: &mut Budget,
+) -> Result<Vec<C>, String> {
+    let size = region.size();
+    let link = 0.05 * size;
+    let loose: Vec<C> = ctx
+        .dropped
+        .iter()
+        .cloned()
+        .filter(|z| inside(region, *z))
+        .filter(|z| !known.iter().any(|k| (k - z).norm() < 1e-3 * size))
+        .filter(|z| !ctx.excluded.iter().any(|e| (e - z).norm() < 2.0 * link))
+        .collect();
+    // Single-link clusters.
+    let mut label: Vec<usize> = (0..loose.len()).collect();
+    for i in 0..loose.len() {
+        for j in 0..i {
+            if (loose[i] - loose[j]).norm() < link {
+                let (a, b) = (label[i], label[j]);
+                for l in label.iter_mut() {
+                    if *l == a {
+                        *l = b;
+                    }
+                }
+            }
+        }
+    }
+    let mut clusters: Vec<Vec<C>> = Vec::new();
+    let mut seen = Vec::new();
+    for (i, &l) in label.iter().enumerate() {
+        if seen.contains(&l) {
+            continue;
+        }
+        seen.push(l);
+        let members: Vec<C> = (i..loose.len())
+            .filter(|&j| label[j] == l)
+            .map(|j| loose[j])
+            .collect();
+        if members.len() >= 3 {
+            clusters.push(members);
+        }
+    }
+    clusters.sort_by_key(|m| std::cmp::Reverse(m.len()));
+    let mut found = Vec::new();
+    let fd = ctx.fd;
+    let logd = |z: C| {
+        let (v, d) = fd(z);
+        d / v
+    };
+    for members in clusters.into_iter().take(MAX_CLUSTERS) {
+        let centre = members.iter().sum::<C>() / members.len() as f64;
+        let spread = members
+            .iter()
+            .map(|z| (z - centre).norm())
+            .fold(0.0, f64::max);
+        // A circle around the cluster that keeps clear of every known point.
+        let mut rad = (3.0 * spread).max(1e-3 * size);
+        for k in known.iter().chain(&ctx.outside_poles) {
+            let d = (k - centre).norm();
+            if d > spread {
+                rad = rad.min(0.8 * d);
+            }
+        }
+        let located = match pin_log_derivative_pole(&logd, centre, rad, budget)? {
+            Some(p) if inside(region, p) => {
+                let others: Vec<C> = known
+                    .iter()
+                    .cloned()
+                    .filter(|k| (k - p).norm() > 0.0)
+                    .collect();
+                match classify_point_near(ctx.f, p, hints, &others, budget) {
+                    Ok(r) if r.kind == Kind::Essential => Some(p),
+                    Err(e) if e.contains("budget") => return Err(e),
+                    _ => None,
+                }
+            }
+            _ => None,
+        };
+        match located {
+            Some(p) => found.push(p),
+            None => ctx.warnings.push(format!(
+                "{} poles of the rational fit crowd near {} without converging to a pole of f: f may have an essential singularity or an accumulation of singularities there, which was not located; ask for the residue at a point there to classify it",
+                members.len(),
+                show(centre)
+            )),
+        }
+    }
+    Ok(found)
+}
+
+/// The pole of g (a log-derivative) inside |z − centre| < rad, if g's
+/// principal part there is that of one pole of modest order: the order is
+/// the k with the largest normalised |c₋ₖ| (the geometric tail of an offset
+/// pole decays from there), and the location comes from `recenter_pole`.
+fn pin_log_derivative_pole(
+    g: &dyn Fn(C) -> C,
+    centre: C,
+    rad: f64,
+    budget: &mut Budget,
+) -> Result<Option<C>, String> {
+    let Some(l) = laurent_on_circle(g, centre, rad, 16, 4096, budget)? else {
+        return Ok(None);
+    };
+    let (mut m, mut best) = (0usize, 1e-9 * l.max_abs);
+    for k in 1..=16usize {
+        let v = l.normalized(-(k as i64)).norm();
+        if v > best {
+            best = v;
+            m = k;
+        }
+    }
+    if m == 0 || m > 8 {
+        return Ok(None);
+    }
+    let p = recenter_pole(g, centre, m as u32, rad, false, budget)?;
+    Ok(if is_finite(p) && (p - centre).norm() < rad {
+        Some(p)
+    } else {
+        None
+    })
+}
+
+/// Is there one zero (n > 0) or pole (n < 0) of order |n| at z, rather than
+/// |n| separate ones inside |w − z| < rho? For g = f (zero) or 1/f (pole),
+/// the Taylor coefficients c₀ … c_{|n|−1} of g about z must be negligible
+/// next to c_{|n|} (normalised to the circle).
+fn single_point_of_order(
+    f: &dyn Fn(C) -> C,
+    z: C,
+    n: i64,
+    rho: f64,
+    budget: &mut Budget,
+) -> Result<bool, String> {
+    let m = n.unsigned_abs() as usize;
+    let g = |w: C| {
+        if n > 0 {
+            f(w)
+        } else {
+            C::new(1.0, 0.0) / f(w)
+        }
+    };
+    let Some(l) = laurent_on_circle(&g, z, rho, m + 1, 4096, budget)? else {
+        return Ok(true);
+    };
+    let lead = l.normalized(m as i64).norm();
+    let lower = (0..m as i64)
+        .map(|k| l.normalized(k).norm())
+        .fold(0.0, f64::max);
+    Ok(lower <= 1e-6 * lead.max(f64::MIN_POSITIVE) || lower <= 1e-12 * l.max_abs)
 }

@@ -31,6 +31,9 @@ pub struct Hints {
     /// Points that may be branch points (e.g. zeros of the argument of sqrt/log/powers).
     pub branch_candidates: Vec<C>,
     /// True when the expression contains sqrt, log, non-integer powers, ...
+    /// When false, classification skips the scan for branch cuts (f is then
+    /// single-valued), which halves its cost; callers that pass closures with
+    /// cuts must set it.
     pub uses_branch_functions: bool,
 }
 
@@ -85,6 +88,8 @@ pub struct Found {
     pub residue: Option<C>,
     /// For poles: bound on the residue error; for zeros: estimate of the location error.
     pub error_estimate: f64,
+    /// Poles: Laurent coefficients c₋₁, c₋₂, …, c₋ₘ (m = order); zeros: empty.
+    pub principal_part: Vec<C>,
 }
 
 /// Everything found inside a region.
@@ -94,8 +99,12 @@ pub struct RegionResult {
     pub zeros: Vec<Found>,
     pub essential: Vec<C>,
     pub branch_points: Vec<C>,
-    /// N − P from the argument principle along the region's boundary.
+    /// N − P from the argument principle along the region's boundary (when a
+    /// branch cut crosses the boundary, so that it cannot be counted: the
+    /// net order of what was found, and `boundary_count` is `None`).
     pub zeros_minus_poles: i64,
+    /// N − P by the argument principle, `None` when a cut crossing the boundary prevented it.
+    pub boundary_count: Option<i64>,
     pub warnings: Vec<String>,
 }
 

@@ -172,7 +172,7 @@ fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Resu
                 order: p.order,
                 residue: p.residue.map(pair),
                 error_estimate: p.residue.map(|_| p.error_estimate),
-                principal_part: Vec::new(),
+                principal_part: p.principal_part.iter().map(|&c| pair(c)).collect(),
             })
             .collect(),
         zeros: found.zeros.iter().map(|z| ZeroOut { at: pair(z.at), order: z.order }).collect(),
@@ -181,7 +181,8 @@ fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Resu
         removable: Vec::new(),
         residue_at_infinity,
         residue_sum_defect: None,
-        zeros_minus_poles: Some(found.zeros_minus_poles),
+        // null where a branch cut crossing the boundary made the count impossible
+        zeros_minus_poles: found.boundary_count,
         method: "numerical".into(),
         warnings,
     })

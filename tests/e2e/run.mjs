@@ -1,17 +1,11 @@
-// End-to-end tests of dist/residuary.html in headless Chromium (the system's
-// /usr/bin/chromium via playwright-core; no browser is ever downloaded).
-// Run: node --test tests/e2e/   (or: node --test tests/e2e/run.mjs)
-//
-// Two groups:
-//  - "page with the real core": opens the built file from file:// as a person would.
-//    Tests named "[core]" need the numerical core (phase_plot, evaluate,
-//    singularities, laurent) and fail until it is integrated.
-//  - "page UI with a stand-in engine": the same page with tests/e2e/mock-engine.js
-//    installed first, so the UI (drawing, underline, markers, MathML, pan/zoom,
-//    persistence) is checked independently of the core.
+// End-to-end tests of the REAL page, dist/residuary.html, opened from file:// in headless
+// Chromium (the system's /usr/bin/chromium via playwright-core; no browser is downloaded).
+// Every number the page shows comes from the real core; the pointer readout is checked
+// against the same core's `evaluate`, loaded here in node from dist/pkg.
+// Run: make test-e2e   (or, after make build: node --test tests/e2e/run.mjs)
 import { test, describe, before, after } from 'node:test';
 import assert from 'node:assert/strict';
-import { mkdtempSync, mkdirSync, readFileSync, existsSync, rmSync } from 'node:fs';
+import { mkdtempSync, mkdirSync, readFileSync, writeFileSync, existsSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -25,27 +19,33 @@ const pagePath = join(root, 'dist', 'residuary.html');
 const pageUrl = pathToFileURL(pagePath).href;
 const artifacts = join(here, 'artifacts');
 mkdirSync(artifacts, { recursive: true });
-const mockSource = readFileSync(join(here, 'mock-engine.js'), 'utf8');
 const CHROMIUM = process.env.CHROMIUM || '/usr/bin/chromium';
 
 const LOWPASS = 'wn^2/(s^2 + 2*zeta*wn*s + wn^2)';
 
+/** The core itself, in node (wasm-bindgen --target web output, started synchronously). */
+async function nodeCore() {
+  const glue = await import(pathToFileURL(join(root, 'dist', 'pkg', 'residuary.js')).href);
+  glue.initSync({ module: readFileSync(join(root, 'dist', 'pkg', 'residuary_bg.wasm')) });
+  return glue;
+}
+
 /** A fresh browser profile that records errors and every request leaving the file. */
-async function openBrowser({ mock }) {
+async function openBrowser(viewport = { width: 1280, height: 1000 }) {
   const profile = mkdtempSync(join(tmpdir(), 'residuary-e2e-'));
   const context = await chromium.launchPersistentContext(profile, {
     executablePath: CHROMIUM,
     headless: true,
-    viewport: { width: 1360, height: 900 },
+    viewport,
     args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
-      '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+      '--disable-background-networking', '--disable-component-update', '--disable-sync',
+      '--allow-file-access-from-files'],
   });
-  const log = { errors: [], requests: [] };
+  const log = { errors: [], requests: [], navigations: [] };
   context.on('request', (r) => {
     const u = r.url();
     if (!u.startsWith('file:') && !u.startsWith('data:') && !u.startsWith('blob:')) log.requests.push(u);
   });
-  if (mock) await context.addInitScript({ content: mockSource });
   const page = context.pages()[0] || (await context.newPage());
   page.on('console', (m) => { if (m.type() === 'error') log.errors.push(m.text()); });
   page.on('pageerror', (e) => log.errors.push(String(e)));
@@ -56,10 +56,11 @@ async function load(page, hash = '') {
   await page.goto(pageUrl + hash);
   await page.waitForSelector('body[data-ready=true]', { timeout: 20000 });
 }
+const withState = (s) => '#s=' + encodeURIComponent(JSON.stringify(s));
 
-/** A hash and colour count of the plot canvas. */
-function canvasInfo(page) {
-  return page.evaluate(() => {
+/** A hash and colour count of the plot canvas (of `frame`, a page or an iframe). */
+function canvasInfo(frame) {
+  return frame.evaluate(() => {
     const c = document.getElementById('plot');
     const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
     let h = 2166136261 >>> 0;
@@ -72,209 +73,302 @@ function canvasInfo(page) {
   });
 }
 
-async function plotDone(page, timeout = 30000) {
-  await page.waitForFunction(() => document.getElementById('plot').dataset.status === 'done', null, { timeout });
+async function plotDone(frame, timeout = 30000) {
+  await frame.waitForFunction(() => document.getElementById('plot').dataset.status === 'done', null, { timeout });
 }
 
-async function typeFunction(page, text) {
-  await page.fill('#expr', text);
+/** Wait until the singularity search for the current function has answered. */
+async function searchDone(page, timeout = 30000) {
+  await page.waitForFunction(() => !document.getElementById('sing-table').classList.contains('stale') &&
+    !document.getElementById('find').disabled && /Found|nothing/.test(document.getElementById('find-status').textContent), null, { timeout });
 }
 
-async function setParams(page, params) {
-  for (const [name, value] of Object.entries(params)) {
-    await page.click('#add-param');
-    const names = page.locator('.p-name');
-    const values = page.locator('.p-value');
-    const n = await names.count();
-    await names.nth(n - 1).fill(name);
-    await values.nth(n - 1).fill(String(value));
-  }
+const view = (page) => page.evaluate(() => JSON.parse(decodeURIComponent(location.hash.slice(3))).view);
+
+async function pickDemo(page, title) {
+  const options = await page.$$eval('#demo-select option', (os) => os.map((o) => o.textContent));
+  const index = options.findIndex((t) => t.startsWith(title));
+  assert.ok(index > 0, `no example called "${title}"`);
+  await page.selectOption('#demo-select', { index });
 }
 
-describe('page with the real core', () => {
-  let b;
-  before(async () => { assert.ok(existsSync(pagePath), `build the page first (make build): ${pagePath}`); b = await openBrowser({ mock: false }); });
+describe('the page with the real core', () => {
+  let b, core;
+  before(async () => {
+    assert.ok(existsSync(pagePath), `build the page first (make build): ${pagePath}`);
+    core = await nodeCore();
+    b = await openBrowser();
+  });
   after(async () => { if (b) await b.close(); });
 
-  test('loads from file:// with no errors and no network requests', async () => {
+  test('loads from file:// with no errors, no network requests, and draws a phase plot', async () => {
     await load(b.page);
-    await b.page.waitForTimeout(500);
+    await plotDone(b.page);
+    const info = await canvasInfo(b.page);
+    assert.ok(info.colours > 500, `the plot has only ${info.colours} colours`);
+    assert.match(await b.page.textContent('#version'), /Core version \d+\.\d+\.\d+/);
     assert.deepEqual(b.log.errors, []);
     assert.deepEqual(b.log.requests, []);
-    assert.match(await b.page.textContent('#version'), /Core version \d+\.\d+\.\d+/);
+  });
+
+  test('typing a new function redraws the phase plot', async () => {
+    await load(b.page, withState({ f: '1/(s^2 + s + 4)', var: 's', params: [{ name: 'wn', value: '2' }, { name: 'zeta', value: '0.3' }], view: [-3, 3, -3, 3] }));
+    await plotDone(b.page);
+    const first = await canvasInfo(b.page);
+    await b.page.fill('#expr', LOWPASS);
+    await b.page.waitForFunction(() => document.getElementById('plot').dataset.status !== 'done', null, { timeout: 5000 }).catch(() => {});
+    await plotDone(b.page);
+    const second = await canvasInfo(b.page);
+    assert.notEqual(second.hash, first.hash, 'the canvas did not change');
+    assert.ok(second.colours > 500, `the plot has only ${second.colours} colours`);
+  });
+
+  test('a malformed function is underlined at the exact characters, with a message', async () => {
+    await b.page.fill('#expr', '(z+1');
+    await b.page.waitForSelector('#expr-mirror mark.err', { timeout: 5000 });
+    // the core reports the unclosed '(' at characters [0, 1)
+    assert.equal(await b.page.textContent('#expr-mirror mark.err'), '(');
+    assert.equal(await b.page.evaluate(() => document.querySelector('#expr-mirror mark.err').previousSibling?.textContent ?? ''), '');
+    assert.match(await b.page.textContent('#expr-message'), /'\('|\)/);
+    assert.equal(await b.page.getAttribute('#expr', 'aria-invalid'), 'true');
+    await b.page.fill('#var-name', 'z');
+    await b.page.fill('#expr', '(z - 1)/(z^2 + q)');
+    await b.page.waitForFunction(() => document.querySelector('#expr-mirror mark.err')?.textContent === 'q', null, { timeout: 5000 });
+    assert.match(await b.page.textContent('#expr-message'), /unknown name 'q'/i);
+    await b.page.screenshot({ path: join(artifacts, 'error-underline.png') });
+  });
+
+  test('low-pass example: poles at −ζωn ± iωn√(1−ζ²), markers, table, principal part, stability reading', async () => {
+    await pickDemo(b.page, 'Second-order low-pass');
+    await searchDone(b.page);
+    const rows = await b.page.$$eval('#sing-body tr[data-index]', (trs) => trs.map((t) => ({ kind: t.dataset.kind, at: JSON.parse(t.dataset.at), residue: t.dataset.residue && JSON.parse(t.dataset.residue) })));
+    assert.deepEqual(rows.map((r) => r.kind), ['pole', 'pole']);
+    assert.equal(await b.page.getAttribute('#plot', 'data-markers'), '2');
+    // common practice (second-order section): poles −ζωn ± iωn√(1−ζ²), here ωn = 2, ζ = 0.3
+    const wn = 2, zeta = 0.3;
+    const re = -zeta * wn, im = wn * Math.sqrt(1 - zeta * zeta);
+    const ims = rows.map((r) => r.at[1]).sort((a, b) => a - b);
+    for (const r of rows) assert.ok(Math.abs(r.at[0] - re) < 1e-9, `Re ${r.at[0]} vs ${re}`);
+    assert.ok(Math.abs(ims[0] + im) < 1e-9 && Math.abs(ims[1] - im) < 1e-9, `Im ${ims} vs ±${im}`);
+    // residue at p1: ωn²/(p1 − p2) = ωn²/(2i·ωn√(1−ζ²)) (common practice: simple pole, N/D')
+    const upper = rows.find((r) => r.at[1] > 0);
+    assert.ok(Math.abs(upper.residue[0]) < 1e-12 && Math.abs(upper.residue[1] + wn * wn / (2 * im)) < 1e-9);
+    // the table shows 10 significant digits and fits its column
+    assert.match(await b.page.textContent('#sing-body'), /1\.907878403i/);
+    assert.equal(await b.page.evaluate(() => { const w = document.querySelector('.table-wrap'); return w.scrollWidth <= w.clientWidth + 1; }), true, 'the table overflows');
+    // transfer-function reading with the caution, for the variable s
+    assert.equal(await b.page.isVisible('#stability'), true);
+    assert.match(await b.page.textContent('#stability-title'), /Read as a continuous-time transfer function H\(s\)/);
+    assert.match(await b.page.textContent('#stability'), /0 have Re s > 0/);
+    assert.match(await b.page.textContent('#stability'), /outside it would be missed/);
+    assert.equal(await b.page.isVisible('#caution'), true);
+    assert.match(await b.page.textContent('#caution'), /licensed engineering practice/);
+    assert.match(await b.page.textContent('#sum-check'), /Σ residues in the region \+ Res∞/);
+    // choose the upper pole: MathML principal part and Laurent coefficients with c₋₁ = residue
+    const idx = rows.indexOf(upper);
+    await b.page.click(`#sing-body tr[data-index="${idx}"]`);
+    await b.page.waitForSelector('#detail-math math mfrac', { timeout: 30000 });
+    await b.page.waitForSelector('#laurent-body tr[data-n="-1"]', { timeout: 30000 });
+    const c1 = JSON.parse(await b.page.getAttribute('#laurent-body tr[data-n="-1"]', 'data-c'));
+    assert.ok(Math.hypot(c1[0] - upper.residue[0], c1[1] - upper.residue[1]) < 1e-9, `c₋₁ ${c1} vs residue ${upper.residue}`);
+    assert.match(await b.page.textContent('#detail-note'), /Error estimate/);
+    const box = await b.page.evaluate(() => { const r = document.querySelector('#detail-math math').getBoundingClientRect(); return [r.width, r.height]; });
+    assert.ok(box[0] > 40 && box[1] > 20, `the MathML is not laid out: ${box}`);
+    await b.page.screenshot({ path: join(artifacts, 'lowpass.png'), fullPage: true });
+  });
+
+  test('double pole of a rational function and an essential singularity show their principal parts', async () => {
+    await load(b.page, withState({ f: '(s+3)/((s+1)^2*(s+2))', var: 's', view: [-2.6, 0.4, -1.5, 1.5] }));
+    await searchDone(b.page);
+    const double = await b.page.$eval('#sing-body', (tb) => [...tb.querySelectorAll('tr[data-index]')].findIndex((t) => t.children[2].textContent === '2'));
+    assert.ok(double >= 0, 'no pole of order 2 in the table');
+    await b.page.click(`#sing-body tr[data-index="${double}"]`);
+    await b.page.waitForSelector('#detail-math math msup', { timeout: 30000 });
+    // 1/(s + 2) − 1/(s + 1) + 2/(s + 1)² (partial fractions by hand): two terms about −1
+    assert.equal(await b.page.locator('#detail-math math mfrac').count(), 2);
+    await b.page.waitForSelector('#laurent-body tr[data-n="-2"]', { timeout: 30000 });
+    const c2 = JSON.parse(await b.page.getAttribute('#laurent-body tr[data-n="-2"]', 'data-c'));
+    assert.ok(Math.abs(c2[0] - 2) < 1e-9 && Math.abs(c2[1]) < 1e-9, `c₋₂ = ${c2}`);
+
+    await load(b.page, withState({ f: 'exp(1/(z-1))', var: 'z', view: [-1, 3, -2, 2] }));
+    await searchDone(b.page);
+    assert.equal(await b.page.getAttribute('#sing-body tr[data-index="0"]', 'data-kind'), 'essential');
+    await b.page.click('#sing-body tr[data-index="0"]');
+    await b.page.waitForSelector('#laurent-body tr[data-n="-3"]', { timeout: 30000 });
+    // exp(1/u) = Σ u^(−k)/k! (DLMF 4.2.19): c₋₃ = 1/6
+    const c3 = JSON.parse(await b.page.getAttribute('#laurent-body tr[data-n="-3"]', 'data-c'));
+    assert.ok(Math.abs(c3[0] - 1 / 6) < 1e-9 && Math.abs(c3[1]) < 1e-9, `c₋₃ = ${c3}`);
+    assert.match(await b.page.textContent('#detail-math math'), /⋯/);
+    assert.match(await b.page.textContent('#detail-math'), /infinitely many terms/);
+    assert.equal(await b.page.isVisible('#warnings li'), true, 'the core warns that the count is unchecked near an essential point');
+    await b.page.screenshot({ path: join(artifacts, 'essential.png'), fullPage: true });
+  });
+
+  test('pans by drag and keys, zooms by button, wheel and keys, resets', async () => {
+    await load(b.page, withState({ f: '(z - 1)/(z^2 + 4)', var: 'z', view: [-3, 3, -3, 3] }));
+    await plotDone(b.page);
+    await b.page.click('#zoom-reset');
+    await b.page.waitForTimeout(300);
+    const v0 = await view(b.page);
+    const box = await b.page.locator('#plot').boundingBox();
+    const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
+    await b.page.mouse.move(cx, cy);
+    await b.page.mouse.down();
+    await b.page.mouse.move(cx + 80, cy + 40, { steps: 5 });
+    await b.page.mouse.up();
+    await b.page.waitForTimeout(300);
+    const v1 = await view(b.page);
+    assert.ok(v1[0] < v0[0] && v1[2] > v0[2], 'dragging right/down moves the view left/up');
+    await b.page.click('#zoom-in');
+    await b.page.waitForTimeout(300);
+    const v2 = await view(b.page);
+    assert.ok(v2[1] - v2[0] < (v1[1] - v1[0]) * 0.8, 'zoom in shrinks the view');
+    await b.page.mouse.move(cx, cy);
+    await b.page.mouse.wheel(0, 300);
+    await b.page.waitForTimeout(300);
+    const v3 = await view(b.page);
+    assert.ok(v3[1] - v3[0] > v2[1] - v2[0], 'wheel down zooms out');
+    await b.page.focus('#plot');
+    await b.page.keyboard.press('ArrowRight');
+    await b.page.keyboard.press('+');
+    await b.page.waitForTimeout(300);
+    const v4 = await view(b.page);
+    assert.ok(v4[1] - v4[0] < v3[1] - v3[0] && (v4[0] + v4[1]) / 2 > (v3[0] + v3[1]) / 2, 'keys pan right and zoom in');
+    await b.page.click('#zoom-reset');
+    await b.page.waitForTimeout(300);
+    const v5 = await view(b.page);
+    assert.ok(Math.abs(v5[0] - v0[0]) < 1e-9 && Math.abs(v5[3] - v0[3]) < 1e-9, 'reset restores the view');
+  });
+
+  test('the pointer readout shows the value the core computes at that point', async () => {
+    await b.page.fill('#expr', 'exp(z)/(z^2 + 4)');
+    await plotDone(b.page);
+    const box = await b.page.locator('#plot').boundingBox();
+    await b.page.mouse.move(box.x + box.width * 0.63, box.y + box.height * 0.31);
+    await b.page.waitForFunction(() => /\|f\| =/.test(document.getElementById('readout').textContent));
+    const z = JSON.parse(await b.page.getAttribute('#readout', 'data-z'));
+    const shown = JSON.parse(await b.page.getAttribute('#readout', 'data-f'));
+    const out = core.run({ task: 'evaluate', f: 'exp(z)/(z^2 + 4)', var: 'z', params: {}, at: [z] });
+    const want = out.values[0];
+    assert.ok(Math.hypot(shown[0] - want[0], shown[1] - want[1]) <= 1e-14 * Math.hypot(want[0], want[1]), `${shown} vs ${want}`);
+    assert.match(await b.page.textContent('#readout'), /z = .*f = .*\|f\| = .*arg f = /);
+  });
+
+  test('view at infinity relabels the axes, redraws, and comes back', async () => {
+    const before = await canvasInfo(b.page);
+    await b.page.check('#opt-infinity');
+    await plotDone(b.page);
+    const atInfinity = await canvasInfo(b.page);
+    assert.notEqual(atInfinity.hash, before.hash);
+    await b.page.waitForTimeout(400); // the address is written after a short pause
+    const w = await view(b.page);
+    assert.ok(w[0] <= -1 + 1e-9 && w[1] >= 1 - 1e-9 && w[1] - w[0] < 3, `view at infinity ${w}`);
+    assert.match(await b.page.textContent('#plot-description'), /f\(1\/w\)/);
+    await b.page.uncheck('#opt-infinity');
+    await plotDone(b.page);
+    await b.page.waitForTimeout(400);
+    assert.ok((await view(b.page))[1] - (await view(b.page))[0] > 2.5, 'the z view comes back');
+  });
+
+  test('a link with a state in its address opens that state', async () => {
+    const state = { f: '1/(z^2 + 0.5*z + 2)', var: 'z', params: [{ name: 'a', value: '0.3+0.1i' }], view: [-2, 2, -2, 2], phase: true };
+    await load(b.page, withState(state));
+    assert.equal(await b.page.inputValue('#expr'), state.f);
+    assert.equal(await b.page.inputValue('.p-value'), '0.3+0.1i');
+    assert.equal(await b.page.isChecked('#opt-phase'), true);
+    await plotDone(b.page);
+    const v = await view(b.page);
+    assert.ok(v[0] <= -2 + 1e-9 && v[1] >= 2 - 1e-9 && v[2] <= -2 + 1e-9 && v[3] >= 2 - 1e-9, `view ${v}`);
   });
 
   test('keeps what was typed across a reload (storage and address)', async () => {
-    await typeFunction(b.page, 'exp(-tau*s)/(s^2 + 1)');
+    await b.page.fill('#expr', 'exp(-tau*s)/(s^2 + 1)');
     await b.page.fill('#var-name', 's');
-    await b.page.waitForTimeout(600);
+    await b.page.waitForTimeout(500);
     assert.match(b.page.url(), /#s=/);
-    await b.page.goto(pageUrl); // no hash: must come back from localStorage
-    await b.page.waitForSelector('body[data-ready=true]');
+    await load(b.page); // no hash: must come back from localStorage
     assert.equal(await b.page.inputValue('#expr'), 'exp(-tau*s)/(s^2 + 1)');
     assert.equal(await b.page.inputValue('#var-name'), 's');
   });
 
-  test('[core] typing the low-pass filter redraws the phase plot', async () => {
-    await load(b.page, '#s=' + encodeURIComponent(JSON.stringify({ f: '1/(s^2 + s + 4)', var: 's', params: [{ name: 'wn', value: '2' }, { name: 'zeta', value: '0.3' }], view: [-3, 3, -3, 3] })));
+  test('every example loads, draws and finds its singularities', async () => {
+    await load(b.page);
+    const titles = (await b.page.$$eval('#demo-select option', (os) => os.map((o) => o.textContent))).slice(1);
+    assert.ok(titles.length >= 7, `only ${titles.length} examples`);
+    for (const title of titles) {
+      await pickDemo(b.page, title);
+      await plotDone(b.page);
+      await searchDone(b.page);
+      const info = await canvasInfo(b.page);
+      assert.ok(info.colours > 300, `${title}: only ${info.colours} colours`);
+      assert.equal(await b.page.getAttribute('#expr', 'aria-invalid'), null, `${title}: the function is not understood`);
+      const kinds = await b.page.$$eval('#sing-body tr[data-index]', (trs) => trs.map((t) => t.dataset.kind));
+      assert.ok(kinds.includes('pole'), `${title}: no pole found (${kinds})`);
+      assert.equal(await b.page.isHidden('#demo-description'), false);
+    }
+    // the gamma function is not rational: the numerical path, with residues (−1)^n/n! (DLMF 5.2.1 and 5.5.1)
+    await pickDemo(b.page, 'Gamma');
+    await searchDone(b.page);
+    assert.match(await b.page.textContent('#find-status'), /numerical/);
+    const rows = await b.page.$$eval('#sing-body tr[data-index]', (trs) => trs.map((t) => ({ at: JSON.parse(t.dataset.at), residue: JSON.parse(t.dataset.residue) })));
+    for (const r of rows) {
+      const n = Math.round(-r.at[0]);
+      let fact = 1;
+      for (let k = 2; k <= n; k++) fact *= k;
+      assert.ok(Math.abs(r.residue[0] - (n % 2 ? -1 : 1) / fact) < 1e-9, `residue at −${n}: ${r.residue}`);
+    }
+    assert.equal(rows.length, 6);
+  });
+
+  test('works at 800 px wide without sideways scrolling', async () => {
+    await b.page.setViewportSize({ width: 800, height: 900 });
+    await load(b.page);
     await plotDone(b.page);
-    const beforeInfo = await canvasInfo(b.page);
-    await typeFunction(b.page, LOWPASS);
-    await b.page.waitForTimeout(300);
-    await plotDone(b.page);
-    const afterInfo = await canvasInfo(b.page);
-    assert.notEqual(afterInfo.hash, beforeInfo.hash, 'the canvas did not change');
-    assert.ok(afterInfo.colours > 500, `the plot has only ${afterInfo.colours} colours`);
-    await b.page.screenshot({ path: join(artifacts, 'core-lowpass.png'), fullPage: true });
+    const over = await b.page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+    assert.ok(over <= 0, `the page is ${over}px too wide`);
+    const plotW = await b.page.evaluate(() => document.getElementById('plot').getBoundingClientRect().width);
+    assert.ok(plotW > 400, `the plot is only ${plotW}px wide`);
+    await b.page.screenshot({ path: join(artifacts, 'width-800.png'), fullPage: true });
+    await b.page.setViewportSize({ width: 1280, height: 1000 });
   });
 
-  test('[core] a malformed function is underlined where the error is, with a message', async () => {
-    await typeFunction(b.page, 'wn^2/(s^2 + 2*zeta*wn*s + ');
-    await b.page.waitForSelector('#expr-mirror mark.err', { timeout: 5000 });
-    const msg = await b.page.textContent('#expr-message');
-    assert.ok(msg && msg.length > 5, 'no message under the function');
-    assert.equal(await b.page.getAttribute('#expr', 'aria-invalid'), 'true');
-  });
-
-  test('[core] finds the two poles of the low-pass filter and shows a principal part', async () => {
-    await typeFunction(b.page, LOWPASS);
-    await b.page.click('#find');
-    await b.page.waitForSelector('#sing-body tr[data-index]', { timeout: 30000 });
-    const kinds = await b.page.$$eval('#sing-body tr[data-index] td:nth-child(2)', (tds) => tds.map((t) => t.textContent.trim()));
-    // poles at -zeta*wn ± i wn sqrt(1 - zeta^2) = -0.6 ± 1.9079i (common practice: 2nd-order section)
-    assert.equal(kinds.filter((k) => k === 'pole').length, 2);
-    const loc = await b.page.textContent('#sing-body tr[data-index] td:nth-child(1)');
-    assert.match(loc, /−0\.6/);
-    assert.match(await b.page.textContent('#stability'), /0 poles with Re s > 0/);
-    assert.equal(await b.page.isVisible('#caution'), true);
-    await b.page.click('#sing-body tr[data-index="0"]');
-    await b.page.waitForSelector('#detail-math math', { timeout: 30000 });
-    await b.page.screenshot({ path: join(artifacts, 'core-singularities.png'), fullPage: true });
-  });
-
-  test('still no errors and no network requests at the end', () => {
+  test('no console errors and no network requests at the end', () => {
     assert.deepEqual(b.log.requests, []);
     assert.deepEqual(b.log.errors, []);
   });
 });
 
-describe('page UI with a stand-in engine', () => {
-  let b;
-  before(async () => { b = await openBrowser({ mock: true }); });
-  after(async () => { if (b) await b.close(); });
-
-  test('draws a phase plot and changes it as the function is typed', async () => {
-    await load(b.page);
-    await plotDone(b.page);
-    const first = await canvasInfo(b.page);
-    assert.ok(first.colours > 500, `only ${first.colours} colours`);
-    await typeFunction(b.page, '(z - 1)/(z^2 + 4)');
-    await b.page.waitForTimeout(300);
-    await plotDone(b.page);
-    const second = await canvasInfo(b.page);
-    assert.notEqual(second.hash, first.hash);
+describe('the page inside an iframe', () => {
+  let b, dir;
+  before(async () => {
+    dir = mkdtempSync(join(tmpdir(), 'residuary-embed-'));
+    writeFileSync(join(dir, 'embed.html'), `<!doctype html><meta charset="utf-8"><title>embed</title>
+<p>A report with the page embedded:</p>
+<iframe id="f" src="${pageUrl}" width="700" height="500" style="border:1px solid #888"></iframe>`);
+    b = await openBrowser({ width: 900, height: 700 });
   });
+  after(async () => { if (b) await b.close(); if (dir) rmSync(dir, { recursive: true, force: true }); });
 
-  test('underlines the exact characters of an error and says what is wrong', async () => {
-    await typeFunction(b.page, '(z - 1)/(z^2 + q)');
-    await b.page.waitForSelector('#expr-mirror mark.err');
-    assert.equal(await b.page.textContent('#expr-mirror mark.err'), 'q');
-    assert.match(await b.page.textContent('#expr-message'), /unknown name "q"/i);
-    await b.page.screenshot({ path: join(artifacts, 'ui-error.png') });
-  });
-
-  test('marks poles and zeros, fills the table and writes the principal part in MathML', async () => {
-    await typeFunction(b.page, '(z - 1)/(z^2 + 4)');
-    await b.page.waitForTimeout(200);
-    await b.page.click('#find');
-    await b.page.waitForSelector('#sing-body tr[data-index]');
-    assert.equal(await b.page.locator('#sing-body tr[data-index]').count(), 3);
-    assert.match(await b.page.textContent('#res-inf'), /−1/);
-    assert.match(await b.page.textContent('#sum-check'), /1/);
-    await b.page.click('#sing-body tr[data-index="0"]');
-    await b.page.waitForSelector('#detail-math math mfrac');
-    assert.match(await b.page.textContent('#detail-title'), /Pole at z = 2i/);
-    assert.equal(await b.page.locator('#laurent-body tr').count(), 2);
-    await b.page.screenshot({ path: join(artifacts, 'ui-singularities.png'), fullPage: true });
-  });
-
-  test('gives a stability reading with the caution when the variable is s', async () => {
-    await typeFunction(b.page, '(s - 1)/(s^2 + 4)');
-    await b.page.fill('#var-name', 's');
-    await b.page.waitForTimeout(200);
-    await b.page.click('#find');
-    await b.page.waitForFunction(() => /Re s > 0/.test(document.getElementById('stability').textContent));
-    assert.match(await b.page.textContent('#stability'), /0 poles with Re s > 0, 2 on the imaginary axis/);
-    assert.equal(await b.page.isVisible('#caution'), true);
-  });
-
-  test('pans by drag, zooms by button and wheel, resets', async () => {
-    const view = () => b.page.evaluate(() => JSON.parse(decodeURIComponent(location.hash.slice(3))).view);
-    await b.page.click('#zoom-reset');
-    await b.page.waitForTimeout(400);
-    const v0 = await view();
-    const box = await b.page.locator('#plot').boundingBox();
-    await b.page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
-    await b.page.mouse.down();
-    await b.page.mouse.move(box.x + box.width / 2 + 80, box.y + box.height / 2 + 40, { steps: 5 });
-    await b.page.mouse.up();
-    await b.page.waitForTimeout(400);
-    const v1 = await view();
-    assert.ok(v1[0] < v0[0] && v1[2] > v0[2], 'dragging right/down moves the view left/up');
-    await b.page.click('#zoom-in');
-    await b.page.waitForTimeout(400);
-    const v2 = await view();
-    assert.ok(v2[1] - v2[0] < (v1[1] - v1[0]) * 0.8, 'zoom in shrinks the view');
-    await b.page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
-    await b.page.mouse.wheel(0, 300);
-    await b.page.waitForTimeout(400);
-    const v3 = await view();
-    assert.ok(v3[1] - v3[0] > v2[1] - v2[0], 'wheel down zooms out');
-    await b.page.click('#zoom-reset');
-    await b.page.waitForTimeout(400);
-    const v4 = await view();
-    assert.ok(Math.abs(v4[1] - v4[0] - (v0[1] - v0[0])) < 1e-9);
-  });
-
-  test('reads z and f(z) under the pointer', async () => {
-    await typeFunction(b.page, 'z^2 + 1');
-    await b.page.fill('#var-name', 'z');
-    await b.page.waitForTimeout(300);
-    const box = await b.page.locator('#plot').boundingBox();
-    await b.page.mouse.move(box.x + box.width / 2 + 3, box.y + box.height / 2 + 5);
-    await b.page.waitForFunction(() => /\|f\| =/.test(document.getElementById('readout').textContent));
-    assert.match(await b.page.textContent('#readout'), /z = .*f = .*arg f = /);
-  });
-
-  test('view at infinity relabels the axes and redraws', async () => {
-    const before = await canvasInfo(b.page);
-    await b.page.check('#opt-infinity');
-    await plotDone(b.page);
-    const afterInfo = await canvasInfo(b.page);
-    assert.notEqual(afterInfo.hash, before.hash);
-    await b.page.uncheck('#opt-infinity');
-  });
-
-  test('a link with a state in its address opens that state', async () => {
-    const state = { f: '1/(z^2 + 0.5*z + 2)', var: 'z', params: [{ name: 'a', value: '0.3+0.1i' }], view: [-2, 2, -2, 2], phase: true };
-    await load(b.page, '#s=' + encodeURIComponent(JSON.stringify(state)));
-    await b.page.waitForFunction((f) => document.getElementById('expr').value === f, state.f, { timeout: 5000 });
-    assert.equal(await b.page.inputValue('#expr'), state.f);
-    assert.equal(await b.page.inputValue('.p-value'), '0.3+0.1i');
-    assert.equal(await b.page.isChecked('#opt-phase'), true);
-  });
-
-  test('the examples menu loads our scenarios', async () => {
-    const options = await b.page.$$eval('#demo-select option', (os) => os.map((o) => o.textContent));
-    assert.ok(options.length >= 7, `only ${options.length - 1} examples`);
-    await b.page.selectOption('#demo-select', { index: 1 });
-    await b.page.waitForTimeout(300);
-    assert.notEqual(await b.page.inputValue('#expr'), '');
-    assert.equal(await b.page.isHidden('#demo-description'), false);
-  });
-
-  test('no errors and no network requests with the stand-in engine', () => {
-    assert.deepEqual(b.log.requests, []);
+  test('a 700×500 iframe draws the plot with no errors and no top-level navigation', async () => {
+    const outer = pathToFileURL(join(dir, 'embed.html')).href;
+    await b.page.goto(outer);
+    const frame = await (await b.page.waitForSelector('#f')).contentFrame();
+    await frame.waitForSelector('body[data-ready=true]', { timeout: 20000 });
+    await plotDone(frame);
+    const info = await canvasInfo(frame);
+    assert.ok(info.colours > 500, `only ${info.colours} colours in the iframe`);
+    const fit = await frame.evaluate(() => {
+      const r = document.getElementById('plot').getBoundingClientRect();
+      return { over: document.documentElement.scrollWidth - document.documentElement.clientWidth, w: r.width, h: r.height };
+    });
+    assert.ok(fit.over <= 0, `the page is ${fit.over}px too wide for the iframe`);
+    assert.ok(fit.h <= 500 && fit.w <= 700, `the plot (${fit.w}×${fit.h}) does not fit the iframe`);
+    // interacting (which writes the state into the address) must not navigate the top page
+    await frame.fill('#expr', '1/(z^2 + 2)');
+    await plotDone(frame);
+    assert.equal(b.page.url(), outer);
+    await b.page.screenshot({ path: join(artifacts, 'iframe.png') });
     assert.deepEqual(b.log.errors, []);
+    assert.deepEqual(b.log.requests, []);
   });
 });

@@ -13,7 +13,6 @@ export const Engine = {
   version: '',
   message: '',
   usesWorkers: false,
-  test: null,
   module: null,
   plotWorker: null,
   heavyWorker: null,
@@ -36,12 +35,6 @@ function errorObject(e) {
 
 /** Load the core; resolves with {ok, message}. Never rejects. */
 export async function startEngine() {
-  if (globalThis.__residuaryTestEngine) {
-    Engine.test = globalThis.__residuaryTestEngine;
-    Engine.ready = true;
-    Engine.version = 'test';
-    return { ok: true };
-  }
   try {
     if (typeof WASM_BASE64 === 'string') {
       Engine.module = await WebAssembly.compile(decodeBase64(WASM_BASE64));
@@ -104,7 +97,7 @@ function attachHeavy(worker) {
 export function runNow(request) {
   if (!Engine.ready) return { error: { message: Engine.message || 'the computing core is still loading', span: null } };
   try {
-    return Engine.test ? Engine.test.run(request) : wasmGlue.run(request);
+    return wasmGlue.run(request);
   } catch (e) {
     return errorObject(e);
   }
@@ -153,7 +146,7 @@ export function plotBands(request, bands, onBand) {
   return new Promise((resolve) => {
     const job = { id, resolve, onBand };
     Engine.plotJob = job;
-    if (Engine.plotWorker && !Engine.test) {
+    if (Engine.plotWorker) {
       Engine.plotWorker.postMessage({ type: 'plot', id, request, bands });
       return;
     }
@@ -164,7 +157,7 @@ export function plotBands(request, bands, onBand) {
         let rgba;
         try {
           const req = Object.assign({}, request, rows ? { rows } : {});
-          rgba = Engine.test ? Engine.test.phasePlotRgba(req) : wasmGlue.phase_plot_rgba(req);
+          rgba = wasmGlue.phase_plot_rgba(req);
         } catch (e) {
           Engine.plotJob = null;
           resolve(errorObject(e));
@@ -181,7 +174,7 @@ export function plotBands(request, bands, onBand) {
 export function plotOnce(request) {
   if (!Engine.ready) return errorObject(new Error('the computing core is still loading'));
   try {
-    return { rgba: Engine.test ? Engine.test.phasePlotRgba(request) : wasmGlue.phase_plot_rgba(request) };
+    return { rgba: wasmGlue.phase_plot_rgba(request) };
   } catch (e) {
     return errorObject(e);
   }

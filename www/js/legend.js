@@ -6,16 +6,22 @@ import { markerIcon, KIND_WORDS } from './singularities.js';
 
 /** Draw the colour ring for `wheel` ("oklch" or "hsv") into `canvas` (150 × 150 drawing units). */
 export function drawWheelKey(canvas, wheel) {
+  // Drawn at the device resolution (crisp on high-DPI screens); layout in 150 × 150 CSS pixels.
+  const dpr = Math.min(3, Math.max(1, Math.round(window.devicePixelRatio || 1)));
+  canvas.width = 150 * dpr;
+  canvas.height = 150 * dpr;
   const ctx = canvas.getContext('2d');
-  const size = 96, off = (canvas.width - size) / 2;
+  const css = 150, ring = 96, size = ring * dpr, off = ((css - ring) / 2) * dpr;
+  ctx.setTransform(1, 0, 0, 1, 0, 0);
   ctx.clearRect(0, 0, canvas.width, canvas.height);
+  ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
   const result = plotOnce({ task: 'phase_plot', f: 'z', var: 'z', params: {}, view: [-1, 1, -1, 1], size: [size, size], options: { wheel }, format: 'rgba' });
   if (result.error || !result.rgba || result.rgba.length !== size * size * 4) {
     ctx.fillStyle = '#666';
     ctx.font = '11px system-ui, sans-serif';
     ctx.textAlign = 'center';
-    ctx.fillText('key appears when', canvas.width / 2, canvas.height / 2 - 7);
-    ctx.fillText('plotting works', canvas.width / 2, canvas.height / 2 + 8);
+    ctx.fillText('key appears when', css / 2, css / 2 - 7);
+    ctx.fillText('plotting works', css / 2, css / 2 + 8);
     return false;
   }
   const data = new Uint8ClampedArray(result.rgba);
@@ -31,7 +37,7 @@ export function drawWheelKey(canvas, wheel) {
   ctx.font = '11px system-ui, sans-serif';
   ctx.textAlign = 'center';
   ctx.textBaseline = 'middle';
-  const c = canvas.width / 2, R = size / 2 + 11;
+  const c = css / 2, R = ring / 2 + 11;
   ctx.fillText('0', c + R, c);
   ctx.fillText('π/2', c, c - R + 2);
   ctx.fillText('±π', c - R - 2, c);
@@ -46,5 +52,5 @@ export function fillMarkerKey(list) {
   for (const kind of ['pole', 'zero', 'essential', 'branch', 'removable']) {
     list.append(el('li', {}, markerIcon(kind), ' ' + KIND_WORDS[kind]));
   }
-  list.append(el('li', { class: 'hint', text: 'A number beside a marker is its order.' }));
+  list.append(el('li', { class: 'hint', text: 'A number beside a marker is its order. A dotted circle marks |z| = 1 when the variable is z.' }));
 }

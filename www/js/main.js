@@ -1,6 +1,6 @@
 // Wires the page together: state, inputs, the plot, the readout and the
 // singularities panel. Everything the user types is kept (see state.js).
-import { $, el, debounce, fmtComplex, fmtReal, cAbs, cArg, cInv, responseError, isFinitePair } from './util.js';
+import { $, el, debounce, fmtComplex, fmtReal, fmtSig, fmtExact, cAbs, cArg, cInv, responseError, isFinitePair } from './util.js';
 import { Engine, startEngine, runNow, runHeavy } from './engine.js';
 import { loadState, saveState, fromHash, toHash } from './state.js';
 import { showUnderline, syncMirror } from './expr-input.js';
@@ -9,7 +9,7 @@ import { createPlot } from './plot.js';
 import { drawWheelKey, fillMarkerKey } from './legend.js';
 import { demoList, demoState } from './demos.js';
 import {
-  regionContour, regionProblem, itemsOf, stabilityReading, searchSingularities, cancelHeavy,
+  regionContour, regionProblem, regionWords, itemsOf, stabilityReading, KIND_WORDS, searchSingularities, cancelHeavy,
   fillTable, highlightRow, laurentRadius, requestLaurent, showDetail,
 } from './singularities.js';
 
@@ -19,15 +19,18 @@ const ui = {
   params: $('params'), modulus: $('opt-modulus'), phase: $('opt-phase'), infinity: $('opt-infinity'),
   wheel: $('opt-wheel'), canvas: $('plot'), readout: $('readout'), plotStatus: $('plot-status'),
   find: $('find'), cancel: $('cancel-find'), autoFind: $('auto-find'), findStatus: $('find-status'),
-  resInf: $('res-inf'), sumCheck: $('sum-check'), stability: $('stability'), caution: $('caution'),
-  warnings: $('warnings'), tbody: $('sing-body'), partial: $('partial-fractions'),
-  detail: { box: $('detail'), title: $('detail-title'), math: $('detail-math'), note: $('detail-note'), body: $('laurent-body') },
+  resInf: $('res-inf'), sumCheck: $('sum-check'), stability: $('stability'), stabilityBox: $('stability-box'),
+  stabilityTitle: $('stability-title'), warnings: $('warnings'), tbody: $('sing-body'), partial: $('partial-fractions'),
+  pfWarnings: $('pf-warnings'), plotDescription: $('plot-description'),
+  detail: { box: $('detail'), title: $('detail-title'), math: $('detail-math'), note: $('detail-note'), body: $('laurent-body'),
+    warnings: $('detail-warnings'), table: $('laurent-table') },
 };
 
 let exprOk = false;           // the last check found no error in the function
 let lastZView = state.view.slice();
 let found = { items: [], key: '' };
 let searchSerial = 0;
+let readingOpenNext = null;  // an example says whether to open the transfer-function reading
 
 // ---- requests ------------------------------------------------------------------
 
@@ -51,6 +54,7 @@ const plot = createPlot(ui.canvas, {
     if (!state.infinity) lastZView = view.slice();
     persist();
     if (state.region.mode === 'view') { fillRegionFields(); autoSearchSoon(1000); }
+    describePlot();
   },
   onPointer: (p) => readoutAt(p),
   onMarkerClick: (i) => pick(i),
@@ -63,6 +67,7 @@ const plot = createPlot(ui.canvas, {
 function applyAxisName() {
   plot.axisName = state.infinity ? 'w' : (state.var.trim() || 'z');
   plot.infinityMode = state.infinity;
+  plot.unitCircle = !state.infinity && state.var.trim() === 'z'; // the stability boundary in the z-plane
 }
 
 // ---- persistence ---------------------------------------------------------------
@@ -118,7 +123,33 @@ const afterTyping = debounce(() => {
   autoSearchSoon(700);
 }, 120);
 
+/** The results no longer belong to the function: dim them and take the markers off the plot. */
+function markResultsStale() {
+  searchSerial++;
+  $('sing-table').classList.add('stale');
+  ui.find.disabled = false;
+  ui.cancel.disabled = true;
+  ui.findStatus.className = 'find-status';
+  ui.findStatus.textContent = state.autoFind ? 'The function changed; searching again when typing stops…' : 'The function changed: press “Find singularities” for new results.';
+  if (plot.markers.length) { plot.markers = []; plot.selected = -1; plot.draw(); }
+  ui.canvas.dataset.markers = '0';
+  ui.detail.box.hidden = true;
+}
+
+/** Once the function is no longer the chosen example's, the example's name and text go. */
+function forgetExampleIfChanged() {
+  const picker = $('demo-select');
+  const d = demoList()[Number(picker.value)];
+  if (picker.value === '' || !d) return;
+  if (d.f !== state.f || (d.var || 'z') !== state.var.trim()) {
+    picker.value = '';
+    $('demo-description').hidden = true;
+  }
+}
+
 function inputsChanged() {
+  forgetExampleIfChanged();
+  markResultsStale();
   persist();
   showUnderline(ui.mirror, state.f, null);
   syncMirror(ui.expr, ui.mirror);
@@ -144,6 +175,8 @@ function readoutAt(p) {
     const err = responseError(resp);
     if (err || !resp.values || !resp.values[0]) { ui.readout.textContent = where + ' — ' + (err ? err.message : 'no value'); return; }
     const f = resp.values[0].map((x) => (x === null ? NaN : x));
+    ui.readout.dataset.z = JSON.stringify(z);   // full precision, for checking
+    ui.readout.dataset.f = JSON.stringify(resp.values[0]);
     const mod = cAbs(f), arg = cArg(f);
     ui.readout.textContent = `${where}   f = ${fmtComplex(f, 6)}   |f| = ${fmtReal(mod, 6)}   arg f = ` +
       (Number.isFinite(arg) && Number.isFinite(mod) && mod > 0 ? `${fmtReal(arg, 5)} rad (${fmtReal((arg * 180) / Math.PI, 4)}°)` : 'undefined');
@@ -160,7 +193,7 @@ function currentContour() {
 function fillRegionFields() {
   const v = state.region.mode === 'view' ? (state.infinity ? lastZView : state.view) : state.region.rect;
   const ids = ['rect-x0', 'rect-x1', 'rect-y0', 'rect-y1'];
-  ids.forEach((id, k) => { if (document.activeElement !== $(id)) $(id).value = fmtReal(v[k], 6).replace('−', '-'); });
+  ids.forEach((id, k) => { if (document.activeElement !== $(id)) $(id).value = fmtReal(v[k], 6).replace(/−/g, '-'); });
   const [cx, cy, r] = state.region.circle;
   [['circ-x', cx], ['circ-y', cy], ['circ-r', r]].forEach(([id, x]) => { if (document.activeElement !== $(id)) $(id).value = x; });
   for (const radio of document.querySelectorAll('input[name=region-mode]')) radio.checked = radio.value === state.region.mode;
@@ -197,35 +230,79 @@ async function findSingularities() {
     ui.findStatus.textContent = err.message === 'cancelled' ? 'Search stopped.' : 'Search failed: ' + err.message;
     return;
   }
-  found = { items: itemsOf(resp), base, contour };
+  $('sing-table').classList.remove('stale');
+  const size = contour.shape === 'circle' ? contour.radius
+    : Math.max(Math.abs(contour.corners[1][0] - contour.corners[0][0]), Math.abs(contour.corners[1][1] - contour.corners[0][1]));
+  found = { items: itemsOf(resp, 1e-12 * size), base, contour };
   const n = found.items.length;
-  ui.findStatus.textContent = n ? `Found ${n} point${n === 1 ? '' : 's'} in the region. Choose a row or marker for its principal part.` : 'Search finished.';
+  ui.findStatus.textContent = n ? `Found ${n} point${n === 1 ? '' : 's'} in the region` +
+    (resp.method === 'rational' ? ' (f is rational: exact analysis)' : resp.method === 'numerical' ? ' (numerical search)' : '') +
+    '. Choose a row or marker for its principal part.' : 'Search finished: nothing in the region.';
   fillTable(ui.tbody, found.items, pick);
   plot.markers = found.items;
   plot.selected = -1;
   plot.draw();
+  ui.canvas.dataset.markers = String(found.items.length);
+  describePlot();
   ui.detail.box.hidden = true;
-  // residue at infinity and the sum check
-  const rinf = resp.residue_at_infinity;
-  ui.resInf.textContent = isFinitePair(rinf) ? fmtComplex(rinf, 10) : 'not available for this function';
-  const sum = found.items.filter((it) => it.kind === 'pole' && isFinitePair(it.residue))
-    .reduce((acc, it) => [acc[0] + it.residue[0], acc[1] + it.residue[1]], [0, 0]);
-  ui.sumCheck.textContent = `residues in the region add to ${fmtComplex(sum, 8)}` +
-    (isFinitePair(rinf) ? `; with the residue at infinity the total is ${fmtComplex([sum[0] + rinf[0], sum[1] + rinf[1]], 4)}` : '') +
-    (Number.isFinite(resp.residue_sum_defect) ? ` (defect ${fmtReal(resp.residue_sum_defect, 3)}; near 0 when every finite singularity lies inside the region)` : '');
   ui.warnings.textContent = '';
   for (const w of Array.isArray(resp.warnings) ? resp.warnings : []) ui.warnings.append(el('li', { text: String(w) }));
-  // stability reading (s or z) with the caution
+  showSums(resp, found.items);
+  // A transfer-function reading, only for s or z, and said to be a reading.
   const reading = stabilityReading(base.var, found.items, contour);
-  ui.stability.hidden = !reading;
-  ui.stability.textContent = reading;
-  ui.caution.hidden = !reading;
-  // partial fractions, shown only when the task answers
+  const wasVar = ui.stabilityBox.dataset.var;
+  ui.stabilityBox.hidden = !reading;
+  if (reading) {
+    ui.stabilityTitle.textContent = reading.title;
+    ui.stability.textContent = reading.text;
+    // Open by default for s; for z (also the default variable) it stays folded unless opened,
+    // except for an example that is a transfer function.
+    if (readingOpenNext !== null) ui.stabilityBox.open = readingOpenNext;
+    else if (wasVar !== base.var) ui.stabilityBox.open = base.var === 's';
+    readingOpenNext = null;
+    ui.stabilityBox.dataset.var = base.var;
+  }
+  // Partial fractions, shown only when f is rational (the task answers).
   const pf = await runHeavy(Object.assign({}, base, { task: 'partial_fractions' }));
   if (serial !== searchSerial) return;
   const pfErr = responseError(pf);
   ui.partial.hidden = Boolean(pfErr) || typeof pf.text !== 'string';
-  if (!ui.partial.hidden) ui.partial.textContent = 'Partial fractions: ' + pf.text;
+  ui.pfWarnings.textContent = '';
+  if (!ui.partial.hidden) {
+    ui.partial.textContent = 'Partial fractions: ' + pf.text;
+    for (const w of Array.isArray(pf.warnings) ? pf.warnings : []) ui.pfWarnings.append(el('li', { text: 'Partial fractions: ' + String(w) }));
+  }
+}
+
+/** Residue at infinity and the residue-sum check, in one short line each. */
+function showSums(resp, items) {
+  const rinf = resp.residue_at_infinity;
+  ui.resInf.textContent = isFinitePair(rinf) ? fmtSig(rinf, 10) : 'not available for this function (see the warnings)';
+  ui.resInf.title = isFinitePair(rinf) ? 'Full precision: ' + fmtExact(rinf) : '';
+  const withResidue = items.filter((it) => (it.kind === 'pole' || it.kind === 'essential') && isFinitePair(it.residue));
+  const sum = withResidue.reduce((acc, it) => [acc[0] + it.residue[0], acc[1] + it.residue[1]], [0, 0]);
+  if (!isFinitePair(rinf)) {
+    ui.sumCheck.textContent = `Σ residues in the region = ${fmtSig(sum, 10)} (no check without the residue at infinity)`;
+    return;
+  }
+  const total = cAbs([sum[0] + rinf[0], sum[1] + rinf[1]]);
+  const scale = Math.max(1e-300, cAbs(rinf), ...withResidue.map((it) => cAbs(it.residue)));
+  const small = total <= 1e-8 * scale + 1e-13;
+  ui.sumCheck.textContent = `|Σ residues in the region + Res∞| = ${fmtReal(total, 2)}` +
+    (small ? ' (about 0, as expected when the region holds every finite singularity)'
+      : ' — not 0, so f has singular points outside the region (or a residue is inaccurate)');
+  ui.sumCheck.classList.toggle('bad', !small);
+}
+
+/** A short text description of the plot for screen readers. */
+function describePlot() {
+  const v = state.infinity ? 'w' : (state.var.trim() || 'z');
+  const [x0, x1, y0, y1] = plot.getView();
+  const counts = {};
+  for (const it of plot.markers) counts[it.kind] = (counts[it.kind] || 0) + 1;
+  const marked = Object.entries(counts).map(([k, c]) => `${c} ${KIND_WORDS[k]}${c === 1 ? '' : 's'}`).join(', ');
+  ui.plotDescription.textContent = `Phase plot of f${state.infinity ? '(1/w)' : ''} for ${regionWords(v, { shape: 'rectangle', corners: [[x0, y0], [x1, y1]] })}: colour shows the argument of f.` +
+    (marked ? ` Marked: ${marked}; see the singularities table.` : '');
 }
 
 async function pick(index) {
@@ -236,14 +313,17 @@ async function pick(index) {
   highlightRow(ui.tbody, index);
   const c = found.contour;
   const size = c.shape === 'circle' ? c.radius : Math.max(Math.abs(c.corners[1][0] - c.corners[0][0]), Math.abs(c.corners[1][1] - c.corners[0][1])) / 2;
-  const radius = laurentRadius(item, found.items, Math.max(size / 2, 1e-6));
+  const annulus = laurentRadius(item, found.items, Math.max(size / 2, 1e-6));
   ui.detail.box.hidden = false;
   ui.detail.note.textContent = 'Computing the Laurent series…';
   ui.detail.math.textContent = '';
   ui.detail.body.textContent = '';
-  const resp = await requestLaurent(found.base, item, radius);
+  ui.detail.warnings.textContent = '';
+  const resp = await requestLaurent(found.base, item, annulus.radius);
   if (plot.selected !== index) return;
-  showDetail(ui.detail, found.base.var, item, resp, radius);
+  showDetail(ui.detail, found.base.var, item, resp, annulus);
+  const r = ui.detail.box.getBoundingClientRect();
+  if (r.top > window.innerHeight || r.bottom < 0) ui.detail.box.scrollIntoView({ block: 'nearest' });
 }
 
 // ---- wiring ----------------------------------------------------------------------
@@ -294,6 +374,7 @@ ui.infinity.addEventListener('change', () => {
   fillRegionFields();
   plot.coarse = null; plot.fine = null;
   plot.draw();
+  describePlot();
   persist();
   if (exprOk) plot.render();
 });
@@ -357,12 +438,14 @@ function adopt(next) {
   plot.coarse = null; plot.fine = null;
   plot.markers = []; plot.selected = -1;
   ui.detail.box.hidden = true;
+  describePlot();
   inputsChanged();
 }
 
 select.addEventListener('change', () => {
   const d = demos[Number(select.value)];
   if (!d) return;
+  readingOpenNext = Boolean(d.transfer_function);
   adopt(Object.assign(demoState(d), { infinity: false, region: Object.assign({}, state.region, { mode: 'view' }) }));
   $('demo-description').hidden = !d.description;
   $('demo-description').textContent = d.description || '';
@@ -378,7 +461,7 @@ window.addEventListener('hashchange', () => {
 let resizeTimer = 0;
 const resized = () => { clearTimeout(resizeTimer); resizeTimer = setTimeout(() => { plot.resize(); if (exprOk) plot.scheduleRender(0); }, 80); };
 if (typeof ResizeObserver === 'function') new ResizeObserver(resized).observe(ui.canvas.parentElement);
-else window.addEventListener('resize', resized);
+window.addEventListener('resize', resized); // the height limit follows the window height
 
 // ---- start -------------------------------------------------------------------------
 

@@ -55,7 +55,7 @@ export function renderParams(container, rows, onChange) {
     });
     slider.addEventListener('input', () => {
       const z = parseComplex(value.value) || [0, 0];
-      const re = Number(fmtReal(Number(slider.value), 4).replace('−', '-'));
+      const re = Number(fmtReal(Number(slider.value), 4).replace(/−/g, '-'));
       value.value = z[1] === 0 ? String(re) : `${re}${z[1] < 0 ? '-' : '+'}${Math.abs(z[1])}i`;
       p.value = value.value;
       markValidity();

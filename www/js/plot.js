@@ -7,7 +7,10 @@ import { plotBands } from './engine.js';
 import { fmtReal, cInv } from './util.js';
 
 const MARGIN = { left: 54, right: 10, top: 8, bottom: 34 };
-const BAND_PIXELS = 24000;
+const BAND_PIXELS = 40000;
+// Rendering costs per pixel (about 0.5–1.5 µs each in the core), so on high-DPI screens the
+// picture is drawn at the device resolution only up to this many pixels, and scaled above it.
+const PIXEL_BUDGET = 1.2e6;
 
 /** Nice tick spacing for a span shown across `pixels`. */
 function tickStep(span, pixels) {
@@ -63,9 +66,12 @@ export function createPlot(canvas, hooks) {
   /** Fit the canvas to its box; keeps the centre and the visible span. */
   plot.resize = function () {
     const keep = plot.pw > 0 ? box() : null;
+    // Fill the column's width; square-ish, but never taller than the window leaves room for
+    // (the toolbar above and the readout below stay in sight, also inside a small iframe).
     const width = Math.max(200, Math.floor(canvas.parentElement.clientWidth || 400));
     const plotW = width - MARGIN.left - MARGIN.right;
-    const plotH = Math.round(Math.min(Math.max(plotW * 0.8, 200), 640));
+    const room = (window.innerHeight || 800) - 150;
+    const plotH = Math.round(Math.max(180, Math.min(plotW, room, 1100)));
     plot.cssW = width;
     plot.cssH = plotH + MARGIN.top + MARGIN.bottom;
     plot.pw = plotW;
@@ -126,6 +132,20 @@ export function createPlot(canvas, hooks) {
         ctx.fillText(String(m.order), x + 8, y - 7);
       }
     });
+  }
+
+  /** A faint dotted unit circle in the z-plane (where |z| = 1 matters for discrete time). */
+  function drawUnitCircle() {
+    if (!plot.unitCircle) return;
+    const [sx, sy] = toScreen(0, 0);
+    ctx.save();
+    ctx.setLineDash([2, 4]);
+    ctx.lineWidth = 1;
+    ctx.strokeStyle = 'rgba(0,0,0,0.45)';
+    ctx.beginPath();
+    ctx.arc(sx, sy, 1 / plot.scale, 0, 2 * Math.PI);
+    ctx.stroke();
+    ctx.restore();
   }
 
   function drawRegion() {
@@ -216,8 +236,11 @@ export function createPlot(canvas, hooks) {
     ctx.fillRect(MARGIN.left, MARGIN.top, plot.pw, plot.ph);
     ctx.imageSmoothingEnabled = true;
     drawLayer(plot.coarse);
-    ctx.imageSmoothingEnabled = false;
+    // Crisp when the picture has one pixel per device pixel; smooth when it is scaled.
+    const fineScale = plot.fine ? plot.fine.canvas.width / Math.max(1, (plot.fine.box[1] - plot.fine.box[0]) / plot.scale) : 1;
+    ctx.imageSmoothingEnabled = Math.abs(fineScale - dpr) > 0.01;
     drawLayer(plot.fine);
+    drawUnitCircle();
     drawRegion();
     drawMarkers();
     if (plot.message) {
@@ -261,7 +284,9 @@ export function createPlot(canvas, hooks) {
     const base = hooks.baseRequest();
     if (!base) return;
     const b = box();
-    const W = Math.max(1, Math.round(plot.pw)), H = Math.max(1, Math.round(plot.ph));
+    const dpr = window.devicePixelRatio || 1;
+    const rs = Math.max(0.5, Math.min(dpr, Math.sqrt(PIXEL_BUDGET / Math.max(1, plot.pw * plot.ph))));
+    const W = Math.max(1, Math.round(plot.pw * rs)), H = Math.max(1, Math.round(plot.ph * rs));
     const cw = Math.max(1, Math.ceil(W / 4)), ch = Math.max(1, Math.ceil(H / 4));
     plot.busy = true;
     hooks.onStatus && hooks.onStatus('drawing');

@@ -2,7 +2,7 @@
 // cancellable), the table, the markers, the residue at infinity with the sum
 // check, the stability reading and, for a chosen point, its principal part in
 // MathML with its Laurent coefficients.
-import { el, fmtComplex, fmtReal, cAbs, cSub, isFinitePair, responseError } from './util.js';
+import { el, fmtComplex, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, trimComplex, cAbs, cSub, isFinitePair, responseError } from './util.js';
 import { runHeavy, cancelHeavy } from './engine.js';
 
 const MATHML = 'http://www.w3.org/1998/Math/MathML';
@@ -32,38 +32,73 @@ export function regionProblem(contour) {
   return '';
 }
 
-/** Flatten a singularities response into one list of points. */
-export function itemsOf(resp) {
+/** Flatten a singularities response into one list of points. `floor` is the size below which a
+ *  location's real or imaginary part is rounding noise (a small fraction of the region's size). */
+export function itemsOf(resp, floor = 0) {
   const items = [];
   const pts = (list) => (Array.isArray(list) ? list : []);
-  for (const p of pts(resp.poles)) items.push({ kind: 'pole', at: p.at, order: p.order, residue: p.residue, error: p.error_estimate });
+  const pp = (p) => (Array.isArray(p.principal_part) ? p.principal_part.filter(isFinitePair) : []);
+  for (const p of pts(resp.poles)) items.push({ kind: 'pole', at: p.at, order: p.order, residue: p.residue, error: p.error_estimate, principal: pp(p) });
   for (const z of pts(resp.zeros)) items.push({ kind: 'zero', at: z.at, order: z.order, error: z.error_estimate });
-  for (const e of pts(resp.essential)) items.push({ kind: 'essential', at: Array.isArray(e) ? e : e.at });
+  for (const e of pts(resp.essential)) {
+    const at = Array.isArray(e) ? e : e.at;
+    items.push({ kind: 'essential', at, residue: e.residue, error: e.error_estimate });
+  }
   for (const b of pts(resp.branch_points)) items.push({ kind: 'branch', at: Array.isArray(b) ? b : b.at });
   for (const r of pts(resp.removable)) items.push({ kind: 'removable', at: Array.isArray(r) ? r : r.at });
+  for (const it of items) it.floor = floor;
   return items.filter((it) => isFinitePair(it.at));
 }
 
-/** Plain-words stability reading from the poles found, for s (Re s > 0) or z (|z| > 1). */
+/** The region in words, e.g. "Re s from −4 to 2, Im s from −3 to 3". */
+export function regionWords(variable, contour) {
+  if (contour.shape === 'circle') return `|${variable} − (${fmtComplex(contour.center, 4)})| < ${fmtReal(contour.radius, 4)}`;
+  const [[a, b], [c, d]] = contour.corners;
+  return `Re ${variable} from ${fmtReal(Math.min(a, c), 4)} to ${fmtReal(Math.max(a, c), 4)}, Im ${variable} from ${fmtReal(Math.min(b, d), 4)} to ${fmtReal(Math.max(b, d), 4)}`;
+}
+
+/** Does the region hold the closed unit disc? */
+function coversUnitDisc(contour) {
+  if (contour.shape === 'circle') return cAbs(contour.center) + 1 < contour.radius;
+  const [[a, b], [c, d]] = contour.corners;
+  return Math.min(a, c) < -1 && Math.max(a, c) > 1 && Math.min(b, d) < -1 && Math.max(b, d) > 1;
+}
+
+/** A conditional transfer-function reading of the poles found, only for the variable s
+ *  (continuous time: Re s > 0 is unstable) or z (discrete time: |z| > 1 is unstable).
+ *  Returns {title, text} or null for any other variable. */
 export function stabilityReading(variable, items, contour) {
   const poles = items.filter((it) => it.kind === 'pole');
-  const whole = 'Only poles inside the searched region are counted; widen the region to be sure none lie outside it.';
+  const tol = (p) => 1e-9 * Math.max(1, cAbs(p.at));
+  const n = poles.length;
+  const where = regionWords(variable, contour);
+  const plural = (k, word) => `${k} ${word}${k === 1 ? '' : 's'}`;
   if (variable === 's') {
-    const tol = (p) => 1e-9 * Math.max(1, cAbs(p.at));
     const right = poles.filter((p) => p.at[0] > tol(p)).length;
     const onAxis = poles.filter((p) => Math.abs(p.at[0]) <= tol(p)).length;
-    return `Stability reading: ${right} pole${right === 1 ? '' : 's'} with Re s > 0` +
-      (onAxis ? `, ${onAxis} on the imaginary axis` : '') + ` (of ${poles.length} found). ` +
-      (right === 0 && onAxis === 0 && poles.length > 0 ? 'No unstable pole was found in the region. ' : '') + whole;
+    const rightmost = n ? Math.max(...poles.map((p) => p.at[0])) : NaN;
+    let text = n === 0 ? 'No pole was found in the region. '
+      : `Of the ${plural(n, 'pole')} found, ${right} ${right === 1 ? 'has' : 'have'} Re s > 0` +
+        (onAxis ? ` and ${onAxis} ${onAxis === 1 ? 'lies' : 'lie'} on the imaginary axis` : '') +
+        `; the rightmost is at Re s = ${fmtReal(rightmost, 6)}. ` +
+        (right === 0 && onAxis === 0 ? 'No pole in the right half-plane was found. ' : '');
+    text += `Only the searched region (${where}) was examined: a pole outside it would be missed, and the right half-plane never fits in a finite region, so widen the region to be sure.`;
+    return { title: 'Read as a continuous-time transfer function H(s)', text };
   }
   if (variable === 'z') {
-    const tol = (p) => 1e-9 * Math.max(1, cAbs(p.at));
     const outside = poles.filter((p) => cAbs(p.at) > 1 + tol(p)).length;
     const onCircle = poles.filter((p) => Math.abs(cAbs(p.at) - 1) <= tol(p)).length;
-    return `Stability reading: ${outside} pole${outside === 1 ? '' : 's'} with |z| > 1` +
-      (onCircle ? `, ${onCircle} on the unit circle` : '') + ` (of ${poles.length} found). ` + whole;
+    const largest = n ? Math.max(...poles.map((p) => cAbs(p.at))) : NaN;
+    let text = n === 0 ? 'No pole was found in the region. '
+      : `Of the ${plural(n, 'pole')} found, ${outside} ${outside === 1 ? 'has' : 'have'} |z| > 1` +
+        (onCircle ? ` and ${onCircle} ${onCircle === 1 ? 'lies' : 'lie'} on the unit circle` : '') +
+        `; the largest pole modulus is ${fmtReal(largest, 6)}. `;
+    text += `Only the searched region (${where}) was examined: a pole outside it would be missed` +
+      (coversUnitDisc(contour) ? '.' : ', and this region does not even cover the whole unit disc.') +
+      ' Widen the region to be sure.';
+    return { title: 'Read as a discrete-time transfer function H(z)', text };
   }
-  return '';
+  return null;
 }
 
 /** Send the search; resolves with the response or an error object. */
@@ -71,6 +106,16 @@ export function searchSingularities(base, contour) {
   return runHeavy(Object.assign({}, base, { task: 'singularities', region: contour }));
 }
 export { cancelHeavy };
+
+/** A table cell holding a complex number on one or two lines, 10 significant digits;
+ *  the full double-precision value is in the title (and in the copied text). */
+function complexCell(z, floor = 0) {
+  if (!isFinitePair(z)) return el('td', { class: 'num', text: '—' });
+  const [a, b] = fmtSigLines(z, 10, floor);
+  const td = el('td', { class: 'num', title: 'Full precision: ' + fmtExact(z) }, el('span', { class: 'cline', text: a }));
+  if (b) td.append(el('span', { class: 'cline', text: b }));
+  return td;
+}
 
 /** Fill the table body; `onPick(i)` when a row is chosen. */
 export function fillTable(tbody, items, onPick) {
@@ -80,11 +125,12 @@ export function fillTable(tbody, items, onPick) {
     return;
   }
   items.forEach((it, i) => {
-    const tr = el('tr', { tabindex: 0, 'data-index': i, title: 'Show the principal part and Laurent coefficients' },
-      el('td', { class: 'num', text: fmtComplex(it.at, 8) }),
+    const tr = el('tr', { tabindex: 0, 'data-index': i, 'data-kind': it.kind, 'data-at': JSON.stringify(it.at),
+      'data-residue': isFinitePair(it.residue) ? JSON.stringify(it.residue) : null, title: 'Show the principal part and Laurent coefficients' },
+      complexCell(it.at, it.floor),
       el('td', { class: 'kind' }, markerIcon(it.kind), ' ' + KIND_WORDS[it.kind]),
       el('td', { class: 'num', text: it.order === undefined || it.order === null ? '—' : String(it.order) }),
-      el('td', { class: 'num', text: it.residue ? fmtComplex(it.residue, 8) : '—' }),
+      complexCell(it.residue),
       el('td', { class: 'num', text: Number.isFinite(it.error) ? fmtReal(it.error, 2) : '—' }));
     tr.addEventListener('click', () => onPick(i));
     tr.addEventListener('keydown', (e) => { if (e.key === 'Enter' || e.key === ' ') { e.preventDefault(); onPick(i); } });
@@ -117,7 +163,8 @@ export function markerIcon(kind) {
   return svg;
 }
 
-/** Radius for the Laurent annulus: half the distance to the nearest other singular point. */
+/** Radius for the Laurent annulus: half the distance to the nearest other singular point,
+ *  or `fallback` when none was found. Returns {radius, why} (the reason in words). */
 export function laurentRadius(item, items, fallback) {
   let nearest = Infinity;
   for (const other of items) {
@@ -125,13 +172,19 @@ export function laurentRadius(item, items, fallback) {
     const d = cAbs(cSub(other.at, item.at));
     if (d > 0 && d < nearest) nearest = d;
   }
-  return Number.isFinite(nearest) ? nearest / 2 : fallback;
+  return Number.isFinite(nearest)
+    ? { radius: nearest / 2, why: 'half the distance to the nearest other singular point found' }
+    : { radius: fallback, why: 'no other singular point was found in the region' };
 }
 
-/** Ask for the Laurent coefficients about a point. */
+/** Ask for the Laurent coefficients about a point (none for a branch point: f has no
+ *  Laurent series about it). Resolves with the response or an error object. */
 export function requestLaurent(base, item, radius) {
-  const order = item.order > 0 ? item.order : (item.kind === 'essential' ? 8 : 0);
-  const from = item.kind === 'zero' ? 0 : -order - 2;
+  if (item.kind === 'branch') {
+    return Promise.resolve({ error: { message: 'f is not single-valued around a branch point, so it has no Laurent series there', span: null } });
+  }
+  const order = item.order > 0 ? item.order : 0;
+  const from = item.kind === 'zero' || item.kind === 'removable' ? 0 : item.kind === 'essential' ? -12 : -order - 2;
   return runHeavy(Object.assign({}, base, { task: 'laurent', center: item.at, inner: 0, outer: radius, from, to: 3 }));
 }
 
@@ -142,7 +195,14 @@ function m(tag, ...children) {
   for (const c of children) node.append(typeof c === 'string' ? document.createTextNode(c) : c);
   return node;
 }
-function mn(x) { return m('mn', fmtReal(Math.abs(x), 8)); }
+
+/** |x| to 10 significant digits; exponents written as × 10^k. */
+function mn(x) {
+  const t = fmtReal(Math.abs(x), 10);
+  const e = /^([\d.]+)e([−-]?\d+)$/.exec(t);
+  if (!e) return m('mn', t);
+  return m('mrow', m('mn', e[1]), m('mo', '×'), m('msup', m('mn', '10'), m('mn', e[2].replace('-', '−'))));
+}
 
 /** (v − z0) as MathML. */
 function shift(variable, z0) {
@@ -151,14 +211,14 @@ function shift(variable, z0) {
   const re = z0[0], im = z0[1];
   if (re !== 0) row.append(m('mo', re > 0 ? '−' : '+'), mn(re));
   if (im !== 0) {
-    row.append(m('mo', (im > 0) === true ? '−' : '+'));
+    row.append(m('mo', im > 0 ? '−' : '+'));
     if (Math.abs(im) !== 1) row.append(mn(im), m('mo', '\u2062'));
     row.append(m('mi', 'i'));
   }
   return row;
 }
 
-/** A complex coefficient as MathML; `wrap` adds parentheses when it has two parts. */
+/** A complex coefficient as MathML, with parentheses when it has two parts. */
 function coefficient(c) {
   const [re, im] = c;
   if (im === 0) return { node: mn(re), negative: re < 0, one: Math.abs(re) === 1 };
@@ -168,52 +228,99 @@ function coefficient(c) {
     node.append(m('mi', 'i'));
     return { node, negative: im < 0, one: false };
   }
-  const node = m('mrow', m('mo', '('), re < 0 ? m('mo', '−') : '', mn(re), m('mo', im < 0 ? '−' : '+'));
+  const node = m('mrow', m('mo', '('));
+  if (re < 0) node.append(m('mo', '−'));
+  node.append(mn(re), m('mo', im < 0 ? '−' : '+'));
   if (Math.abs(im) !== 1) node.append(mn(im), m('mo', '\u2062'));
   node.append(m('mi', 'i'), m('mo', ')'));
   return { node, negative: false, one: false };
 }
 
-/** The principal part Σ_{n<0} c_n (v − z0)^n written out; terms below `cutoff` are left out. */
-export function principalPartMathML(variable, z0, coefficients, cutoff) {
+/** The principal part Σ_{n<0} c_n (v − z0)^n written out. Coefficient parts below `level`
+ *  (the error level) are written as 0; `more` appends "+ ⋯" (an essential singularity). */
+export function principalPartMathML(variable, z0, coefficients, level, more, floor = 0, maxTerms = 12) {
   const math = m('math');
   math.setAttribute('display', 'block');
   const row = m('mrow');
-  const terms = coefficients.filter((t) => t.n < 0 && isFinitePair(t.c) && cAbs(t.c) > cutoff).sort((a, b) => a.n - b.n);
+  const terms = coefficients
+    .filter((t) => t.n < 0 && isFinitePair(t.c))
+    .map((t) => ({ n: t.n, c: trimBelow(t.c, level) }))
+    .filter((t) => t.c[0] !== 0 || t.c[1] !== 0)
+    .sort((a, b) => b.n - a.n);
+  if (terms.length > maxTerms) { terms.length = maxTerms; more = true; }
   if (terms.length === 0) row.append(m('mn', '0'));
+  const centre = trimComplex(z0, 12, floor);
   terms.forEach((t, i) => {
     const { node, negative, one } = coefficient(t.c);
     if (i > 0) row.append(m('mo', negative ? '−' : '+'));
     else if (negative) row.append(m('mo', '−'));
     const k = -t.n;
-    const base = shift(variable, z0);
-    const needParens = !(z0[0] === 0 && z0[1] === 0);
+    const base = shift(variable, centre);
+    const needParens = !(centre[0] === 0 && centre[1] === 0);
     const power = k === 1 ? base
       : m('msup', needParens ? m('mrow', m('mo', '('), base, m('mo', ')')) : base, m('mn', String(k)));
     row.append(m('mfrac', one ? m('mn', '1') : node, power));
   });
+  if (more && terms.length) row.append(m('mo', '+'), m('mo', '⋯'));
   math.append(row);
   return math;
 }
 
 /** Fill the detail box for one item from a laurent response. */
-export function showDetail(parts, variable, item, response, radius) {
+export function showDetail(parts, variable, item, response, annulus) {
+  const radius = annulus.radius;
   parts.box.hidden = false;
-  parts.title.textContent = `${KIND_WORDS[item.kind][0].toUpperCase() + KIND_WORDS[item.kind].slice(1)} at ${variable} = ${fmtComplex(item.at, 8)}`;
+  parts.title.textContent = `${KIND_WORDS[item.kind][0].toUpperCase() + KIND_WORDS[item.kind].slice(1)} at ${variable} = ${fmtSig(item.at, 10, item.floor)}`;
   parts.math.textContent = '';
   parts.body.textContent = '';
+  parts.warnings.textContent = '';
   const err = responseError(response);
-  if (err) {
-    parts.note.textContent = err.message === 'cancelled' ? 'Stopped.' : 'Laurent series not available: ' + err.message;
-    return;
-  }
-  const coeffs = Array.isArray(response.coefficients) ? response.coefficients : [];
-  const est = Number.isFinite(response.error_estimate) ? response.error_estimate : 0;
+  const coeffs = err ? [] : (Array.isArray(response.coefficients) ? response.coefficients : []);
+  const est = !err && Number.isFinite(response.error_estimate) ? response.error_estimate : 0;
   const biggest = Math.max(0, ...coeffs.filter((t) => isFinitePair(t.c)).map((t) => cAbs(t.c)));
-  const cutoff = Math.max(10 * est, 1e-13 * biggest);
-  const label = el('p', { class: 'detail-label', text: item.kind === 'zero' ? 'Principal part (none expected at a zero):' : 'Principal part:' });
-  parts.math.append(label, principalPartMathML(variable, item.at, coeffs, cutoff));
-  parts.note.textContent = `Series about ${variable} = ${fmtComplex(item.at, 6)} valid for 0 < |${variable} − ${variable}₀| < ${fmtReal(radius, 4)}` +
-    ` (half the distance to the nearest other singular point). Error estimate ${fmtReal(est, 2)}; terms below ${fmtReal(cutoff, 2)} are left out of the formula but listed below.`;
-  for (const t of coeffs) parts.body.append(el('tr', {}, el('td', { class: 'num', text: String(t.n) }), el('td', { class: 'num', text: fmtComplex(t.c, 10) })));
+  const level = Math.max(10 * est, 1e-13 * biggest);
+  const exact = item.kind === 'pole' && Array.isArray(item.principal) && item.principal.length > 0;
+  const notes = [];
+  if (item.kind === 'zero' || item.kind === 'removable') {
+    parts.math.append(el('p', { class: 'detail-label', text: `No principal part: f is analytic at a ${KIND_WORDS[item.kind]}.` }));
+  } else if (exact) {
+    // Rational f: the core's exact partial-fraction principal part.
+    const ppLevel = Math.max(10 * (Number.isFinite(item.error) ? item.error : 0), 1e-15 * Math.max(...item.principal.map(cAbs)));
+    const pp = item.principal.map((c, k) => ({ n: -(k + 1), c }));
+    parts.math.append(el('p', { class: 'detail-label', text: 'Principal part (from the exact analysis of the rational function):' }),
+      principalPartMathML(variable, item.at, pp, ppLevel, false, item.floor));
+  } else if (!err) {
+    parts.math.append(el('p', { class: 'detail-label', text: item.kind === 'essential'
+      ? 'Principal part (infinitely many terms; the first ones, from the Laurent coefficients below):'
+      : 'Principal part (from the Laurent coefficients below):' }),
+    principalPartMathML(variable, item.at, coeffs, level, item.kind === 'essential', item.floor, item.kind === 'essential' ? 4 : 12));
+  }
+  if (err) {
+    notes.push(err.message === 'cancelled' ? 'Stopped.' : 'Laurent series not available: ' + err.message + '.');
+  } else {
+    notes.push(`Laurent series about ${variable}₀ = ${fmtSig(item.at, 10, item.floor)}, valid for 0 < |${variable} − ${variable}₀| < ${fmtReal(radius, 4)}` +
+      ` (${annulus.why}).` +
+      ` Error estimate ${fmtReal(est, 2)}; parts below ${fmtReal(level, 2)} are shown as ≈ 0.`);
+    // Never hide disagreement: compare c₋₁ with the residue reported by the search.
+    const c1 = coeffs.find((t) => t.n === -1);
+    if (c1 && isFinitePair(c1.c) && isFinitePair(item.residue)) {
+      const diff = cAbs(cSub(c1.c, item.residue));
+      const allowed = Math.max(100 * (est + (Number.isFinite(item.error) ? item.error : 0)), 1e-9 * cAbs(item.residue), 1e-12);
+      if (diff > allowed) {
+        parts.warnings.append(el('li', { text: `The Laurent coefficient c₋₁ = ${fmtSig(c1.c, 10)} and the residue from the search, ${fmtSig(item.residue, 10)}, differ by ${fmtReal(diff, 2)}: trust neither until the cause is found (try a smaller region around the point).` }));
+      }
+    }
+    for (const w of Array.isArray(response.warnings) ? response.warnings : []) parts.warnings.append(el('li', { text: String(w) }));
+  }
+  if (exact) notes.push(`Residue error estimate ${fmtReal(item.error, 2)}.`);
+  parts.note.textContent = notes.join(' ');
+  parts.table.hidden = coeffs.length === 0;
+  for (const t of coeffs) {
+    const shown = isFinitePair(t.c) ? trimBelow(t.c, level) : t.c;
+    const tiny = isFinitePair(shown) && shown[0] === 0 && shown[1] === 0;
+    const td = tiny
+      ? el('td', { class: 'num dim', text: '≈ 0', title: `|c| = ${fmtReal(cAbs(t.c), 2)}, below the error level` })
+      : el('td', { class: 'num', title: 'Full precision: ' + fmtExact(t.c), text: fmtComplex(shown, 10) });
+    parts.body.append(el('tr', { 'data-n': t.n, 'data-c': JSON.stringify(t.c) }, el('td', { class: 'num', text: String(t.n).replace('-', '−') }), td));
+  }
 }
