@@ -314,7 +314,7 @@ fn combine(
                     let (lo, hi) = (a.radius.min(b.radius), a.radius.max(b.radius));
                     let ring = ring_text(req.center, center);
                     return Err(format!(
-                        "the coefficient c_{n} computed on {ring} = {} and on {ring} = {} disagree ({} vs {}): f probably has a singularity (or branch cut) with {} < {ring} < {} inside the requested annulus; narrow the annulus or pass the singular points in known_singularities",
+                        "the coefficient c_{n} computed on {ring} = {} and on {ring} = {} disagree ({} vs {}): f probably has a singularity (or branch cut) with {} < {ring} < {} inside the requested annulus, so it has no single Laurent series there; narrow the annulus to avoid it",
                         short(lo), short(hi), show(a.values[i]), show(b.values[i]), short(lo), short(hi)
                     ));
                 }
@@ -437,7 +437,7 @@ fn check_singularities(
 
 fn not_finite_message(z: C, center: C, rho: f64) -> String {
     format!(
-        "f is not finite at {} on the sampling circle |z − ({})| = {}; the annulus contains a singularity? Narrow the annulus or pass the singular points in known_singularities",
+        "f is not finite at {} on the sampling circle |z − ({})| = {}; the annulus seems to contain a singularity; narrow the annulus to avoid it",
         show(z),
         show(center),
         short(rho)

@@ -27,6 +27,15 @@ pub fn run(req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
     if matches!(center, Center::Point(_)) && !(outer > inner) {
         return Err(ApiError::new("\"outer\" must be larger than \"inner\" (or omitted for no limit)"));
     }
+    if let Center::Point(a) = center {
+        let h = hints(&f);
+        if let Some(b) = h.branch_candidates.iter().find(|b| (**b - a).norm() <= 1e-12 * a.norm().max(1.0)) {
+            return Err(ApiError::new(format!(
+                "f has a branch point at the centre {} (sqrt, log or a non-integer power), so it has no Laurent series there",
+                crate::singular::rational_poles::format_complex(*b + 0.0, 0.0)
+            )));
+        }
+    }
     let mut warnings = Vec::new();
     let mut budget = budget(None);
     let known = known_singularities(&f, center, inner, outer, &mut warnings, &mut budget);
