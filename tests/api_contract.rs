@@ -229,3 +229,14 @@ fn ill_conditioned_expansion_is_flagged_and_its_estimates_cover_the_error() {
     assert!(worst_ratio <= 1.0, "an estimate undercuts the error by a factor {worst_ratio}");
     assert!(worst_location < 1e-8 || warned, "poles moved by {worst_location:e} with no warning");
 }
+
+#[test]
+fn removable_points_of_general_functions_are_listed() {
+    // sin z / z → 1 as z → 0 (DLMF 4.14.1 series): removable, not a pole; zeros at ±π
+    let v = run(json!({"task": "singularities", "f": "sin(z)/z", "region": {"shape": "circle", "center": [0, 0], "radius": 4}}));
+    let removable = v["removable"].as_array().unwrap();
+    assert_eq!(removable.len(), 1, "{v}");
+    assert!(close(&removable[0]["at"], 0.0, 0.0, 1e-12));
+    assert!(v["poles"].as_array().unwrap().is_empty());
+    assert_eq!(v["zeros"].as_array().unwrap().len(), 2);
+}

@@ -2,7 +2,7 @@
 //! are expanded by hand (common practice: binomial expansion).
 
 use residuary::expr::rational::{eval, MAX_DEGREE};
-use residuary::expr::Function;
+use residuary::expr::{Analysis, Function};
 use residuary::C;
 
 fn r(x: f64) -> C {
@@ -166,8 +166,14 @@ fn analysis_candidates() {
     assert!(a.has_gamma && a.is_entire_transcendental_at_infinity);
     let a = fun("exp(-z)*(z+1)", "z", &[]).analysis().clone();
     assert!(a.is_entire_transcendental_at_infinity && !a.has_gamma);
+    // a rational function: nothing essential or branched; its denominator's zeros ±2i
+    // are pole candidates (quadratic formula; common practice)
     let a = fun("(z+1)/(z^2+4)", "z", &[]).analysis().clone();
-    assert_eq!(a, Default::default());
+    assert!(has(&a.pole_candidates, C::new(0.0, 2.0)) && has(&a.pole_candidates, C::new(0.0, -2.0)));
+    assert_eq!(Analysis { pole_candidates: Vec::new(), ..a }, Default::default());
+    // sin z / z and a negative power: 0 and 1 are where poles or removable points may sit
+    let a = fun("sin(z)/z + exp(z)*(z-1)^-2", "z", &[]).analysis().clone();
+    assert!(has(&a.pole_candidates, r(0.0)) && has(&a.pole_candidates, r(1.0)));
     let a = fun("z^(1/3)", "z", &[]).analysis().clone();
     assert!(a.uses_branch_functions && has(&a.branch_candidates, r(0.0)));
 }

@@ -31,6 +31,11 @@ pub struct Analysis {
     pub essential_candidate_polys: Vec<Vec<C>>,
     /// Polynomials (ascending coefficients) of degree > 2 whose roots are further branch candidates.
     pub branch_candidate_polys: Vec<Vec<C>>,
+    /// Zeros of denominators (and of bases raised to negative integer powers) that are
+    /// rational: points where f may have a pole or a removable singularity.
+    pub pole_candidates: Vec<C>,
+    /// Polynomials of degree > 2 whose roots are further pole candidates.
+    pub pole_candidate_polys: Vec<Vec<C>>,
     /// gamma is applied to a non-constant argument.
     pub has_gamma: bool,
     /// f contains exp/sin/…/gamma/k^(…) of an argument that is not rational with a finite
@@ -54,6 +59,9 @@ fn walk(e: &R, an: &mut Analysis, b: &mut RationalBuilder) -> Option<Rational> {
         R::Bin(op, x, y) => {
             let rx = walk(x, an, b);
             let ry = walk(y, an, b);
+            if let (BinOp::Div, Some(d)) = (op, &ry) {
+                add_roots(&d.num, &mut an.pole_candidates, &mut an.pole_candidate_polys);
+            }
             match op {
                 BinOp::Add => b.add(&rx?, &ry?),
                 BinOp::Sub => b.sub(&rx?, &ry?),
@@ -81,6 +89,9 @@ fn power(
     match (x.as_const(), y.as_const()) {
         (_, Some(k)) => {
             if let Some(n) = as_small_integer(k) {
+                if let (true, Some(r)) = (n < 0, &rx) {
+                    add_roots(&r.num, &mut an.pole_candidates, &mut an.pole_candidate_polys);
+                }
                 return b.powi(&rx?, n as i64);
             }
             // Non-integer constant power of a non-constant base.

@@ -134,13 +134,64 @@ fn cross_check(f: &Function, poles: &mut [PoleOut], all: &[C], warnings: &mut Ve
     }
 }
 
+/// Zeros of rational denominators inside the region that turned out to be
+/// neither poles nor zeros: classify them, and keep the removable ones
+/// (sin(z)/z at 0). The sampling search cannot see these: f is finite there.
+fn removable_points(
+    f: &Function,
+    region: &Contour,
+    found: &crate::singular::RegionResult,
+    hints: &crate::singular::Hints,
+    budget: &mut crate::budget::Budget,
+    warnings: &mut Vec<String>,
+) -> Vec<PointOut> {
+    let a = f.analysis();
+    let mut candidates = a.pole_candidates.clone();
+    for p in &a.pole_candidate_polys {
+        if let Ok((clusters, _)) = crate::poly::multiplicity::distinct_roots(p) {
+            candidates.extend(clusters.into_iter().map(|c| c.center));
+        }
+    }
+    let scale = region.size().max(f64::MIN_POSITIVE);
+    let known: Vec<C> = found
+        .poles
+        .iter()
+        .map(|p| p.at)
+        .chain(found.zeros.iter().map(|z| z.at))
+        .chain(found.essential.iter().copied())
+        .chain(found.branch_points.iter().copied())
+        .collect();
+    let mut out: Vec<PointOut> = Vec::new();
+    for z in candidates {
+        if inside(region, z) != Some(true) || known.iter().any(|k| (k - z).norm() <= 1e-8 * scale) {
+            continue;
+        }
+        if out.iter().any(|o| (C::new(o.at[0], o.at[1]) - z).norm() <= 1e-8 * scale) {
+            continue;
+        }
+        let eval = |w: C| f.eval(w);
+        match classify_point(&eval, z, hints, budget) {
+            Ok(r) if r.kind == Kind::Removable => {
+                out.push(PointOut { at: pair(z + C::new(0.0, 0.0)), residue: Some([0.0, 0.0]), error_estimate: None })
+            }
+            Ok(r) if r.kind == Kind::Pole || r.kind == Kind::Essential => warnings.push(format!(
+                "the search missed a {} at {} that the expression's denominator points to; check it with \"residue\"",
+                r.kind.name(),
+                format_complex(z, 0.0)
+            )),
+            _ => {}
+        }
+    }
+    out
+}
+
 fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Result<SingularitiesResponse, ApiError> {
     let hints = hints(f);
     let mut budget = budget(max_evaluations);
     let eval = |z: C| f.eval(z);
     let eval_d = |z: C| f.eval_d(z);
     let found = find_singularities(&eval, &eval_d, region, &hints, &mut budget).map_err(ApiError::new)?;
-    let mut warnings = found.warnings;
+    let mut warnings = found.warnings.clone();
     let mut essential = Vec::new();
     for &z in &found.essential {
         let residue = classify_point(&eval, z, &hints, &mut budget)
@@ -153,6 +204,7 @@ fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Resu
             error_estimate: residue.map(|(_, e)| e),
         });
     }
+    let removable = removable_points(f, region, &found, &hints, &mut budget, &mut warnings);
     let residue_at_infinity = match classify_infinity(&eval, &hints, &mut budget) {
         Ok(r) => {
             warnings.extend(r.warnings.into_iter().map(|w| format!("at infinity: {w}")));
@@ -178,7 +230,7 @@ fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Resu
         zeros: found.zeros.iter().map(|z| ZeroOut { at: pair(z.at), order: z.order }).collect(),
         essential,
         branch_points: found.branch_points.iter().map(|&z| PointOut { at: pair(z), residue: None, error_estimate: None }).collect(),
-        removable: Vec::new(),
+        removable,
         residue_at_infinity,
         residue_sum_defect: None,
         // null where a branch cut crossing the boundary made the count impossible
