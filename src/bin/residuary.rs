@@ -4,7 +4,7 @@
 //! stdout (exit 2 on an error response); `residuary plot` writes a phase-plot PNG.
 
 use residuary::api::{self, FunctionInput, Number, PhasePlotRequest, PlotOptionsInput};
-use std::io::Read;
+use std::io::{Read, Write};
 use std::process::exit;
 
 const HELP: &str = "\
@@ -60,7 +60,8 @@ fn json() {
         fail(&format!("could not read standard input: {e}"));
     }
     let (out, is_error) = api::run_json_text(&text);
-    println!("{out}");
+    // A closed pipe (`| head`) is not worth a panic message.
+    let _ = writeln!(std::io::stdout(), "{out}");
     if is_error {
         exit(2);
     }
