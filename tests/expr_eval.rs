@@ -348,29 +348,3 @@ fn non_finite_inputs_do_not_panic() {
         let _ = fun.eval_d(z);
     }
 }
-
-#[test]
-#[ignore = "timing only: cargo test --release --test expr_eval -- --ignored --nocapture"]
-fn block_speed() {
-    let fun = f("(z^3 - 2z + 1)/(z^2 + 0.4z + 4) * exp(-z/5)");
-    let zs: Vec<C> = (0..1_000_000)
-        .map(|k| {
-            C::new(
-                (k % 1000) as f64 * 0.01 - 5.0,
-                (k / 1000) as f64 * 0.01 - 5.0,
-            )
-        })
-        .collect();
-    let mut out = vec![C::new(0.0, 0.0); zs.len()];
-    let t = std::time::Instant::now();
-    fun.eval_block(&zs, &mut out);
-    let block = t.elapsed();
-    let t = std::time::Instant::now();
-    let mut acc = C::new(0.0, 0.0);
-    for z in &zs {
-        acc += fun.eval(*z);
-    }
-    let scalar = t.elapsed();
-    eprintln!("1e6 points: block {block:?}, scalar {scalar:?} ({acc})");
-    assert!(out.iter().all(|v| v.re.is_finite()));
-}
