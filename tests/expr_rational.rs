@@ -15,7 +15,7 @@ fn fun(src: &str, var: &str, params: &[(String, C)]) -> Function {
 
 #[test]
 fn product_of_linear_factors() {
-    // (s+1)(s+2) = s^2 + 3s + 2
+    // (s+1)(s+2) = s^2 + 3s + 2 (by hand)
     let f = fun("(s+1)(s+2)", "s", &[]);
     let q = f.rational().expect("rational");
     assert_eq!(q.num, vec![r(2.0), r(3.0), r(1.0)]);
@@ -24,7 +24,7 @@ fn product_of_linear_factors() {
 
 #[test]
 fn second_order_low_pass_with_parameters() {
-    // wn^2/(s^2 + 2 zeta wn s + wn^2) with wn = 3, zeta = 0.25
+    // wn^2/(s^2 + 2 zeta wn s + wn^2) with wn = 3, zeta = 0.25: 9/(s^2 + 1.5 s + 9) (by hand)
     let params = vec![("wn".to_string(), r(3.0)), ("zeta".to_string(), r(0.25))];
     let f = fun("wn^2/(s^2+2*zeta*wn*s+wn^2)", "s", &params);
     let q = f.rational().expect("rational");
@@ -34,7 +34,7 @@ fn second_order_low_pass_with_parameters() {
 
 #[test]
 fn negative_integer_power() {
-    // (z-1)^-2 = 1/(z^2 - 2z + 1)
+    // (z-1)^-2 = 1/(z^2 - 2z + 1) (binomial expansion by hand)
     let q = fun("(z-1)^-2", "z", &[])
         .rational()
         .cloned()
@@ -52,14 +52,15 @@ fn sums_of_fractions() {
         .unwrap();
     assert_eq!(q.num, vec![r(3.0)]);
     assert_eq!(q.den, vec![r(-1.0), r(1.0)]);
-    // 1/(z-1) + 1/(z+1) = 2z/(z^2-1)
+    // 1/(z-1) + 1/(z+1) = 2z/(z^2-1) (by hand)
     let q = fun("1/(z-1)+1/(z+1)", "z", &[])
         .rational()
         .cloned()
         .unwrap();
     assert_eq!(q.num, vec![r(0.0), r(2.0)]);
     assert_eq!(q.den, vec![r(-1.0), r(0.0), r(1.0)]);
-    // a partial-fraction style sum with complex constants agrees with direct evaluation
+    // property: a partial-fraction style sum with complex constants, once combined,
+    // agrees with direct evaluation
     let src = "(2+i)/(z-1) - 3/(z+2i)^2 + z^3/4 + exp(1)";
     let f = fun(src, "z", &[]);
     let q = f.rational().unwrap();
@@ -83,7 +84,7 @@ fn constants_and_polynomials() {
     let q = fun("z/2 + sqrt(4)", "z", &[]).rational().cloned().unwrap();
     assert_eq!(q.num, vec![r(2.0), r(0.5)]);
     assert_eq!(q.den, vec![r(1.0)]);
-    // (1+z)^5 binomial coefficients 1 5 10 10 5 1
+    // (1+z)^5 binomial coefficients 1 5 10 10 5 1 (binomial theorem, common practice)
     let q = fun("(1+z)^5", "z", &[]).rational().cloned().unwrap();
     assert_eq!(q.num, [1.0, 5.0, 10.0, 10.0, 5.0, 1.0].map(r).to_vec());
 }

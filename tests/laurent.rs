@@ -215,13 +215,14 @@ fn damped_resonator_moments() {
     let h = move |s: C| w0 * w0 / (s * s + 2.0 * zeta * w0 * s + w0 * w0);
     // Coefficients grow like |pole|^{−n} = 2^{−n}; allow estimates relative to size 1.
     let r = run_case("resonator", h, &poles, 1e-10);
-    // DC gain H(0) = 1 (common practice)
+    // DC gain H(0) = ω0²/ω0² = 1 (common practice)
     assert!((r.coefficients[0].1 - C::new(1.0, 0.0)).norm() < 1e-15);
 }
 
 #[test]
 fn negative_and_nonnegative_ranges_use_different_circles() {
-    // Middle annulus 1 < |z| < 3: n ≥ 0 prefer a large circle, n < 0 a small one (Bornemann 2011).
+    // Property: in the middle annulus 1 < |z| < 3, n ≥ 0 prefer a large circle and n < 0 a
+    // small one (rounding is amplified by ρ^{−n}; Bornemann 2011, Found. Comput. Math.).
     let c = case("rational_middle");
     let mut b = Budget::default();
     let r = laurent(
@@ -375,6 +376,7 @@ fn naive_dft(f: impl Fn(C) -> C, a: C, rho: f64, n_samples: usize, from: i64, to
 
 #[test]
 fn fft_kernel_matches_naive_dft() {
+    // Slow reference: the O(N²) sum above on the same samples (must agree to rounding).
     let f = |z: C| (z.sin() + 1.0) / ((z - C::new(0.3, 2.0)) * (z + 0.1));
     let (a, rho, n) = (C::new(0.2, -0.1), 0.8, 256);
     let mut b = Budget::default();

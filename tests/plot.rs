@@ -81,6 +81,7 @@ fn srgb_transfer_function() {
 
 #[test]
 fn oklab_round_trips() {
+    // Property: forward and inverse transforms compose to the identity.
     for r in 0..=10 {
         for g in 0..=10 {
             for b in 0..=10 {
@@ -104,6 +105,8 @@ fn oklab_round_trips() {
 
 #[test]
 fn max_chroma_is_gamut_boundary() {
+    // Property: just inside the returned chroma is in gamut, just outside is not
+    // (sRGB gamut = [0, 1]³ in linear light, IEC 61966-2-1).
     for k in 0..36 {
         let h = k as f64 * PI / 18.0;
         let c = max_in_gamut_chroma(0.6, h);
@@ -149,7 +152,7 @@ fn oklch_wheel_in_gamut_with_margin() {
         OKLCH_CHROMA < 0.97 * min_cmax && OKLCH_CHROMA > 0.90 * min_cmax,
         "{min_cmax}"
     );
-    // Documented convention: arg 0 has OKLCH hue 55° (a soft orange).
+    // Property: our documented design convention, arg 0 has OKLCH hue 55° (a soft orange).
     let lch = oklab_to_oklch(srgb_to_oklab(wheel_srgb(Wheel::Oklch, 0.0)));
     assert!((lch[2] - OKLCH_HUE_AT_ARG_ZERO).abs() < 1e-6);
     assert!((lch[2].to_degrees() - 55.0).abs() < 1e-4);
@@ -195,8 +198,9 @@ fn oklch_wheel_is_perceptually_even_hsv_is_not() {
     assert!(oklch < 1.01, "OKLCH ratio {oklch}");
     // HSV hue circle: steps differ by a large factor (fast through blue-magenta... slow near green).
     let hsv = step_ratio(Wheel::Hsv, 1024);
-    assert!(hsv > 10.0, "HSV ratio {hsv}"); // measured ≈ 37
-                                            // Quantised LUT, compared 32 entries apart (ΔE ≈ 0.024 ≫ u8 rounding):
+    // measured ≈ 37 (our own measurement; property: far from even)
+    assert!(hsv > 10.0, "HSV ratio {hsv}");
+    // Quantised LUT, compared 32 entries apart (ΔE ≈ 0.024 ≫ u8 rounding):
     let t = lut(Wheel::Oklch);
     let labs: Vec<Triple> = (0..=LUT_SIZE / 32)
         .map(|k| srgb_to_oklab(t[(k * 32) % LUT_SIZE].map(|v| v as f64 / 255.0)))
@@ -371,6 +375,7 @@ fn special_values_are_marked_and_never_crash() {
 
 #[test]
 fn row_bands_equal_full_render() {
+    // Slow reference: the full render in one call; every band must equal its rows exactly.
     let (w, h) = (97u32, 61u32);
     let view = View {
         x0: -2.0,
@@ -437,8 +442,9 @@ fn modulus_and_phase_lines_sit_on_their_levels_at_any_resolution() {
         let mut out = vec![0u8; (n * n * 4) as usize];
         render(&mut pointwise(|z| z), view, n, n, &opts, &mut out).unwrap();
         let d = 4.0 / n as f64;
-        let mid = n / 2; // pixel row through y = 0
-                         // |f| = 1 crosses the positive real axis at x = 1.
+        // pixel row through y = 0
+        let mid = n / 2;
+        // |f| = 1 crosses the positive real axis at x = 1 (f = z; by hand).
         let lo = ((2.7 / d) as u32, (3.3 / d) as u32); // x in 0.7..1.3
         let (i, s) = darkest(&out, n, mid, lo.0..lo.1);
         let x = -2.0 + (i as f64 + 0.5) * d;
@@ -618,9 +624,10 @@ fn legend_ring_shows_the_wheel() {
     for wheel in [Wheel::Oklch, Wheel::Hsv] {
         let img = legend_ring(n, wheel).unwrap();
         assert_eq!(img.len(), (n * n * 4) as usize);
-        assert_eq!(px(&img, n, 32, 32)[3], 0); // centre hole
-        assert_eq!(px(&img, n, 0, 0)[3], 0); // corner
-                                             // right of centre, inside the ring: arg of that pixel centre
+        // centre hole and corner are transparent
+        assert_eq!(px(&img, n, 32, 32)[3], 0);
+        assert_eq!(px(&img, n, 0, 0)[3], 0);
+        // right of centre, inside the ring: arg of that pixel centre
         let (i, j) = (58u32, 31u32);
         let (x, y) = (i as f64 + 0.5 - 32.0, 32.0 - (j as f64 + 0.5));
         let p = px(&img, n, i, j);

@@ -52,7 +52,8 @@ fn fixtures_poles_residues_principal_parts() {
                 "{name} at {at}: location off {loc} > {}",
                 got.location_error
             );
-            // targets: simple poles 1e-12 relative, order ≤ 4 1e-9 relative (to the largest coefficient)
+            // our accuracy targets: simple poles 1e-12 relative, order ≤ 4 1e-9 relative
+            // (to the largest coefficient)
             let target = if order == 1 { 1e-12 } else { 1e-9 };
             for (k, w) in pp.iter().enumerate() {
                 let err = (got.principal_part[k] - w).norm();
@@ -67,7 +68,7 @@ fn fixtures_poles_residues_principal_parts() {
                     "{name} at {at}, c_-{}: error {err:e}",
                     k + 1
                 );
-                // the estimate is not absurdly pessimistic
+                // property: the estimate is not absurdly pessimistic
                 assert!(
                     est <= 1e-6 * scale,
                     "{name} at {at}, c_-{}: estimate {est:e}",
@@ -75,6 +76,7 @@ fn fixtures_poles_residues_principal_parts() {
                 );
                 checked += 1;
             }
+            // property: the residue is c₋₁, the first principal-part coefficient
             assert_eq!(got.residue, got.principal_part[0]);
         }
         // residue at infinity (residue theorem at 40 digits) and the defect
@@ -200,7 +202,7 @@ fn residue_at_infinity_cases() {
         partial_fractions_string(&a, "s"),
         "s^2 + 2*s + 4 + 8/(s - 2)"
     );
-    // zero of order 3 at the origin in the numerator, pole at 0 of order 0 ⇒ a zero, not a pole
+    // z³ in the numerator, no factor z in the denominator ⇒ a zero of order 3 at 0 (by hand)
     assert_eq!(a.zeros.len(), 1);
     assert_eq!((a.zeros[0].at, a.zeros[0].order), (c(0.0, 0.0), 3));
 }
@@ -224,6 +226,7 @@ fn partial_cancellation_lowers_the_order() {
 fn string_uses_compact_numbers_and_signs() {
     // 1/(s² + 4) = (−0.25i)/(s − 2i) + (0.25i)/(s + 2i)  (partial fractions by hand)
     let a = analyse_rational(&[c(1.0, 0.0)], &[c(4.0, 0.0), c(0.0, 0.0), c(1.0, 0.0)]).unwrap();
+    // property: compact number format and signs, poles ordered (the values are by hand)
     assert_eq!(
         partial_fractions_string(&a, "s"),
         "0.25i/(s + 2i) - 0.25i/(s - 2i)"
@@ -232,6 +235,7 @@ fn string_uses_compact_numbers_and_signs() {
 
 #[test]
 fn errors_and_limits() {
+    // Refusals and edge cases; values by hand.
     assert!(analyse_rational(&[c(1.0, 0.0)], &[c(0.0, 0.0)]).is_err());
     assert!(analyse_rational(&[c(f64::NAN, 0.0)], &[c(1.0, 0.0), c(1.0, 0.0)]).is_err());
     let big = vec![c(1.0, 0.0); 6000];

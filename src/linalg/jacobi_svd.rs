@@ -134,8 +134,8 @@ pub fn smallest_right_singular_vector(a: Columns, m: usize) -> (Vec<C>, f64) {
 mod tests {
     use super::*;
 
-    /// Slow reference: the residual ‖A v‖ of the returned vector must equal
-    /// the smallest singular value, and no random unit vector may do better.
+    /// Property: the residual ‖A v‖ of the returned vector must equal the
+    /// returned smallest singular value, and no random unit vector may do better.
     #[test]
     fn smallest_vector_minimises_residual() {
         let m = 12;
@@ -166,5 +166,52 @@ mod tests {
             let x: Vec<C> = x.iter().map(|z| z / xn).collect();
             assert!(apply(&x) >= smin - 1e-12);
         }
+    }
+
+    /// Householder reflector I − 2uuᴴ/(uᴴu) as columns: unitary by construction.
+    fn reflector(u: &[C]) -> Columns {
+        let uu: f64 = u.iter().map(|x| x.norm_sqr()).sum();
+        (0..u.len())
+            .map(|j| {
+                (0..u.len())
+                    .map(|i| {
+                        let delta = if i == j { 1.0 } else { 0.0 };
+                        C::new(delta, 0.0) - u[i] * u[j].conj() * (2.0 / uu)
+                    })
+                    .collect()
+            })
+            .collect()
+    }
+
+    /// Slow reference by construction: A = U Σ Vᴴ with unitary reflectors U, V and
+    /// chosen Σ has singular values Σ and right singular vectors the columns of V
+    /// (definition of the SVD, any linear-algebra text), so the smallest pair is known.
+    #[test]
+    fn recovers_a_constructed_smallest_singular_pair() {
+        let (m, n) = (9, 5);
+        let sigma = [3.0, 1.5, 0.7, 1e-3, 0.2];
+        let u: Vec<C> = (0..m)
+            .map(|i| C::new(0.3 + i as f64 * 0.17, (i as f64 * 1.3).sin()))
+            .collect();
+        let w: Vec<C> = (0..n)
+            .map(|j| C::new((j as f64 * 0.7).cos(), 0.2 * j as f64 - 0.4))
+            .collect();
+        let (uu, vv) = (reflector(&u), reflector(&w));
+        // A[:, j] = Σ_k U[:, k] σ_k conj(V[j, k])
+        let a: Columns = (0..n)
+            .map(|j| {
+                (0..m)
+                    .map(|i| (0..n).map(|k| uu[k][i] * sigma[k] * vv[k][j].conj()).sum())
+                    .collect()
+            })
+            .collect();
+        let (v, smin) = smallest_right_singular_vector(a, m);
+        assert!(
+            (smin - 1e-3).abs() < 1e-13,
+            "smallest singular value {smin}"
+        );
+        // |⟨v, V[:, 3]⟩| = 1 up to rounding (the vector is defined up to a phase)
+        let overlap: C = (0..n).map(|i| vv[3][i].conj() * v[i]).sum();
+        assert!((overlap.norm() - 1.0).abs() < 1e-12, "overlap {overlap}");
     }
 }

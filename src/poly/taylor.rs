@@ -108,7 +108,7 @@ mod tests {
 
     #[test]
     fn reciprocal_of_one_minus_t_is_geometric() {
-        // 1/(1 − t) = Σ t^k (geometric series)
+        // 1/(1 − t) = Σ t^k (geometric series, common practice)
         let r = reciprocal(&[c(1.0), c(-1.0)], 6).unwrap();
         assert!(r.iter().all(|x| *x == c(1.0)));
     }

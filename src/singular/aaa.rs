@@ -217,7 +217,8 @@ mod tests {
     }
 
     /// A second-order low-pass response (our scenario) sampled on |z| = 2:
-    /// exact rational, so AAA must recover its poles and zero (common practice).
+    /// exact rational of type (1, 2), so AAA must recover its poles and zero;
+    /// the reference is the closed form by construction (common practice).
     #[test]
     fn recovers_poles_and_zero_of_a_rational_response() {
         let p1 = C::new(-0.3, 0.9);

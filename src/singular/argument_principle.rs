@@ -161,13 +161,66 @@ mod tests {
 
     #[test]
     fn counts_a_filter_response() {
-        // (z - 0.5)^2 / ((z + 0.3i)(z - 2)) inside |z| < 1: 2 zeros, 1 pole. // common practice (argument principle)
+        // (z - 0.5)^2 / ((z + 0.3i)(z - 2)) inside |z| < 1: 2 zeros, 1 pole, so N − P = 1
+        // (argument principle; count by hand from the factors, common practice)
         let f = |z: C| (z - 0.5) * (z - 0.5) / ((z + C::new(0.0, 0.3)) * (z - 2.0));
         let mut b = Budget::new(1_000_000);
         assert_eq!(
             count_by_argument_principle(&f, &Contour::circle(C::new(0.0, 0.0), 1.0), &mut b),
             Ok(1)
         );
+    }
+
+    /// Slow reference: the change of arg f over 200 000 equal parameter steps per
+    /// piece, each step's change taken as arg(f(b)/f(a)) (common practice; the
+    /// steps are far finer than the distance of any zero or pole to the curves).
+    fn count_by_sampling(f: &dyn Fn(C) -> C, contour: &Contour) -> i64 {
+        let mut total = 0.0;
+        for piece in contour.pieces() {
+            let n = 200_000;
+            for k in 0..n {
+                let a = f(piece.point(k as f64 / n as f64));
+                let b = f(piece.point((k + 1) as f64 / n as f64));
+                total += (b / a).arg();
+            }
+        }
+        (total / (2.0 * PI)).round() as i64
+    }
+
+    #[test]
+    fn adaptive_count_matches_dense_sampling() {
+        // zeros 0.5 (double), 0.2i, −1.5 + 0.5i; poles −0.3i, 2, 0.7 + 0.4i (triple)
+        let f = |z: C| {
+            (z - 0.5) * (z - 0.5) * (z - C::new(0.0, 0.2)) * (z - C::new(-1.5, 0.5))
+                / ((z + C::new(0.0, 0.3)) * (z - 2.0) * (z - C::new(0.7, 0.4)).powi(3))
+        };
+        let shapes = [
+            Contour::circle(C::new(0.0, 0.0), 1.0),
+            Contour::circle(C::new(0.0, 0.0), 3.0),
+            Contour::rectangle(C::new(-2.0, -1.0), C::new(1.0, 1.0)),
+            Contour::Ellipse {
+                center: [0.5, 0.0],
+                semi_axes: [1.2, 0.35],
+                angle: 0.3,
+            },
+            Contour::Polygon {
+                vertices: vec![[0.1, 0.1], [0.1, 0.9], [0.9, 0.9], [0.9, 0.1]],
+            },
+        ];
+        let mut b = Budget::new(10_000_000);
+        let mut counts = Vec::new();
+        for s in &shapes {
+            let slow = count_by_sampling(&f, s);
+            assert_eq!(
+                count_by_argument_principle(&f, s, &mut b),
+                Ok(slow),
+                "{s:?}"
+            );
+            counts.push(slow);
+        }
+        // by hand from the factors: 3 − 4 = −1 in |z| < 1, 4 − 5 = −1 in |z| < 3, 4 − 4 = 0
+        // in the rectangle, and −(0 − 3) = 3 for the clockwise square around the triple pole
+        assert_eq!((counts[0], counts[1], counts[2], counts[4]), (-1, -1, 0, 3));
     }
 
     #[test]

@@ -112,6 +112,7 @@ mod tests {
         // Principal sqrt has its cut on the negative real axis (common practice).
         let s = scan_for_jumps(&|z: C| z.sqrt(), C::new(0.0, 0.0), 0.5, 256, &mut b).unwrap();
         assert_eq!(s.jumps.len(), 1);
+        // the cut (−∞, 0] meets the circle |z| = 0.5 at angle π (by hand)
         assert!((s.jumps[0] - PI).abs() < 1e-6);
         // A pole just outside the circle: steep but continuous.
         let p = C::new(0.5 + 1e-3, 0.0);

@@ -483,7 +483,8 @@ mod tests {
 
     #[test]
     fn string_form_of_a_small_example() {
-        // 2 + 0.5/(z − 1) − (0.25 + i)/(z + 2i)^2, combined by hand into num/den; poles print sorted by real part.
+        // 2 + 0.5/(z − 1) − (0.25 + i)/(z + 2i)^2 by construction (combined into num/den here);
+        // property: the printed form gives back the terms, poles sorted by real part.
         let one = c(1.0, 0.0);
         let den = from_roots(one, &[one, c(0.0, -2.0), c(0.0, -2.0)]);
         let zp2i = from_roots(one, &[c(0.0, -2.0), c(0.0, -2.0)]);

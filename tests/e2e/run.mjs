@@ -153,7 +153,7 @@ describe('the page with the real core', () => {
     // residue at p1: ωn²/(p1 − p2) = ωn²/(2i·ωn√(1−ζ²)) (common practice: simple pole, N/D')
     const upper = rows.find((r) => r.at[1] > 0);
     assert.ok(Math.abs(upper.residue[0]) < 1e-12 && Math.abs(upper.residue[1] + wn * wn / (2 * im)) < 1e-9);
-    // the table shows 10 significant digits and fits its column
+    // the table shows 10 significant digits and fits its column: Im p = 2√0.91 = 1.9078784028… (by hand)
     assert.match(await b.page.textContent('#sing-body'), /1\.907878403i/);
     assert.equal(await b.page.evaluate(() => { const w = document.querySelector('.table-wrap'); return w.scrollWidth <= w.clientWidth + 1; }), true, 'the table overflows');
     // transfer-function reading with the caution, for the variable s
@@ -306,11 +306,12 @@ describe('the page with the real core', () => {
       assert.ok(kinds.includes('pole'), `${title}: no pole found (${kinds})`);
       assert.equal(await b.page.isHidden('#demo-description'), false);
     }
-    // the gamma function is not rational: the numerical path, with residues (−1)^n/n! (DLMF 5.2.1 and 5.5.1)
+    // the gamma function is not rational: the numerical path, with residues (−1)^n/n! at −n (DLMF §5.2(i))
     await pickDemo(b.page, 'Gamma');
     await searchDone(b.page);
     assert.match(await b.page.textContent('#find-status'), /numerical/);
     const rows = await b.page.$$eval('#sing-body tr[data-index]', (trs) => trs.map((t) => ({ at: JSON.parse(t.dataset.at), residue: JSON.parse(t.dataset.residue) })));
+    assert.equal(rows.length, 6, `expected the poles 0 … −5, got ${rows.length}`);
     for (const r of rows) {
       const n = Math.round(-r.at[0]);
       let fact = 1;
