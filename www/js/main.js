@@ -12,6 +12,7 @@ import {
   regionContour, regionProblem, regionWords, itemsOf, stabilityReading, KIND_WORDS, searchSingularities, cancelHeavy,
   fillTable, highlightRow, laurentRadius, requestLaurent, showDetail,
 } from './singularities.js';
+import { requestContourIntegral, requestArgumentCount, showContourIntegral, showArgumentCount, contourStatus } from './contour.js';
 
 const state = loadState();
 const ui = {
@@ -24,6 +25,8 @@ const ui = {
   pfWarnings: $('pf-warnings'), plotDescription: $('plot-description'),
   detail: { box: $('detail'), title: $('detail-title'), math: $('detail-math'), note: $('detail-note'), body: $('laurent-body'),
     warnings: $('detail-warnings'), table: $('laurent-table') },
+  ci: { box: $('ci-box'), contour: $('ci-contour'), status: $('ci-status'), result: $('ci-result'), value: $('ci-value'),
+    ways: $('ci-ways'), verdict: $('ci-verdict'), count: $('ci-count'), warnings: $('ci-warnings') },
 };
 
 let exprOk = false;           // the last check found no error in the function
@@ -53,7 +56,7 @@ const plot = createPlot(ui.canvas, {
     state.view = view;
     if (!state.infinity) lastZView = view.slice();
     persist();
-    if (state.region.mode === 'view') { fillRegionFields(); autoSearchSoon(1000); }
+    if (state.region.mode === 'view') { fillRegionFields(); regionMoved(); autoSearchSoon(1000); }
     describePlot();
   },
   onPointer: (p) => readoutAt(p),
@@ -134,6 +137,7 @@ function markResultsStale() {
   if (plot.markers.length) { plot.markers = []; plot.selected = -1; plot.draw(); }
   ui.canvas.dataset.markers = '0';
   ui.detail.box.hidden = true;
+  if (ui.ci.box.dataset.state !== 'none') contourStatus(ui.ci, 'The function changed: the contour integral is computed again with the next search.', 'stale');
 }
 
 /** Once the function is no longer the chosen example's, the example's name and text go. */
@@ -202,6 +206,12 @@ function fillRegionFields() {
   plot.region = state.region.mode === 'view' ? null : currentContour();
 }
 
+/** The contour no longer matches the shown integral: say so until the next search. */
+function regionMoved() {
+  const st = ui.ci.box.dataset.state;
+  if (st === 'done' || st === 'error') contourStatus(ui.ci, 'The region changed: the integral below is for the contour named above; search again to update it.', 'stale');
+}
+
 const autoSearch = debounce(() => { if (state.autoFind) findSingularities(); }, 700);
 function autoSearchSoon() { if (state.autoFind) autoSearch(); }
 
@@ -220,14 +230,16 @@ async function findSingularities() {
   ui.cancel.disabled = false;
   ui.findStatus.textContent = 'Searching…';
   ui.findStatus.className = 'find-status busy';
+  if (ui.ci.box.dataset.state !== 'none') contourStatus(ui.ci, 'Waiting for the search…', 'stale');
   const resp = await searchSingularities(base, contour);
   if (serial !== searchSerial) return;
-  ui.find.disabled = false;
-  ui.cancel.disabled = true;
   ui.findStatus.className = 'find-status';
   const err = responseError(resp);
   if (err) {
+    ui.find.disabled = false;
+    ui.cancel.disabled = true;
     ui.findStatus.textContent = err.message === 'cancelled' ? 'Search stopped.' : 'Search failed: ' + err.message;
+    contourStatus(ui.ci, 'Not computed: the search did not finish.', 'stale');
     return;
   }
   $('sing-table').classList.remove('stale');
@@ -262,6 +274,16 @@ async function findSingularities() {
     readingOpenNext = null;
     ui.stabilityBox.dataset.var = base.var;
   }
+  // The contour integral three ways, then the argument-principle count (still cancellable by Stop).
+  contourStatus(ui.ci, 'Computing the contour integral three ways…', 'busy');
+  const ci = await requestContourIntegral(base, contour);
+  if (serial !== searchSerial) return;
+  showContourIntegral(ui.ci, base.var, contour, state.region.mode === 'view', ci);
+  const count = await requestArgumentCount(base, contour);
+  if (serial !== searchSerial) return;
+  showArgumentCount(ui.ci, count);
+  ui.find.disabled = false;
+  ui.cancel.disabled = true;
   // Partial fractions, shown only when f is rational (the task answers).
   const pf = await runHeavy(Object.assign({}, base, { task: 'partial_fractions' }));
   if (serial !== searchSerial) return;
@@ -388,6 +410,7 @@ for (const radio of document.querySelectorAll('input[name=region-mode]')) {
     if (radio.value === 'rect' && state.region.mode === 'view') state.region.rect = (state.infinity ? lastZView : state.view).slice();
     state.region.mode = radio.value;
     fillRegionFields();
+    regionMoved();
     plot.draw();
     persist();
     autoSearchSoon();
@@ -403,6 +426,7 @@ const regionTyped = () => {
   const circle = ['circ-x', 'circ-y', 'circ-r'].map(num);
   if (circle.every(Number.isFinite)) state.region.circle = circle;
   fillRegionFields();
+  regionMoved();
   plot.draw();
   persist();
   autoSearchSoon();
@@ -419,6 +443,7 @@ ui.cancel.addEventListener('click', async () => {
   ui.find.disabled = false;
   ui.findStatus.className = 'find-status';
   ui.findStatus.textContent = 'Search stopped.';
+  if (ui.ci.box.dataset.state === 'busy') contourStatus(ui.ci, 'Stopped before the contour integral finished.', 'stale');
   await cancelHeavy();
 });
 ui.autoFind.addEventListener('change', () => { state.autoFind = ui.autoFind.checked; persist(); });

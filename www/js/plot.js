@@ -148,27 +148,50 @@ export function createPlot(canvas, hooks) {
     ctx.restore();
   }
 
+  /** The region's boundary: the contour of the contour integral, a thin outline with small
+   *  arrowheads showing its counter-clockwise direction (dark with a light edge, so it reads on any colour). */
   function drawRegion() {
     const r = plot.region;
     if (!r || plot.infinityMode) return;
+    const arrows = []; // [x, y, dx, dy] on the screen: a point on the outline and the direction of travel
     ctx.save();
-    ctx.setLineDash([6, 4]);
-    ctx.lineWidth = 1.5;
-    ctx.strokeStyle = 'rgba(20,20,20,0.85)';
     ctx.beginPath();
     if (r.shape === 'rectangle') {
       const [[ax, ay], [bx, by]] = r.corners;
-      const [sx0, sy0] = toScreen(Math.min(ax, bx), Math.max(ay, by));
-      const [sx1, sy1] = toScreen(Math.max(ax, bx), Math.min(ay, by));
+      const [sx0, sy0] = toScreen(Math.min(ax, bx), Math.max(ay, by)); // top left
+      const [sx1, sy1] = toScreen(Math.max(ax, bx), Math.min(ay, by)); // bottom right
       ctx.rect(sx0, sy0, sx1 - sx0, sy1 - sy0);
+      const mx = (sx0 + sx1) / 2, my = (sy0 + sy1) / 2;
+      // Counter-clockwise in the plane: along the bottom to the right, up the right side, ...
+      arrows.push([mx, sy1, 1, 0], [sx1, my, 0, -1], [mx, sy0, -1, 0], [sx0, my, 0, 1]);
     } else if (r.shape === 'circle') {
       const [sx, sy] = toScreen(r.center[0], r.center[1]);
-      ctx.arc(sx, sy, r.radius / plot.scale, 0, 2 * Math.PI);
+      const rad = r.radius / plot.scale;
+      ctx.arc(sx, sy, rad, 0, 2 * Math.PI);
+      for (const t of [Math.PI / 4, (3 * Math.PI) / 4, (5 * Math.PI) / 4, (7 * Math.PI) / 4]) {
+        // the point at angle t in the plane, and the tangent (−sin t, cos t), with y flipped
+        arrows.push([sx + rad * Math.cos(t), sy - rad * Math.sin(t), -Math.sin(t), -Math.cos(t)]);
+      }
     }
+    ctx.lineWidth = 3;
+    ctx.strokeStyle = 'rgba(255,255,255,0.75)';
     ctx.stroke();
-    ctx.strokeStyle = 'rgba(255,255,255,0.8)';
-    ctx.lineDashOffset = 5;
+    ctx.lineWidth = 1.25;
+    ctx.strokeStyle = 'rgba(15,15,15,0.9)';
     ctx.stroke();
+    const size = 6;
+    for (const [x, y, dx, dy] of arrows) {
+      ctx.beginPath();
+      ctx.moveTo(x + dx * size, y + dy * size);
+      ctx.lineTo(x - dx * size - dy * size * 0.75, y - dy * size + dx * size * 0.75);
+      ctx.lineTo(x - dx * size + dy * size * 0.75, y - dy * size - dx * size * 0.75);
+      ctx.closePath();
+      ctx.fillStyle = 'rgba(15,15,15,0.9)';
+      ctx.lineWidth = 1.5;
+      ctx.strokeStyle = 'rgba(255,255,255,0.85)';
+      ctx.stroke();
+      ctx.fill();
+    }
     ctx.restore();
   }
 

@@ -1,0 +1,154 @@
+// The contour-integral block: ∮ f around the region's boundary, computed by the
+// core three independent ways (residues inside; residues outside and at
+// infinity; direct quadrature), each shown with its error estimate, and any
+// disagreement between them shown in a warning style, never hidden. Also the
+// argument-principle count of zeros and poles inside the contour.
+import { el, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, isFinitePair, responseError } from './util.js';
+import { runHeavy } from './engine.js';
+
+/** The three ways, in the order shown; `key` is the response field suffix. */
+const WAYS = [
+  { key: 'inside_residues', name: 'Residues inside', how: '2πi × Σ (winding × residue) over the points inside' },
+  { key: 'outside_residues', name: 'Residues outside and at infinity', how: '−2πi × (Σ residues outside + residue at ∞)' },
+  { key: 'quadrature', name: 'Quadrature along the contour', how: 'the integral summed numerically along the path' },
+];
+
+/** Which warning explains why a way is missing (the core's own words). */
+const REASON_PATTERNS = {
+  inside_residues: [/residue theorem does not apply/i, /inside residues/i, /inside/i],
+  outside_residues: [/outside residues/i, /outside-residue/i, /outside/i],
+  quadrature: [/quadrature/i],
+};
+
+/** The contour in words: its shape, where it lies and its direction. */
+export function contourWords(variable, contour, isView) {
+  const v = variable;
+  if (contour.shape === 'circle') {
+    const [cx, cy] = contour.center;
+    const centre = cx === 0 && cy === 0 ? v
+      : cy === 0 ? `${v} ${cx < 0 ? '+' : '−'} ${fmtReal(Math.abs(cx), 6)}` : `${v} − (${fmtSig(contour.center, 6)})`;
+    return `∮ f(${v}) d${v} once counter-clockwise around the circle |${centre}| = ${fmtReal(contour.radius, 6)}`;
+  }
+  const [[a, b], [c, d]] = contour.corners;
+  return `∮ f(${v}) d${v} once counter-clockwise around the ${isView ? 'border of the current view' : 'rectangle'}: ` +
+    `Re ${v} from ${fmtReal(Math.min(a, c), 6)} to ${fmtReal(Math.max(a, c), 6)}, Im ${v} from ${fmtReal(Math.min(b, d), 6)} to ${fmtReal(Math.max(b, d), 6)}`;
+}
+
+/** Ask the worker for the integral and then the count; each resolves with a response or an error object. */
+export function requestContourIntegral(base, contour) {
+  return runHeavy(Object.assign({}, base, { task: 'contour_integral', contour }));
+}
+export function requestArgumentCount(base, contour) {
+  return runHeavy(Object.assign({}, base, { task: 'argument_count', contour }));
+}
+
+/** A complex value to 10 significant digits; parts below `level` (its error estimate) read 0. */
+function valueText(z, level) {
+  return fmtSig(trimBelow(z, level), 10);
+}
+
+function estimateText(e) {
+  return Number.isFinite(e) ? fmtReal(e, 2) : '—';
+}
+
+/** Put the block into its "working" or "stale" look with a status line. */
+export function contourStatus(parts, text, look) {
+  parts.status.textContent = text;
+  parts.box.classList.toggle('stale', look === 'stale');
+  parts.box.dataset.state = look;
+}
+
+/** Fill the block from a contour_integral response. */
+export function showContourIntegral(parts, variable, contour, isView, resp) {
+  parts.box.hidden = false;
+  parts.box.classList.remove('stale', 'disagree');
+  parts.contour.textContent = contourWords(variable, contour, isView) + '.';
+  parts.ways.textContent = '';
+  parts.warnings.textContent = '';
+  parts.value.textContent = '';
+  parts.verdict.textContent = '';
+  parts.verdict.className = 'ci-verdict';
+  const err = responseError(resp);
+  parts.result.hidden = Boolean(err);
+  if (err) {
+    const stopped = err.message === 'cancelled';
+    contourStatus(parts, stopped ? 'Stopped before the contour integral finished.' : 'The contour integral was not computed: ' + err.message + '.', stopped ? 'stale' : 'error');
+    parts.box.dataset.state = stopped ? 'stopped' : 'error';
+    return;
+  }
+  contourStatus(parts, '', 'done');
+  const warnings = (Array.isArray(resp.warnings) ? resp.warnings : []).map(String);
+
+  // The value, with its error estimate and the way it was taken from.
+  const value = isFinitePair(resp.value) ? resp.value : null;
+  const from = WAYS.find((w) => w.key === resp.value_from);
+  parts.value.dataset.value = JSON.stringify(resp.value);
+  parts.value.append(
+    el('span', { class: 'ci-number', title: value ? 'Full precision: ' + fmtExact(value) : '', text: value ? valueText(value, resp.error_estimate) : 'not available' }),
+    el('span', { class: 'ci-est', text: ` error estimate ${estimateText(resp.error_estimate)}` + (from ? ` (from: ${from.name.toLowerCase()})` : '') }));
+
+  // The three ways.
+  const available = [];
+  for (const way of WAYS) {
+    const z = resp['by_' + way.key];
+    const e = resp[way.key + '_error_estimate'];
+    const tr = el('tr', { 'data-way': way.key, 'data-value': JSON.stringify(z ?? null), 'data-error': Number.isFinite(e) ? String(e) : '' },
+      el('th', { scope: 'row' }, el('span', { class: 'ci-way', text: way.name }), el('span', { class: 'ci-how', text: way.how })));
+    if (isFinitePair(z)) {
+      available.push({ way, z, e: Number.isFinite(e) ? e : NaN });
+      const [lineA, lineB] = fmtSigLines(trimBelow(z, e), 10);
+      const cell = el('td', { class: 'num', title: 'Full precision: ' + fmtExact(z) }, el('span', { class: 'cline', text: lineA }));
+      if (lineB) cell.append(el('span', { class: 'cline', text: lineB }));
+      tr.append(cell,
+        el('td', { class: 'num', text: estimateText(e) }));
+    } else {
+      const patterns = REASON_PATTERNS[way.key] || [];
+      let reason = '';
+      for (const p of patterns) { reason = warnings.find((w) => p.test(w)) || ''; if (reason) break; }
+      tr.classList.add('missing');
+      tr.append(el('td', { colspan: 2, class: 'ci-missing', text: '—, not available: ' + (reason || 'see the warnings below') }));
+    }
+    parts.ways.append(tr);
+  }
+
+  // The largest discrepancy against the error estimates: disagreement is shown, never hidden.
+  const maxD = Number(resp.max_discrepancy);
+  const sumErr = available.reduce((s, a) => s + (Number.isFinite(a.e) ? a.e : Infinity), 0);
+  const agreement = typeof resp.agreement === 'string' ? resp.agreement : '';
+  const saysDiffer = /differ|disagree/i.test(agreement);
+  const disagree = available.length >= 2 && (!(maxD <= sumErr) || saysDiffer);
+  const lines = [];
+  if (available.length >= 2) {
+    lines.push(`Largest difference between the ${available.length} ways: ${estimateText(maxD)}` +
+      ` (their error estimates add up to ${estimateText(sumErr)}${disagree ? '' : '; the difference is within them'}).`);
+  } else {
+    lines.push('Only one way could be computed, so nothing checks this value.');
+  }
+  if (agreement) lines.push('Verdict: ' + agreement.charAt(0).toUpperCase() + agreement.slice(1) + (agreement.endsWith('.') ? '' : '.'));
+  parts.verdict.textContent = lines.join(' ');
+  if (disagree) parts.verdict.prepend(el('strong', { text: 'The ways disagree by more than their error estimates allow: do not rely on the value until the cause is found. ' }));
+  parts.verdict.classList.toggle('disagree', disagree);
+  parts.verdict.classList.toggle('unchecked', available.length < 2);
+  parts.box.classList.toggle('disagree', disagree);
+  parts.box.dataset.agree = disagree ? 'no' : available.length < 2 ? 'unchecked' : 'yes';
+  for (const w of warnings) parts.warnings.append(el('li', { text: w }));
+}
+
+/** One line from an argument_count response: "Inside the contour: N zeros, P poles (...)". */
+export function showArgumentCount(parts, resp) {
+  parts.count.textContent = '';
+  const err = responseError(resp);
+  if (err) {
+    parts.count.textContent = err.message === 'cancelled' ? '' : 'Zeros and poles inside: not counted (' + err.message + ').';
+    parts.count.dataset.k = '';
+    return;
+  }
+  const k = Number(resp.zeros_minus_poles);
+  const plural = (n, word) => `${n} ${word}${n === 1 ? '' : 's'}`;
+  const kText = Number.isFinite(k) ? String(k).replace('-', '−') : '?';
+  parts.count.dataset.k = Number.isFinite(k) ? String(k) : '';
+  parts.count.textContent = Number.isInteger(resp.zeros) && Number.isInteger(resp.poles)
+    ? `Inside the contour: ${plural(resp.zeros, 'zero')}, ${plural(resp.poles, 'pole')} (argument principle: N − P = ${kText}).`
+    : `Inside the contour: zeros and poles not counted separately (argument principle: N − P = ${kText}).`;
+  for (const w of Array.isArray(resp.warnings) ? resp.warnings : []) parts.warnings.append(el('li', { text: 'Count: ' + String(w) }));
+}
