@@ -310,7 +310,7 @@ function showSums(resp, items) {
   const total = cAbs([sum[0] + rinf[0], sum[1] + rinf[1]]);
   const scale = Math.max(1e-300, cAbs(rinf), ...withResidue.map((it) => cAbs(it.residue)));
   const small = total <= 1e-8 * scale + 1e-13;
-  ui.sumCheck.textContent = `|Σ residues in the region + Res∞| = ${fmtReal(total, 2)}` +
+  ui.sumCheck.textContent = `|Σ residues in the region + Res∞| = ${fmtReal(total, small ? 2 : 6)}` +
     (small ? ' (about 0, as expected when the region holds every finite singularity)'
       : ' — not 0, so f has singular points outside the region (or a residue is inaccurate)');
   ui.sumCheck.classList.toggle('bad', !small);
