@@ -332,6 +332,7 @@ pub enum Request {
     PartialFractions(PartialFractionsRequest),
     ContourIntegral(ContourIntegralRequest),
     ArgumentCount(ArgumentCountRequest),
+    RealIntegral(tasks::real_integral::RealIntegralRequest),
     /// Tasks the contract defines that this version does not compute yet.
     NotBuilt { task: String },
 }
@@ -347,6 +348,7 @@ pub enum Response {
     PartialFractions(PartialFractionsResponse),
     ContourIntegral(ContourIntegralResponse),
     ArgumentCount(ArgumentCountResponse),
+    RealIntegral(tasks::real_integral::RealIntegralResponse),
     Json(Value),
 }
 
@@ -390,6 +392,7 @@ impl Request {
             "partial_fractions" => Request::PartialFractions(body(&task, value)?),
             "contour_integral" => Request::ContourIntegral(body(&task, value)?),
             "argument_count" => Request::ArgumentCount(body(&task, value)?),
+            "real_integral" => Request::RealIntegral(body(&task, value)?),
             t if TASKS.contains(&t) => Request::NotBuilt { task },
             _ => {
                 return Err(ApiError::new(format!(
@@ -412,6 +415,7 @@ pub fn run(request: Request) -> Result<Response, ApiError> {
         Request::PartialFractions(r) => tasks::partial_fractions::run(&r).map(Response::PartialFractions),
         Request::ContourIntegral(r) => tasks::contour_integral::run(&r).map(Response::ContourIntegral),
         Request::ArgumentCount(r) => tasks::argument_count::run(&r).map(Response::ArgumentCount),
+        Request::RealIntegral(r) => tasks::real_integral::run(&r).map(Response::RealIntegral),
         Request::NotBuilt { task } => Err(ApiError::new(format!(
             "the \"{task}\" task is not built yet in this version of residuary"
         ))),

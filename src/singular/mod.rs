@@ -11,6 +11,7 @@ pub mod classify;
 pub mod cut_crossing;
 pub mod meromorphic;
 pub mod newton_refine;
+pub mod product_residue;
 pub mod rational_check;
 pub mod rational_poles;
 pub mod residue_trapezoid;

@@ -57,6 +57,7 @@ pub mod laurent;
 pub mod partial_fractions;
 pub mod contour_integral;
 pub mod argument_count;
+pub mod real_integral;
 
 /// A point of the contract: `Some(z)` for `[x, y]`, `None` for `"infinity"`.
 pub fn point(p: &Point, field: &str) -> Result<Option<C>, ApiError> {
