@@ -333,6 +333,8 @@ pub enum Request {
     ContourIntegral(ContourIntegralRequest),
     ArgumentCount(ArgumentCountRequest),
     RealIntegral(tasks::real_integral::RealIntegralRequest),
+    InverseLaplace(tasks::inverse_laplace::InverseLaplaceRequest),
+    InverseZ(tasks::inverse_z::InverseZRequest),
     /// Tasks the contract defines that this version does not compute yet.
     NotBuilt { task: String },
 }
@@ -349,6 +351,8 @@ pub enum Response {
     ContourIntegral(ContourIntegralResponse),
     ArgumentCount(ArgumentCountResponse),
     RealIntegral(tasks::real_integral::RealIntegralResponse),
+    InverseLaplace(tasks::inverse_laplace::InverseLaplaceResponse),
+    InverseZ(tasks::inverse_z::InverseZResponse),
     Json(Value),
 }
 
@@ -393,6 +397,8 @@ impl Request {
             "contour_integral" => Request::ContourIntegral(body(&task, value)?),
             "argument_count" => Request::ArgumentCount(body(&task, value)?),
             "real_integral" => Request::RealIntegral(body(&task, value)?),
+            "inverse_laplace" => Request::InverseLaplace(body(&task, value)?),
+            "inverse_z" => Request::InverseZ(body(&task, value)?),
             t if TASKS.contains(&t) => Request::NotBuilt { task },
             _ => {
                 return Err(ApiError::new(format!(
@@ -416,6 +422,8 @@ pub fn run(request: Request) -> Result<Response, ApiError> {
         Request::ContourIntegral(r) => tasks::contour_integral::run(&r).map(Response::ContourIntegral),
         Request::ArgumentCount(r) => tasks::argument_count::run(&r).map(Response::ArgumentCount),
         Request::RealIntegral(r) => tasks::real_integral::run(&r).map(Response::RealIntegral),
+        Request::InverseLaplace(r) => tasks::inverse_laplace::run(&r).map(Response::InverseLaplace),
+        Request::InverseZ(r) => tasks::inverse_z::run(&r).map(Response::InverseZ),
         Request::NotBuilt { task } => Err(ApiError::new(format!(
             "the \"{task}\" task is not built yet in this version of residuary"
         ))),

@@ -17,6 +17,7 @@ pub mod series;
 pub mod singular;
 pub mod special;
 pub mod tasks;
+pub mod transforms;
 
 #[cfg(target_arch = "wasm32")]
 pub mod wasm;

@@ -11,6 +11,10 @@ use crate::error::ApiError;
 use crate::expr::{ExprError, Function};
 use crate::C;
 
+/// Said beside every stability reading (a result that can feed a control design).
+pub const CAUTION: &str = "Stability readings here are numerical aids: verify them independently and follow the \
+applicable codes and licensed engineering practice before relying on them in a design.";
+
 /// Largest parameter count a request may carry.
 const MAX_PARAMS: usize = 64;
 
@@ -57,6 +61,8 @@ pub mod laurent;
 pub mod partial_fractions;
 pub mod contour_integral;
 pub mod argument_count;
+pub mod inverse_laplace;
+pub mod inverse_z;
 pub mod real_integral;
 
 /// A point of the contract: `Some(z)` for `[x, y]`, `None` for `"infinity"`.

@@ -1,0 +1,345 @@
+//! The `inverse_z` task through the public JSON doorway, against z-transform
+//! tables, handbook series, a direct recursion of the difference equation, and
+//! mpmath fixtures (tests/fixtures/gen_inverse_z.py).
+
+mod common;
+
+use residuary::api::run_json_text;
+use serde_json::{json, Value};
+
+fn ok(request: Value) -> Value {
+    let (text, is_error) = run_json_text(&request.to_string());
+    assert!(!is_error, "request {request} failed: {text}");
+    serde_json::from_str(&text).unwrap()
+}
+
+fn err(request: Value) -> String {
+    let (text, is_error) = run_json_text(&request.to_string());
+    assert!(is_error, "request {request} should fail, got {text}");
+    let v: Value = serde_json::from_str(&text).unwrap();
+    v["error"]["message"].as_str().unwrap().to_string()
+}
+
+fn floats(v: &Value) -> Vec<f64> {
+    v.as_array()
+        .unwrap()
+        .iter()
+        .map(|x| x.as_f64().unwrap())
+        .collect()
+}
+
+/// Check x against `want(n)`: every value within its error estimate (plus a
+/// rounding allowance of 4ε relative), every estimate small, and the
+/// independent ways present for rational X agreeing with the truth.
+fn check(r: &Value, ns: &[u64], want: impl Fn(u64) -> f64, max_rel_error: f64) {
+    let x = floats(&r["x"]);
+    let e = floats(&r["error_estimates"]);
+    assert_eq!(x.len(), ns.len());
+    for (i, &n) in ns.iter().enumerate() {
+        let truth = want(n);
+        let scale = truth.abs().max(1e-300);
+        let d = (x[i] - truth).abs();
+        assert!(
+            d <= e[i] + 4.0 * f64::EPSILON * scale,
+            "n={n}: x={} truth={truth} err est={}",
+            x[i],
+            e[i]
+        );
+        assert!(
+            e[i] <= max_rel_error * truth.abs() + 1e-14 * max_abs(&x),
+            "n={n}: estimate {} too large for {truth}",
+            e[i]
+        );
+        if let Some(res) = r["by_residues"].as_array() {
+            assert!((res[i].as_f64().unwrap() - truth).abs() <= 1e-10 * scale.max(max_abs(&x)));
+        }
+        if let Some(c) = r["by_contour"][i].as_f64() {
+            let ce = r["contour_error_estimates"][i].as_f64().unwrap();
+            assert!(
+                (c - truth).abs() <= ce + 4.0 * f64::EPSILON * scale,
+                "contour n={n}: {c} vs {truth} (est {ce})"
+            );
+        }
+    }
+}
+
+fn max_abs(x: &[f64]) -> f64 {
+    x.iter().fold(0.0, |m, v| m.max(v.abs()))
+}
+
+fn range(to: u64) -> Vec<u64> {
+    (0..=to).collect()
+}
+
+#[test]
+fn geometric_sequence() {
+    // z/(z − a) ↔ a^n u[n] (Oppenheim & Schafer, Discrete-Time Signal Processing, Table 3.1, from memory)
+    for a in [0.5f64, -0.8, 0.95] {
+        let mut ns = range(30);
+        ns.extend([100, 400]);
+        let r = ok(json!({"task": "inverse_z", "X": "z/(z - a)", "params": {"a": a}, "n": ns}));
+        check(&r, &ns, |n| a.powi(n as i32), 1e-11);
+        assert_eq!(r["method"], "rational");
+        assert!((r["roc"]["outer_radius_greater_than"].as_f64().unwrap() - a.abs()).abs() < 1e-14);
+        assert!(r["max_discrepancy"].as_f64().unwrap() < 1e-13);
+    }
+    let r = ok(json!({"task": "inverse_z", "X": "z/(z - 0.5)", "n": [0, 1]}));
+    assert_eq!(r["closed_form"], "0.5^n");
+    let r = ok(json!({"task": "inverse_z", "X": "z/(z + 0.5)", "n": [0, 1]}));
+    assert_eq!(r["closed_form"], "(-0.5)^n");
+}
+
+#[test]
+fn negative_powers_form() {
+    // 1/(1 − a z^{-1}) ↔ a^n u[n] (Oppenheim & Schafer, Table 3.1, from memory)
+    let ns = range(40);
+    let r = ok(json!({"task": "inverse_z", "X": "1/(1 - a/z)", "params": {"a": 0.9}, "n": ns}));
+    check(&r, &ns, |n| 0.9f64.powi(n as i32), 1e-12);
+    assert_eq!(r["closed_form"], "0.9^n");
+}
+
+#[test]
+fn ramp_times_geometric() {
+    // a z/(z − a)² ↔ n a^n u[n] (Oppenheim & Schafer, Table 3.1, from memory)
+    let a = 0.7f64;
+    let mut ns = range(30);
+    ns.push(300);
+    let r = ok(json!({"task": "inverse_z", "X": "a*z/(z - a)^2", "params": {"a": a}, "n": ns}));
+    check(&r, &ns, |n| n as f64 * a.powi(n as i32), 1e-10);
+    assert_eq!(r["closed_form"], "n*0.7^n");
+    assert_eq!(r["poles"][0]["order"], 2);
+}
+
+#[test]
+fn damped_cosine_and_sine() {
+    // z(z − r cos θ)/(z² − 2r cos θ z + r²) ↔ r^n cos(nθ) u[n];
+    // r sin θ z/(z² − 2r cos θ z + r²) ↔ r^n sin(nθ) u[n]
+    // (Oppenheim & Schafer, Table 3.1, from memory)
+    let (rr, t) = (0.9f64, 0.6f64);
+    let ns = range(60);
+    let den = "(z^2 - 2*r*cos(t)*z + r^2)";
+    let r = ok(
+        json!({"task": "inverse_z", "X": format!("z*(z - r*cos(t))/{den}"), "params": {"r": rr, "t": t}, "n": ns}),
+    );
+    check(&r, &ns, |n| rr.powi(n as i32) * (n as f64 * t).cos(), 1e-11);
+    assert_eq!(r["closed_form"], "0.9^n*cos(0.6*n)");
+    let r = ok(
+        json!({"task": "inverse_z", "X": format!("r*sin(t)*z/{den}"), "params": {"r": rr, "t": t}, "n": ns}),
+    );
+    check(&r, &ns, |n| rr.powi(n as i32) * (n as f64 * t).sin(), 1e-10);
+    assert_eq!(r["closed_form"], "0.9^n*sin(0.6*n)");
+}
+
+/// y[n] = x[n] + 1.2 y[n−1] − 0.72 y[n−2] driven by the unit impulse: the slow,
+/// obviously correct reference (the difference equation itself).
+fn resonator_by_recursion(count: usize) -> Vec<f64> {
+    let mut y = vec![0.0f64; count];
+    for n in 0..count {
+        let input = if n == 0 { 1.0 } else { 0.0 };
+        let y1 = if n >= 1 { y[n - 1] } else { 0.0 };
+        let y2 = if n >= 2 { y[n - 2] } else { 0.0 };
+        y[n] = input + 1.2 * y1 - 0.72 * y2;
+    }
+    y
+}
+
+#[test]
+fn resonator_impulse_response_matches_difference_equation() {
+    // H(z) = 1/(1 − 1.2 z^{-1} + 0.72 z^{-2}): impulse response = direct recursion (common practice)
+    let reference = resonator_by_recursion(1001);
+    let mut ns = range(200);
+    ns.push(1000);
+    let r = ok(json!({"task": "inverse_z", "X": "1/(1 - 1.2/z + 0.72/z^2)", "n": ns}));
+    let x = floats(&r["x"]);
+    let e = floats(&r["error_estimates"]);
+    for (i, &n) in ns.iter().enumerate() {
+        let want = reference[n as usize];
+        let tol = 1e-13 * 0.8485f64.powi(n as i32).max(1e-300) + 1e-15 * want.abs();
+        assert!(
+            (x[i] - want).abs() <= e[i] + tol,
+            "n={n}: {} vs {want}",
+            x[i]
+        );
+        assert!(e[i] < 1e-12, "n={n}");
+    }
+    // Poles 0.6 ± 0.6i: r = 0.6√2, θ = π/4; x[n] = r^n (cos nπ/4 + sin nπ/4) (partial fractions by hand)
+    assert_eq!(
+        r["closed_form"],
+        "0.848528137424^n*(cos(0.785398163397*n) + sin(0.785398163397*n))"
+    );
+    assert!(r["max_discrepancy"].as_f64().unwrap() < 1e-13);
+}
+
+#[test]
+fn exp_of_inverse_z_gives_inverse_factorials() {
+    // exp(1/z) = Σ z^{-n}/n! ↔ 1/n! (DLMF 4.2.19)
+    let ns = range(25);
+    let r = ok(json!({"task": "inverse_z", "X": "exp(1/z)", "n": ns}));
+    let mut fact = 1.0f64;
+    let want: Vec<f64> = ns
+        .iter()
+        .map(|&n| {
+            if n > 0 {
+                fact *= n as f64;
+            }
+            1.0 / fact
+        })
+        .collect();
+    check(&r, &ns, |n| want[n as usize], 1e-11);
+    assert_eq!(r["method"], "contour");
+    assert!(r["closed_form"].is_null());
+    assert!(r["by_residues"].is_null());
+}
+
+#[test]
+fn mpmath_fixtures() {
+    let fx = common::fixture("inverse_z");
+    for case in fx["cases"].as_array().unwrap() {
+        let name = case["name"].as_str().unwrap();
+        let ns: Vec<u64> = case["n"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .map(|v| v.as_u64().unwrap())
+            .collect();
+        let want: Vec<Option<f64>> = case["x"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .map(|v| {
+                if v.is_null() {
+                    None
+                } else {
+                    Some(common::real(v))
+                }
+            })
+            .collect();
+        // mpmath 1.3.0, 40 digits (see the case's "source")
+        let r = ok(json!({"task": "inverse_z", "X": case["X"], "n": ns}));
+        let x = floats(&r["x"]);
+        let e = floats(&r["error_estimates"]);
+        let scale = max_abs(&x);
+        for i in 0..ns.len() {
+            let Some(w) = want[i] else { continue };
+            let d = (x[i] - w).abs();
+            assert!(
+                d <= e[i] + 4.0 * f64::EPSILON * w.abs(),
+                "{name} n={}: {} vs {w} (est {})",
+                ns[i],
+                x[i],
+                e[i]
+            );
+            assert!(
+                e[i] <= 1e-11 * scale,
+                "{name} n={}: estimate {}",
+                ns[i],
+                e[i]
+            );
+        }
+    }
+}
+
+#[test]
+fn delayed_impulses_from_a_pole_at_the_origin() {
+    // X = 1 + 2 z^{-1} + 3 z^{-3} ↔ δ[n] + 2δ[n−1] + 3δ[n−3] (definition of the z-transform)
+    let ns = range(6);
+    let r = ok(json!({"task": "inverse_z", "X": "1 + 2/z + 3/z^3", "n": ns}));
+    let want = [1.0, 2.0, 0.0, 3.0, 0.0, 0.0, 0.0];
+    check(&r, &ns, |n| want[n as usize], 1e-12);
+    assert_eq!(r["closed_form"], "δ[n] + 2*δ[n-1] + 3*δ[n-3]");
+}
+
+#[test]
+fn common_factor_does_not_excite_a_cancelled_mode() {
+    // (z − 2)/((z − 2)(z − 0.5)) = 1/(z − 0.5) ↔ 0.5^{n−1} u[n−1] (time shift, from memory)
+    let ns = vec![0, 1, 2, 60, 200];
+    let r = ok(json!({"task": "inverse_z", "X": "(z - 2)/((z - 2)*(z - 0.5))", "n": ns}));
+    check(
+        &r,
+        &ns,
+        |n| {
+            if n == 0 {
+                0.0
+            } else {
+                0.5f64.powi(n as i32 - 1)
+            }
+        },
+        1e-12,
+    );
+    assert_eq!(r["poles"].as_array().unwrap().len(), 1);
+}
+
+#[test]
+fn complex_coefficients_report_imaginary_parts() {
+    // z/(z − 0.5i) ↔ (0.5i)^n (Oppenheim & Schafer, Table 3.1 with complex a, from memory)
+    let ns = range(8);
+    let r = ok(json!({"task": "inverse_z", "X": "z/(z - 0.5*i)", "n": ns}));
+    let x = floats(&r["x"]);
+    let xi = floats(&r["x_imag"]);
+    for &n in &ns {
+        let w = residuary::C::new(0.0, 0.5).powi(n as i32);
+        assert!(
+            (x[n as usize] - w.re).abs() < 1e-15 && (xi[n as usize] - w.im).abs() < 1e-15,
+            "n={n}"
+        );
+    }
+    assert!(r["warnings"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .any(|w| w.as_str().unwrap().contains("x_imag")));
+    let r = ok(json!({"task": "inverse_z", "X": "z/(z - 0.5)", "n": [0, 1]}));
+    assert!(r.get("x_imag").is_none());
+}
+
+#[test]
+fn large_n_and_unstable_systems() {
+    // z/(z − a) ↔ a^n at n = 10^6 (Table 3.1, from memory); a^n computed as exp(n ln a)
+    let a = 0.999999f64;
+    let r = ok(json!({"task": "inverse_z", "X": "z/(z - a)", "params": {"a": a}, "n": [1000000]}));
+    let want = (1e6 * a.ln()).exp();
+    let x = floats(&r["x"]);
+    let e = floats(&r["error_estimates"]);
+    assert!(
+        (x[0] - want).abs() <= e[0] + 1e-15,
+        "{} vs {want} est {}",
+        x[0],
+        e[0]
+    );
+    assert!(e[0] < 1e-8 * want);
+    assert!(r["by_contour"][0].is_null());
+    // z/(z − 1.1) ↔ 1.1^n: grows, and says so (Table 3.1, from memory)
+    let r = ok(json!({"task": "inverse_z", "X": "z/(z - 1.1)", "n": [0, 10, 50]}));
+    check(&r, &[0, 10, 50], |n| 1.1f64.powi(n as i32), 1e-12);
+    assert!(r["warnings"].to_string().contains("unstable"));
+    // z/(z − 1) ↔ u[n]; z/(z − 1)² ↔ n u[n] (Oppenheim & Schafer, Table 3.1, from memory)
+    let r = ok(json!({"task": "inverse_z", "X": "z/(z - 1)", "n": [0, 7]}));
+    check(&r, &[0, 7], |_| 1.0, 1e-12);
+    assert_eq!(r["closed_form"], "1");
+    assert!(r["warnings"].to_string().contains("marginally"));
+    let r = ok(json!({"task": "inverse_z", "X": "z/(z - 1)^2", "n": [0, 1, 9, 1000]}));
+    check(&r, &[0, 1, 9, 1000], |n| n as f64, 1e-10);
+    assert_eq!(r["closed_form"], "n");
+}
+
+#[test]
+fn refusals_say_what_to_do() {
+    assert!(err(json!({"task": "inverse_z", "X": "z/(z - 0.5)", "n": [-1]})).contains("≥ 0"));
+    assert!(err(json!({"task": "inverse_z", "X": "z/(z - 0.5)", "n": [1.5]})).contains("integers"));
+    assert!(
+        err(json!({"task": "inverse_z", "X": "z/(z - 0.5)", "n": [2e6]})).contains("too large")
+    );
+    assert!(err(json!({"task": "inverse_z", "X": "z/(z - 0.5)", "n": []})).contains("empty"));
+    let many: Vec<u64> = (0..10_001).collect();
+    assert!(err(json!({"task": "inverse_z", "X": "z/(z - 0.5)", "n": many})).contains("at most"));
+    assert!(err(json!({"task": "inverse_z", "X": "z^2/(z - 0.5)", "n": [0]})).contains("causal"));
+    assert!(
+        err(json!({"task": "inverse_z", "X": "exp(z)", "n": [0, 1]})).contains("positive powers")
+    );
+    let (text, is_error) =
+        run_json_text(&json!({"task": "inverse_z", "X": "z/(z - ", "n": [0]}).to_string());
+    assert!(
+        is_error && text.contains("in \\\"X\\\"") && text.contains("\"span\":[6,6]"),
+        "{text}"
+    );
+}
