@@ -4,33 +4,14 @@
 
 mod common;
 
-use residuary::api::run_json_text;
+use common::{ok_response as run, error_message as run_error, floats};
 use residuary::budget::Budget;
 use residuary::quad::{gauss_kronrod::integrate, Tolerance};
 use residuary::C;
 use serde_json::{json, Value};
 
-fn run(request: Value) -> Value {
-    let (text, is_error) = run_json_text(&request.to_string());
-    let v: Value = serde_json::from_str(&text).unwrap();
-    assert!(!is_error, "{request}: {text}");
-    v
-}
 
-fn run_error(request: Value) -> String {
-    let (text, is_error) = run_json_text(&request.to_string());
-    assert!(is_error, "expected an error for {request}: {text}");
-    let v: Value = serde_json::from_str(&text).unwrap();
-    v["error"]["message"].as_str().unwrap().to_string()
-}
 
-fn floats(v: &Value) -> Vec<f64> {
-    v.as_array()
-        .unwrap()
-        .iter()
-        .map(|x| x.as_f64().unwrap())
-        .collect()
-}
 
 /// Check f, by_residues, by_contour against `want`, each within its own error
 /// estimate and within `tol` (relative to max(1, |want|)).

@@ -4,29 +4,12 @@
 
 mod common;
 
+use common::{ok_response as ok, error_message as err, floats};
 use residuary::api::run_json_text;
 use serde_json::{json, Value};
 
-fn ok(request: Value) -> Value {
-    let (text, is_error) = run_json_text(&request.to_string());
-    assert!(!is_error, "request {request} failed: {text}");
-    serde_json::from_str(&text).unwrap()
-}
 
-fn err(request: Value) -> String {
-    let (text, is_error) = run_json_text(&request.to_string());
-    assert!(is_error, "request {request} should fail, got {text}");
-    let v: Value = serde_json::from_str(&text).unwrap();
-    v["error"]["message"].as_str().unwrap().to_string()
-}
 
-fn floats(v: &Value) -> Vec<f64> {
-    v.as_array()
-        .unwrap()
-        .iter()
-        .map(|x| x.as_f64().unwrap())
-        .collect()
-}
 
 /// Check x against `want(n)`: every value within its error estimate (plus a
 /// rounding allowance of 4ε relative), every estimate small, and the

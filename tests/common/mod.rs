@@ -28,3 +28,23 @@ pub fn num(v: &Value) -> C {
 pub fn list(v: &Value) -> Vec<C> {
     v.as_array().unwrap().iter().map(num).collect()
 }
+
+/// Run a request through the public doorway; it must succeed.
+pub fn ok_response(request: Value) -> Value {
+    let (text, is_error) = residuary::api::run_json_text(&request.to_string());
+    assert!(!is_error, "request {request} failed: {text}");
+    serde_json::from_str(&text).unwrap()
+}
+
+/// Run a request through the public doorway; it must fail. Returns the message.
+pub fn error_message(request: Value) -> String {
+    let (text, is_error) = residuary::api::run_json_text(&request.to_string());
+    assert!(is_error, "request {request} should fail, got {text}");
+    let v: Value = serde_json::from_str(&text).unwrap();
+    v["error"]["message"].as_str().unwrap().to_string()
+}
+
+/// A JSON array of numbers.
+pub fn floats(v: &Value) -> Vec<f64> {
+    v.as_array().unwrap().iter().map(|x| x.as_f64().unwrap()).collect()
+}
