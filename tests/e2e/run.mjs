@@ -227,6 +227,61 @@ describe('the page with the real core', () => {
     await b.page.screenshot({ path: join(artifacts, 'contour-circle.png'), fullPage: true });
   });
 
+  test('inverse Laplace transform of the low-pass example: its impulse response, drawn and checked', async () => {
+    await load(b.page);
+    await pickDemo(b.page, 'Second-order low-pass');
+    await searchDone(b.page);
+    await b.page.waitForFunction(() => document.getElementById('inv-box').dataset.state === 'done', null, { timeout: 30000 });
+    assert.equal(await b.page.evaluate(() => document.getElementById('inv-box').open), true, 'the section is open for s');
+    assert.match(await b.page.textContent('#inv-title'), /Inverse Laplace transform/);
+    const { x: t, y: f } = JSON.parse(await b.page.getAttribute('#inv-chart', 'data-points'));
+    assert.equal(t.length, 120);
+    // impulse response of a second-order low-pass: (ωn/√(1−ζ²)) e^{−ζωn t} sin(ωd t), ωd = ωn√(1−ζ²) (common practice)
+    const wn = 2, zeta = 0.3, wd = wn * Math.sqrt(1 - zeta * zeta);
+    for (const i of [0, 7, 30, 59, 119]) {
+      const want = (wn / Math.sqrt(1 - zeta * zeta)) * Math.exp(-zeta * wn * t[i]) * Math.sin(wd * t[i]);
+      assert.ok(Math.abs(f[i] - want) < 1e-9, `f(${t[i]}) = ${f[i]} vs ${want}`);
+    }
+    // default span: 10/|Re p| = 10/0.6
+    assert.ok(Math.abs(t[119] - 16.7) < 1e-9, `T = ${t[119]}`);
+    assert.match(await b.page.textContent('#inv-closed'), /f\(t\) = .*exp\(-0\.6\*t\)\*sin\(1\.9078784\d*\*t\)/);
+    const d = Number(await b.page.getAttribute('#inv-facts [data-discrepancy]', 'data-discrepancy'));
+    // the page shows the core's own figure; the fixed-contour inversion loses absolute accuracy
+    // late in the decay (t near T), so it is bounded by that method's own error estimates
+    const resp = core.run({ task: 'inverse_laplace', F: LOWPASS, var: 's', params: { wn: 2, zeta: 0.3 }, t });
+    assert.ok(Math.abs(d - resp.max_discrepancy) < 1e-12, `discrepancy ${d} vs ${resp.max_discrepancy}`);
+    assert.ok(d >= 0 && d <= Math.max(...resp.contour_error_estimates), `discrepancy ${d} beyond the contour error estimates`);
+    assert.match(await b.page.textContent('#inv-facts'), /residue sum and numerical contour inversion/);
+    const ink = await b.page.evaluate(() => {
+      const c = document.getElementById('inv-chart');
+      const px = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
+      let n = 0;
+      for (let i = 0; i < px.length; i += 4) if (px[i + 3] > 0 && px[i + 2] > px[i] + 60) n++;
+      return n;
+    });
+    assert.ok(ink > 200, `the curve is not drawn (${ink} blue pixels)`);
+    await b.page.screenshot({ path: join(artifacts, 'inverse-laplace.png'), fullPage: true });
+  });
+
+  test('inverse z-transform: 1/(1 − 0.5/z) gives 0.5^n; folded by default; a non-causal X is explained', async () => {
+    await load(b.page, withState({ f: '1/(1 - 0.5/z)', var: 'z', params: [], view: [-2, 2, -2, 2] }));
+    await searchDone(b.page);
+    assert.equal(await b.page.isVisible('#inv-box'), true);
+    assert.equal(await b.page.evaluate(() => document.getElementById('inv-box').open), false, 'folded for z');
+    await b.page.click('#inv-title');
+    await b.page.waitForFunction(() => document.getElementById('inv-box').dataset.state === 'done', null, { timeout: 30000 });
+    const { x: n, y: x } = JSON.parse(await b.page.getAttribute('#inv-chart', 'data-points'));
+    assert.equal(n.length, 41);
+    // z-transform pair: a^n u[n] ↔ 1/(1 − a z⁻¹), |z| > |a| (common practice)
+    for (let k = 0; k <= 5; k++) assert.ok(Math.abs(x[k] - Math.pow(0.5, k)) < 1e-12, `x[${k}] = ${x[k]}`);
+    assert.match(await b.page.textContent('#inv-facts'), /\|z\| > 0\.5/);
+    assert.match(await b.page.textContent('#inv-closed'), /x\[n\] = 0\.5\^n/);
+    await b.page.screenshot({ path: join(artifacts, 'inverse-z.png'), fullPage: true });
+    await b.page.fill('#expr', 'z^2/(z - 0.5)');
+    await b.page.waitForFunction(() => document.getElementById('inv-box').dataset.state === 'error', null, { timeout: 30000 });
+    assert.match(await b.page.textContent('#inv-status'), /^Not computed: .*not the z-transform of a causal sequence/);
+  });
+
   test('contour integral of a non-rational f: the outside way is "not available" with the reason', async () => {
     await load(b.page, withState({ f: 'exp(z)/(z^2 + 4)', var: 'z', params: [], view: [-4, 4, -4, 4],
       region: { mode: 'circle', rect: [-4, 4, -4, 4], circle: [0, 0, 3] } }));

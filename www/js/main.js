@@ -13,6 +13,7 @@ import {
   fillTable, highlightRow, laurentRadius, requestLaurent, showDetail,
 } from './singularities.js';
 import { requestContourIntegral, requestArgumentCount, showContourIntegral, showArgumentCount, contourStatus } from './contour.js';
+import { inverseKind, defaultSpan, inverseRequest, requestInverse, showInverse, inverseStatus, drawInverseChart, INVERSE_DEFAULT_N } from './inverse.js';
 
 const state = loadState();
 const ui = {
@@ -27,6 +28,9 @@ const ui = {
     warnings: $('detail-warnings'), table: $('laurent-table') },
   ci: { box: $('ci-box'), contour: $('ci-contour'), status: $('ci-status'), result: $('ci-result'), value: $('ci-value'),
     ways: $('ci-ways'), verdict: $('ci-verdict'), count: $('ci-count'), warnings: $('ci-warnings') },
+  inv: { box: $('inv-box'), title: $('inv-title'), what: $('inv-what'), span: $('inv-span'), spanLabel: $('inv-span-label'),
+    spanHint: $('inv-span-hint'), status: $('inv-status'), warnings: $('inv-warnings'), result: $('inv-result'),
+    chart: $('inv-chart'), closed: $('inv-closed'), facts: $('inv-facts') },
 };
 
 let exprOk = false;           // the last check found no error in the function
@@ -34,6 +38,8 @@ let lastZView = state.view.slice();
 let found = { items: [], key: '' };
 let searchSerial = 0;
 let readingOpenNext = null;  // an example says whether to open the transfer-function reading
+let inverseOpenNext = null;  // ... and whether to open the inverse transform (for z)
+let inverse = { key: '', spanTyped: false, serial: 0 }; // what the inverse block shows
 
 // ---- requests ------------------------------------------------------------------
 
@@ -138,6 +144,7 @@ function markResultsStale() {
   ui.canvas.dataset.markers = '0';
   ui.detail.box.hidden = true;
   if (ui.ci.box.dataset.state !== 'none') contourStatus(ui.ci, 'The function changed: the contour integral is computed again with the next search.', 'stale');
+  if (!['none', 'closed'].includes(ui.inv.box.dataset.state)) inverseStatus(ui.inv, 'The function changed: the inverse transform is computed again with the next search.', 'stale');
 }
 
 /** Once the function is no longer the chosen example's, the example's name and text go. */
@@ -274,6 +281,7 @@ async function findSingularities() {
     readingOpenNext = null;
     ui.stabilityBox.dataset.var = base.var;
   }
+  prepareInverse(base);
   // The contour integral three ways, then the argument-principle count (still cancellable by Stop).
   contourStatus(ui.ci, 'Computing the contour integral three ways…', 'busy');
   const ci = await requestContourIntegral(base, contour);
@@ -282,6 +290,11 @@ async function findSingularities() {
   const count = await requestArgumentCount(base, contour);
   if (serial !== searchSerial) return;
   showArgumentCount(ui.ci, count);
+  // Then the inverse transform (s or z), when its section is open; Stop still cancels it.
+  if (!ui.inv.box.hidden && ui.inv.box.open) {
+    await runInverse(base);
+    if (serial !== searchSerial) return;
+  }
   ui.find.disabled = false;
   ui.cancel.disabled = true;
   // Partial fractions, shown only when f is rational (the task answers).
@@ -294,6 +307,83 @@ async function findSingularities() {
     ui.partial.textContent = 'Partial fractions: ' + pf.text;
     for (const w of Array.isArray(pf.warnings) ? pf.warnings : []) ui.pfWarnings.append(el('li', { text: 'Partial fractions: ' + String(w) }));
   }
+}
+
+// ---- inverse transform -------------------------------------------------------------
+
+/** The span asked for: T (s) or N (z), typed or the default. */
+function inverseSpan(kind) {
+  const typed = Number(ui.inv.span.value);
+  if (kind === 'z') {
+    return inverse.spanTyped && Number.isFinite(typed) && typed >= 0 ? Math.min(2000, Math.floor(typed)) : INVERSE_DEFAULT_N;
+  }
+  return inverse.spanTyped && Number.isFinite(typed) && typed > 0 ? Math.min(1e6, typed) : defaultSpan(found.items);
+}
+
+/** After a search: show the section for s or z, in words fitting the variable, open or folded. */
+function prepareInverse(base) {
+  const kind = inverseKind(base.var);
+  const box = ui.inv.box;
+  const wasVar = box.dataset.var;
+  box.hidden = !kind;
+  if (!kind) { inverseOpenNext = null; return; }
+  if (wasVar !== base.var) inverse.spanTyped = false;
+  // Open for s; for z folded unless the chosen example is a transfer function (or the user opened it).
+  if (inverseOpenNext !== null) box.open = base.var === 's' || inverseOpenNext;
+  else if (wasVar !== base.var) box.open = base.var === 's';
+  inverseOpenNext = null;
+  box.dataset.var = base.var;
+  if (kind === 'laplace') {
+    ui.inv.title.textContent = 'Inverse Laplace transform f(t)';
+    ui.inv.what.textContent = 'The time function f(t), t > 0, whose Laplace transform is the function above, read as F(s): the sum of the residues of F(s)·exp(st), checked against a numerical inversion along a contour passing right of the singularities.';
+    ui.inv.spanLabel.textContent = 'Times 0 < t ≤ T, T =';
+    ui.inv.spanHint.textContent = inverse.spanTyped ? '' : '(default: 10/|Re| of the rightmost pole, or 10)';
+  } else {
+    ui.inv.title.textContent = 'Inverse z-transform x[n]';
+    ui.inv.what.textContent = 'The causal sequence x[n], n ≥ 0, whose z-transform is the function above (read as X(z)): by residues, checked against a contour integral and long division.';
+    ui.inv.spanLabel.textContent = 'Samples n = 0 … N, N =';
+    ui.inv.spanHint.textContent = '';
+  }
+  ui.inv.span.step = kind === 'z' ? '1' : 'any';
+  if (!inverse.spanTyped) ui.inv.span.value = String(inverseSpan(kind));
+  if (!box.open) {
+    ui.inv.result.hidden = true;
+    ui.inv.warnings.textContent = '';
+    inverse.key = '';
+    inverseStatus(ui.inv, 'Open this section to compute the inverse transform.', 'closed');
+  }
+}
+
+/** Compute and show the inverse transform for `base` (the searched function). */
+async function runInverse(base) {
+  const kind = inverseKind(base.var);
+  if (!kind) return;
+  const span = inverseSpan(kind);
+  if (!inverse.spanTyped) ui.inv.span.value = String(span);
+  const request = inverseRequest(base, span);
+  const serial = ++inverse.serial;
+  inverseStatus(ui.inv, kind === 'laplace' ? 'Computing f(t)…' : 'Computing x[n]…', 'busy');
+  const resp = await requestInverse(base, span);
+  if (serial !== inverse.serial) return;
+  showInverse(ui.inv, request, resp);
+  inverse.key = JSON.stringify(request);
+}
+
+/** Opening the section or changing T/N outside a search: compute now, if the results are current. */
+async function inverseOnDemand() {
+  if (ui.inv.box.hidden || !ui.inv.box.open) return;
+  if (ui.find.disabled) return; // a search is running; it computes the inverse at its end
+  if ($('sing-table').classList.contains('stale') || !found.base) { inverseStatus(ui.inv, 'Computed with the next search.', 'stale'); return; }
+  const kind = inverseKind(found.base.var);
+  if (!kind) return;
+  if (inverse.key === JSON.stringify(inverseRequest(found.base, inverseSpan(kind)))) {
+    if (!ui.inv.result.hidden) drawInverseChart(ui.inv.chart); // its width may have changed while folded
+    return;
+  }
+  const serial = searchSerial;
+  ui.cancel.disabled = false;
+  await runInverse(found.base);
+  if (serial === searchSerial) ui.cancel.disabled = true;
 }
 
 /** Residue at infinity and the residue-sum check, in one short line each. */
@@ -444,9 +534,18 @@ ui.cancel.addEventListener('click', async () => {
   ui.findStatus.className = 'find-status';
   ui.findStatus.textContent = 'Search stopped.';
   if (ui.ci.box.dataset.state === 'busy') contourStatus(ui.ci, 'Stopped before the contour integral finished.', 'stale');
+  if (ui.inv.box.dataset.state === 'busy') { inverse.serial++; inverseStatus(ui.inv, 'Stopped before the inverse transform finished.', 'stale'); }
   await cancelHeavy();
 });
 ui.autoFind.addEventListener('change', () => { state.autoFind = ui.autoFind.checked; persist(); });
+ui.inv.box.addEventListener('toggle', () => {
+  if (ui.inv.box.open) inverseOnDemand();
+});
+ui.inv.span.addEventListener('change', () => {
+  inverse.spanTyped = ui.inv.span.value.trim() !== '';
+  ui.inv.spanHint.textContent = '';
+  inverseOnDemand();
+});
 
 // Examples.
 const demos = demoList();
@@ -471,6 +570,7 @@ select.addEventListener('change', () => {
   const d = demos[Number(select.value)];
   if (!d) return;
   readingOpenNext = Boolean(d.transfer_function);
+  inverseOpenNext = Boolean(d.transfer_function);
   adopt(Object.assign(demoState(d), { infinity: false, region: Object.assign({}, state.region, { mode: 'view' }) }));
   $('demo-description').hidden = !d.description;
   $('demo-description').textContent = d.description || '';
@@ -484,7 +584,10 @@ window.addEventListener('hashchange', () => {
 
 // Layout follows the container (also inside an iframe).
 let resizeTimer = 0;
-const resized = () => { clearTimeout(resizeTimer); resizeTimer = setTimeout(() => { plot.resize(); if (exprOk) plot.scheduleRender(0); }, 80); };
+const resized = () => {
+  clearTimeout(resizeTimer);
+  resizeTimer = setTimeout(() => { plot.resize(); if (exprOk) plot.scheduleRender(0); if (!ui.inv.result.hidden) drawInverseChart(ui.inv.chart); }, 80);
+};
 if (typeof ResizeObserver === 'function') new ResizeObserver(resized).observe(ui.canvas.parentElement);
 window.addEventListener('resize', resized); // the height limit follows the window height
 

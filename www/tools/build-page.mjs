@@ -20,7 +20,7 @@ const out = join(root, 'dist', 'residuary.html');
 const pkg = join(root, 'dist', 'pkg');
 
 // Dependency order: a module comes after every module it imports.
-const MODULES = ['util', 'engine', 'state', 'expr-input', 'params', 'plot', 'singularities', 'contour', 'legend', 'demos', 'main'];
+const MODULES = ['util', 'engine', 'state', 'expr-input', 'params', 'plot', 'singularities', 'contour', 'inverse', 'legend', 'demos', 'main'];
 
 function fail(message) {
   console.error('build-page: ' + message);
