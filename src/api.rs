@@ -243,16 +243,19 @@ pub struct PartialFractionsResponse {
     pub warnings: Vec<String>,
 }
 
-/// `contour_integral`: ∮ f dz computed three independent ways (quadrature,
-/// residues inside, residues outside plus infinity), disagreement shown.
+/// A function and a closed contour: the request of `contour_integral` and `argument_count`.
 #[derive(Debug, Clone, Serialize, Deserialize)]
-pub struct ContourIntegralRequest {
+pub struct ContourRequest {
     #[serde(flatten)]
     pub function: FunctionInput,
     pub contour: Contour,
     #[serde(default)]
     pub max_evaluations: Option<u64>,
 }
+
+/// `contour_integral`: ∮ f dz computed three independent ways (quadrature,
+/// residues inside, residues outside plus infinity), disagreement shown.
+pub type ContourIntegralRequest = ContourRequest;
 
 /// A singular point with the contour's winding number about it.
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -288,14 +291,7 @@ pub struct ContourIntegralResponse {
 }
 
 /// `argument_count`: zeros − poles inside a contour by the argument principle.
-#[derive(Debug, Clone, Serialize, Deserialize)]
-pub struct ArgumentCountRequest {
-    #[serde(flatten)]
-    pub function: FunctionInput,
-    pub contour: Contour,
-    #[serde(default)]
-    pub max_evaluations: Option<u64>,
-}
+pub type ArgumentCountRequest = ContourRequest;
 
 /// A zero or pole counted, with the contour's winding number about it.
 #[derive(Debug, Clone, Serialize, Deserialize)]

@@ -43,12 +43,7 @@ pub fn contour_integral(
         abs: tol.abs / pieces.len().max(1) as f64,
         rel: tol.rel,
     };
-    let mut total = QuadResult {
-        value: C::new(0.0, 0.0),
-        error_estimate: 0.0,
-        evaluations: 0,
-        converged: true,
-    };
+    let mut total = QuadResult::zero();
     for piece in &pieces {
         let result = match *piece {
             Piece::Ellipse { .. } => {
@@ -59,20 +54,18 @@ pub fn contour_integral(
                 gauss_kronrod::integrate_unit(&mut g, piece_tol, budget)
             }
         };
-        let r = match result {
-            Ok(r) => r,
-            Err(QuadError::NotFinite { at }) => {
-                return Err(format!(
-                "f is not finite at {} on the contour: a singularity lies on it; move the contour",
-                show(piece.point(at))
-            ))
-            }
-            Err(e) => return Err(e.to_string()),
-        };
-        total.value += r.value;
-        total.error_estimate += r.error_estimate;
-        total.evaluations += r.evaluations;
-        total.converged &= r.converged;
+        total.absorb(result.map_err(|e| on_piece_error(piece, e))?);
     }
     Ok(total)
+}
+
+/// The message for a failed piece: where f is not finite on it, or why else.
+pub fn on_piece_error(piece: &Piece, e: QuadError) -> String {
+    match e {
+        QuadError::NotFinite { at } => format!(
+            "f is not finite at {} on the contour: a singularity lies on it; move the contour",
+            show(piece.point(at))
+        ),
+        e => e.to_string(),
+    }
 }

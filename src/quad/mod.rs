@@ -47,6 +47,21 @@ pub struct QuadResult {
     pub converged: bool,
 }
 
+impl QuadResult {
+    /// Nothing integrated yet: the start of a sum over pieces.
+    pub fn zero() -> Self {
+        QuadResult { value: C::new(0.0, 0.0), error_estimate: 0.0, evaluations: 0, converged: true }
+    }
+
+    /// Add one piece's result: values and error estimates add.
+    pub fn absorb(&mut self, r: QuadResult) {
+        self.value += r.value;
+        self.error_estimate += r.error_estimate;
+        self.evaluations += r.evaluations;
+        self.converged &= r.converged;
+    }
+}
+
 /// Why a quadrature stopped without a value.
 #[derive(Debug, Clone, PartialEq)]
 pub enum QuadError {

@@ -12,7 +12,7 @@
 //! reconciles with the argument-principle count.
 
 use super::contour_integral::{covering_regions, search_cover, show};
-use super::{budget, compile};
+use super::{budget, checked_contour, compile};
 use crate::api::{pair, ArgumentCountRequest, ArgumentCountResponse, CountedPoint};
 use crate::contour::Contour;
 use crate::error::ApiError;
@@ -23,10 +23,7 @@ use crate::C;
 
 pub fn run(req: &ArgumentCountRequest) -> Result<ArgumentCountResponse, ApiError> {
     let f = compile(&req.function)?;
-    let contour = &req.contour;
-    contour
-        .validate()
-        .map_err(|e| ApiError::new(format!("contour: {e}")))?;
+    let contour = checked_contour(&req.contour, "contour")?;
     let mut budget = budget(req.max_evaluations);
     let eval = |z: C| f.eval(z);
     let count = count_by_argument_principle(&eval, contour, &mut budget).map_err(ApiError::new)?;

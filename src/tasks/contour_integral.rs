@@ -23,15 +23,15 @@
 // `!(a <= b)` is deliberate: a NaN must take the cautious branch.
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
-use super::{budget, compile, hints};
+use super::{budget, checked_contour, compile, hints};
 use crate::api::{pair, ContourIntegralRequest, ContourIntegralResponse, WindingOut};
 use crate::budget::Budget;
 use crate::contour::Contour;
 use crate::error::ApiError;
 use crate::expr::Function;
-use crate::quad::contour_quadrature::contour_integral;
+use crate::quad::contour_quadrature::{contour_integral, on_piece_error};
 use crate::quad::Tolerance;
-use crate::quad::{gauss_kronrod, QuadError, QuadResult};
+use crate::quad::{gauss_kronrod, QuadResult};
 use crate::singular::cut_crossing::{cut_crossings, Crossing};
 use crate::singular::rational_poles::{analyse_rational, format_complex};
 use crate::singular::{classify_point, find_singularities, Kind, RegionResult};
@@ -81,10 +81,7 @@ fn kind_name(k: Kind) -> &'static str {
 
 pub fn run(req: &ContourIntegralRequest) -> Result<ContourIntegralResponse, ApiError> {
     let f = compile(&req.function)?;
-    let contour = &req.contour;
-    contour
-        .validate()
-        .map_err(|e| ApiError::new(format!("contour: {e}")))?;
+    let contour = checked_contour(&req.contour, "contour")?;
     let mut budget = budget(req.max_evaluations);
     let mut warnings = Vec::new();
     let (ways, method) = match f.rational() {
@@ -303,12 +300,7 @@ fn split_quadrature(
     budget: &mut Budget,
 ) -> Result<QuadResult, String> {
     let pieces = contour.pieces();
-    let mut total = QuadResult {
-        value: C::new(0.0, 0.0),
-        error_estimate: 0.0,
-        evaluations: 0,
-        converged: true,
-    };
+    let mut total = QuadResult::zero();
     let parts = pieces.len() + crossings.len();
     let tol = Tolerance {
         abs: 0.0,
@@ -329,20 +321,8 @@ fn split_quadrature(
                 continue;
             }
             let mut g = |t: f64| f(piece.point(t)) * piece.derivative(t);
-            let r = match gauss_kronrod::integrate(&mut g, w[0], w[1], tol, budget) {
-                Ok(r) => r,
-                Err(QuadError::NotFinite { at }) => {
-                    return Err(format!(
-                        "f is not finite at {} on the contour: a singularity lies on it; move the contour",
-                        show(piece.point(at))
-                    ))
-                }
-                Err(e) => return Err(e.to_string()),
-            };
-            total.value += r.value;
-            total.error_estimate += r.error_estimate;
-            total.evaluations += r.evaluations;
-            total.converged &= r.converged;
+            let r = gauss_kronrod::integrate(&mut g, w[0], w[1], tol, budget);
+            total.absorb(r.map_err(|e| on_piece_error(piece, e))?);
         }
     }
     Ok(total)

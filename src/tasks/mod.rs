@@ -65,6 +65,12 @@ pub mod inverse_laplace;
 pub mod inverse_z;
 pub mod real_integral;
 
+/// A contour or region from a request, checked; the message names the field.
+pub fn checked_contour<'a>(c: &'a crate::contour::Contour, field: &str) -> Result<&'a crate::contour::Contour, ApiError> {
+    c.validate().map_err(|e| ApiError::new(format!("{field}: {e}")))?;
+    Ok(c)
+}
+
 /// A point of the contract: `Some(z)` for `[x, y]`, `None` for `"infinity"`.
 pub fn point(p: &Point, field: &str) -> Result<Option<C>, ApiError> {
     match p {

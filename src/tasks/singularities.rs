@@ -1,7 +1,7 @@
 //! `singularities`: poles (with orders and residues), zeros, essential
 //! singularities and branch points inside a region, plus the residue at infinity.
 
-use super::{budget, compile, hints};
+use super::{budget, checked_contour, compile, hints};
 use crate::api::{pair, PointOut, PoleOut, SingularitiesRequest, SingularitiesResponse, ZeroOut};
 use crate::contour::Contour;
 use crate::error::ApiError;
@@ -13,7 +13,7 @@ use crate::C;
 
 pub fn run(req: &SingularitiesRequest) -> Result<SingularitiesResponse, ApiError> {
     let f = compile(&req.function)?;
-    req.region.validate().map_err(|e| ApiError::new(format!("region: {e}")))?;
+    checked_contour(&req.region, "region")?;
     match f.rational() {
         Some(r) => rational(&f, &r.num, &r.den, &req.region),
         None => general(&f, &req.region, req.max_evaluations),
