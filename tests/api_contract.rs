@@ -250,3 +250,25 @@ fn removable_points_of_general_functions_are_listed() {
     assert!(v["poles"].as_array().unwrap().is_empty());
     assert_eq!(v["zeros"].as_array().unwrap().len(), 2);
 }
+
+#[test]
+fn a_product_of_many_factors_keeps_its_accuracy() {
+    // 1/Π_{j=1}^{15}(s+j): expanded, its denominator is a Wilkinson-type polynomial whose roots
+    // move by ~1e-6 under rounding; as typed, the factors pin them. Residue at −k is
+    // 1/Π_{j≠k}(j−k) (simple-pole rule g/h′; common practice).
+    let f = format!("1/({})", (1..=15).map(|j| format!("(s+{j})")).collect::<Vec<_>>().join("*"));
+    let v = run(json!({"task": "singularities", "f": f, "var": "s",
+                       "region": {"shape": "circle", "center": [-8, 0], "radius": 9}}));
+    let poles = v["poles"].as_array().unwrap();
+    assert_eq!(poles.len(), 15, "{v}");
+    for p in poles {
+        let (x, y) = c(&p["at"]);
+        let k = (-x).round() as i64;
+        assert!(((x + k as f64).powi(2) + y * y).sqrt() <= 1e-13 * k as f64, "pole near −{k}: {p}");
+        let exact = 1.0 / (1..=15).filter(|&j| j != k).map(|j| (j - k) as f64).product::<f64>();
+        let (re, im) = c(&p["residue"]);
+        let err = (re - exact).hypot(im);
+        assert!(err <= 1e-12 * exact.abs(), "residue at −{k}: {re} vs {exact}");
+        assert!(err <= p["error_estimate"].as_f64().unwrap(), "estimate at −{k}");
+    }
+}

@@ -99,6 +99,52 @@ fn cluster_warning(c: &RootCluster, what: &str) -> Option<String> {
 
 /// Analyse `num/den` (ascending coefficients; common roots may remain).
 pub fn analyse_rational(num: &[C], den: &[C]) -> Result<RationalAnalysis, String> {
+    analyse(num, den, None)
+}
+
+/// Value and derivative of f as the user typed it (products of factors kept).
+pub type AsTyped<'a> = &'a dyn Fn(C) -> (C, C);
+
+/// Like [`analyse_rational`], with every pole and zero location polished by
+/// Newton's method on f as typed (`z ← z ± m·f/f′`). Expanding a product of
+/// many factors into coefficients can make its roots far more sensitive than
+/// the factors were (Wilkinson's example, (s+1)(s+2)…(s+20)); the expression
+/// as typed keeps them well conditioned. A polished root is kept only if the
+/// iteration converges near where it started; the principal parts are then
+/// computed from the polished factors.
+pub fn analyse_rational_polished(num: &[C], den: &[C], as_typed: AsTyped) -> Result<RationalAnalysis, String> {
+    analyse(num, den, Some(as_typed))
+}
+
+/// Newton's method for a root of order `m` of f (`pole = false`) or of 1/f
+/// (`pole = true`), from `z`, moving at most `reach`. Returns the polished
+/// point and an error estimate, or `None` when it does not settle.
+fn polish(as_typed: AsTyped, z: C, m: u32, pole: bool, reach: f64) -> Option<(C, f64)> {
+    let m = m as f64;
+    let mut x = z;
+    for _ in 0..12 {
+        let (v, d) = as_typed(x);
+        if !(v.is_finite() && d.is_finite()) || d == ZERO_C {
+            // Exactly on the point (f infinite or zero): nothing left to move.
+            return (v == ZERO_C || !v.is_finite()).then_some((x, 4.0 * UNIT_ROUNDOFF * x.norm()));
+        }
+        let ratio = v / d;
+        let step = if pole { -ratio * m } else { ratio * m };
+        if !step.is_finite() {
+            return None;
+        }
+        x -= step;
+        if (x - z).norm() > reach {
+            return None;
+        }
+        if step.norm() <= 4.0 * UNIT_ROUNDOFF * x.norm().max(f64::MIN_POSITIVE) {
+            return Some((x, 4.0 * step.norm() + 4.0 * UNIT_ROUNDOFF * x.norm()));
+        }
+    }
+    None
+}
+
+fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAnalysis, String> {
     check_finite(num, "numerator")?;
     check_finite(den, "denominator")?;
     let num = trim(num);
@@ -123,8 +169,8 @@ pub fn analyse_rational(num: &[C], den: &[C]) -> Result<RationalAnalysis, String
             warnings,
         });
     }
-    let (den_clusters, den_ok) = distinct_roots(&den).map_err(|e| format!("denominator: {e}"))?;
-    let (num_clusters, num_ok) = if num.len() > 1 {
+    let (mut den_clusters, den_ok) = distinct_roots(&den).map_err(|e| format!("denominator: {e}"))?;
+    let (mut num_clusters, num_ok) = if num.len() > 1 {
         distinct_roots(&num).map_err(|e| format!("numerator: {e}"))?
     } else {
         (Vec::new(), true)
@@ -165,6 +211,39 @@ pub fn analyse_rational(num: &[C], den: &[C]) -> Result<RationalAnalysis, String
         }
     }
 
+    // Polish unpaired poles and zeros on f as typed; each may move at most a
+    // quarter of the way to the nearest other root.
+    let mut polished_all = false;
+    if let Some(as_typed) = as_typed {
+        let centers: Vec<C> = den_clusters.iter().chain(&num_clusters).map(|c| c.center).collect();
+        let reach = |z: C| {
+            let nearest = centers.iter().map(|c| (c - z).norm()).filter(|&d| d > 0.0).fold(f64::INFINITY, f64::min);
+            if nearest.is_finite() { 0.25 * nearest } else { 0.25 * z.norm().max(1.0) }
+        };
+        polished_all = true;
+        for (i, d) in den_clusters.iter_mut().enumerate() {
+            if zero_order_at[i] > 0 {
+                continue; // cancelled against a zero: f is finite there
+            }
+            match polish(as_typed, d.center, d.multiplicity, true, reach(d.center)) {
+                Some((z, e)) => {
+                    d.center = z;
+                    d.error = e;
+                }
+                None => polished_all = false,
+            }
+        }
+        for (j, z) in num_clusters.iter_mut().enumerate() {
+            if num_used[j] {
+                continue;
+            }
+            if let Some((x, e)) = polish(as_typed, z.center, z.multiplicity, false, reach(z.center)) {
+                z.center = x;
+                z.error = e;
+            }
+        }
+    }
+
     let lead = den[den.len() - 1];
     let factors: Vec<(C, u32)> = den_clusters
         .iter()
@@ -176,7 +255,7 @@ pub fn analyse_rational(num: &[C], den: &[C]) -> Result<RationalAnalysis, String
     let mut zeros = Vec::new();
     for (i, d) in den_clusters.iter().enumerate() {
         let k = zero_order_at[i];
-        let e = local_expansion(&num, &den, lead, &factors, &factor_errors, i, k);
+        let e = local_expansion(&num, &den, lead, &factors, &factor_errors, i, k, !polished_all);
         match e.limit {
             None => {
                 let residue = e.principal_part.first().copied().unwrap_or(ZERO_C);
@@ -306,10 +385,19 @@ fn matches(a: C, s: C, e: f64) -> Option<f64> {
 
 /// Residue of `num/den` at the point `a`: pole, removable singularity or regular point.
 pub fn residue_at_point(num: &[C], den: &[C], a: C) -> Result<PointResidue, String> {
+    residue_at_point_with(num, den, a, None)
+}
+
+/// [`residue_at_point`] with the poles polished on f as typed (see [`analyse_rational_polished`]).
+pub fn residue_at_point_polished(num: &[C], den: &[C], a: C, as_typed: AsTyped) -> Result<PointResidue, String> {
+    residue_at_point_with(num, den, a, Some(as_typed))
+}
+
+fn residue_at_point_with(num: &[C], den: &[C], a: C, as_typed: Option<AsTyped>) -> Result<PointResidue, String> {
     if !a.is_finite() {
         return Err("the point must be finite; ask for the residue at infinity separately".into());
     }
-    let r = analyse_rational(num, den)?;
+    let r = analyse(num, den, as_typed)?;
     let nearest = r
         .poles
         .iter()

@@ -18,7 +18,7 @@ use crate::contour::Contour;
 use crate::error::ApiError;
 use crate::expr::Function;
 use crate::singular::count_by_argument_principle;
-use crate::singular::rational_poles::analyse_rational;
+use crate::singular::rational_poles::analyse_rational_polished;
 use crate::C;
 
 pub fn run(req: &ArgumentCountRequest) -> Result<ArgumentCountResponse, ApiError> {
@@ -30,7 +30,7 @@ pub fn run(req: &ArgumentCountRequest) -> Result<ArgumentCountResponse, ApiError
     let mut warnings = Vec::new();
     let (points, method) = match f.rational() {
         Some(r) => (
-            rational_points(&r.num, &r.den, contour, &mut warnings)?,
+            rational_points(&f, &r.num, &r.den, contour, &mut warnings)?,
             "rational",
         ),
         None => (
@@ -89,12 +89,13 @@ fn counted(at: C, kind: &str, order: u32, winding: i32) -> CountedPoint {
 }
 
 fn rational_points(
+    f: &Function,
     num: &[C],
     den: &[C],
     contour: &Contour,
     warnings: &mut Vec<String>,
 ) -> Result<Option<Vec<CountedPoint>>, ApiError> {
-    let a = analyse_rational(num, den).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
     warnings.extend(a.warnings.iter().cloned());
     let mut out = Vec::new();
     let all = a

@@ -33,7 +33,7 @@ use crate::quad::contour_quadrature::{contour_integral, on_piece_error};
 use crate::quad::Tolerance;
 use crate::quad::{gauss_kronrod, QuadResult};
 use crate::singular::cut_crossing::{cut_crossings, Crossing};
-use crate::singular::rational_poles::{analyse_rational, format_complex};
+use crate::singular::rational_poles::{analyse_rational_polished, format_complex};
 use crate::singular::{classify_point, find_singularities, Kind, RegionResult};
 use crate::C;
 use std::f64::consts::PI;
@@ -86,7 +86,7 @@ pub fn run(req: &ContourIntegralRequest) -> Result<ContourIntegralResponse, ApiE
     let mut warnings = Vec::new();
     let (ways, method) = match f.rational() {
         Some(r) => (
-            rational_ways(&r.num, &r.den, contour, &mut warnings)?,
+            rational_ways(&f, &r.num, &r.den, contour, &mut warnings)?,
             "rational",
         ),
         None => (
@@ -351,12 +351,13 @@ fn orientation(contour: &Contour) -> i32 {
 }
 
 fn rational_ways(
+    f: &Function,
     num: &[C],
     den: &[C],
     contour: &Contour,
     warnings: &mut Vec<String>,
 ) -> Result<ResidueWays, ApiError> {
-    let a = analyse_rational(num, den).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
     warnings.extend(a.warnings.iter().cloned());
     let points: Vec<Singular> = a
         .poles

@@ -19,7 +19,7 @@ use super::{budget, compile_text, hints};
 use crate::api::{FunctionInput, Number};
 use crate::error::ApiError;
 use crate::expr::Function;
-use crate::singular::rational_poles::{analyse_rational, format_real};
+use crate::singular::rational_poles::{analyse_rational_polished, format_real};
 use crate::transforms::delay_estimate::{estimate_delay, left_growth_rate};
 use crate::transforms::fixed_talbot::{invert, plan, TalbotError, TalbotValue, NODES};
 use crate::transforms::laplace_residues::{closed_form, has_real_coefficients, residue_sum};
@@ -160,7 +160,7 @@ fn rational(
     times: &[f64],
     budget: &mut crate::budget::Budget,
 ) -> Result<InverseLaplaceResponse, ApiError> {
-    let a = analyse_rational(num, den).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
     let real = has_real_coefficients(num, den);
     let mut warnings = a.warnings.clone();
     let q = a.polynomial_part.clone();

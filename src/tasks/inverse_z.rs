@@ -26,7 +26,7 @@ use crate::series::inverse_z_long_division::{causal_sequence, deflate};
 use crate::series::inverse_z_residues::ResidueForm;
 use crate::series::inverse_z_trapezoid::{inverse_z_trapezoid, ContourResult};
 use crate::singular::find_singularities;
-use crate::singular::rational_poles::{analyse_rational, format_real};
+use crate::singular::rational_poles::{analyse_rational_polished, format_real};
 use crate::C;
 use serde::{Deserialize, Serialize};
 use std::collections::BTreeMap;
@@ -176,7 +176,7 @@ fn rational(
     budget: &mut crate::budget::Budget,
     warnings: &mut Vec<String>,
 ) -> Result<InverseZResponse, ApiError> {
-    let analysis = analyse_rational(num, den).map_err(ApiError::new)?;
+    let analysis = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
     let form = ResidueForm::from_analysis(&analysis).map_err(ApiError::new)?;
     warnings.extend(analysis.warnings.iter().cloned());
     let r0 = analysis

@@ -3,7 +3,7 @@
 use super::{compile, pairs};
 use crate::api::{pair, FractionTerm, PartialFractionsRequest, PartialFractionsResponse};
 use crate::error::ApiError;
-use crate::singular::rational_poles::{analyse_rational, partial_fractions_string};
+use crate::singular::rational_poles::{analyse_rational_polished, partial_fractions_string};
 
 pub fn run(req: &PartialFractionsRequest) -> Result<PartialFractionsResponse, ApiError> {
     let f = compile(&req.function)?;
@@ -14,7 +14,7 @@ pub fn run(req: &PartialFractionsRequest) -> Result<PartialFractionsResponse, Ap
             f.var()
         ))
     })?;
-    let a = analyse_rational(&r.num, &r.den).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(&r.num, &r.den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
     let mut terms = Vec::new();
     let mut error_estimate: f64 = 0.0;
     for p in &a.poles {

@@ -42,7 +42,7 @@ use crate::quad::gauss_kronrod::{integrate, integrate_infinite};
 use crate::quad::trapezoid_periodic::integrate_periodic;
 use crate::quad::{QuadError, QuadResult, Tolerance};
 use crate::singular::product_residue::{exp_taylor, power_taylor, product_residue};
-use crate::singular::rational_poles::{analyse_rational, format_complex, PoleInfo};
+use crate::singular::rational_poles::{analyse_rational_polished, format_complex, PoleInfo};
 use crate::singular::{classify_point, find_singularities, Hints, Kind};
 use crate::C;
 use serde::{Deserialize, Serialize};
@@ -337,7 +337,7 @@ fn line_rational(
     budget: &mut Budget,
     warnings: &mut Vec<String>,
 ) -> Result<(ResidueSide, QuadResult), ApiError> {
-    let a = analyse_rational(num, den).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
     warnings.extend(a.warnings.iter().cloned());
     let zero = crate::poly::trim(num).is_empty();
     let decay = -a.infinity_order;
@@ -879,7 +879,7 @@ fn mellin(
             alpha.re
         )));
     }
-    let a = analyse_rational(&num, &den).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(&num, &den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
     warnings.extend(a.warnings.iter().cloned());
     let scale = a.poles.iter().map(|p| p.at.norm()).fold(1.0, f64::max);
     let mut used = Vec::new();

@@ -8,7 +8,7 @@ use crate::api::{pair, ResidueRequest, ResidueResponse};
 use crate::error::ApiError;
 use crate::expr::Function;
 use crate::singular::rational_check::check_residues;
-use crate::singular::rational_poles::{analyse_rational, format_complex, residue_at_point};
+use crate::singular::rational_poles::{analyse_rational, analyse_rational_polished, format_complex, residue_at_point_polished};
 use crate::singular::{classify_infinity, classify_point, PointResult};
 use crate::C;
 
@@ -22,12 +22,14 @@ pub fn run(req: &ResidueRequest) -> Result<ResidueResponse, ApiError> {
 }
 
 fn rational_at(f: &Function, num: &[C], den: &[C], a: C) -> Result<ResidueResponse, ApiError> {
-    let r = residue_at_point(num, den, a).map_err(ApiError::new)?;
+    let r = residue_at_point_polished(num, den, a, &|z| f.eval_d(z)).map_err(ApiError::new)?;
     let mut warnings = Vec::new();
     let mut error_estimate = r.error_estimate;
     if r.kind.as_str() == "pole" {
         // The same independent check as in `singularities`: sample the expression as typed.
-        let all: Vec<C> = analyse_rational(num, den).map(|x| x.poles.iter().map(|p| p.at).collect()).unwrap_or_default();
+        let all: Vec<C> = analyse_rational_polished(num, den, &|z| f.eval_d(z))
+            .map(|x| x.poles.iter().map(|p| p.at).collect())
+            .unwrap_or_default();
         let eval = |z: C| f.eval(z);
         if let Some(Some(c)) = check_residues(&eval, &[(r.at, r.residue, r.error_estimate)], &all, &mut budget(None)).pop() {
             error_estimate = error_estimate.max(c.difference + c.sampled_error);

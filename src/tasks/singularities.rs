@@ -7,7 +7,7 @@ use crate::contour::Contour;
 use crate::error::ApiError;
 use crate::expr::Function;
 use crate::singular::rational_check::check_residues;
-use crate::singular::rational_poles::{analyse_rational, format_complex};
+use crate::singular::rational_poles::{analyse_rational_polished, format_complex};
 use crate::singular::{classify_infinity, classify_point, find_singularities, Kind};
 use crate::C;
 
@@ -26,7 +26,7 @@ fn inside(region: &Contour, z: C) -> Option<bool> {
 }
 
 fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<SingularitiesResponse, ApiError> {
-    let a = analyse_rational(num, den).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
     let mut warnings = a.warnings.clone();
     let mut boundary = Vec::new();
     let mut on_boundary = |what: &str, z: C| {
