@@ -144,6 +144,46 @@ fn polish(as_typed: AsTyped, z: C, m: u32, pole: bool, reach: f64) -> Option<(C,
     None
 }
 
+/// Aberth–Ehrlich sweeps (Aberth 1973) for the simple poles, with the
+/// logarithmic derivative of the denominator taken from f as typed:
+/// den′/den = num′/num − f′/f. The new locations are kept only if every
+/// sweep converges to distinct finite points.
+fn aberth_on_typed(poles: &mut [RootCluster], num: &[C], as_typed: AsTyped) {
+    let mut z: Vec<C> = poles.iter().map(|c| c.center).collect();
+    let dnum = crate::poly::derivative(num);
+    let mut last = vec![f64::INFINITY; z.len()];
+    for _ in 0..60 {
+        let mut largest: f64 = 0.0;
+        for i in 0..z.len() {
+            let (v, d) = as_typed(z[i]);
+            if !v.is_finite() || v == ZERO_C {
+                last[i] = 0.0; // exactly on a pole (or a zero of f): nothing to move
+                continue;
+            }
+            let num_ratio = if num.len() > 1 { crate::poly::eval(&dnum, z[i]) / crate::poly::eval(num, z[i]) } else { ZERO_C };
+            let den_ratio = num_ratio - d / v;
+            let others: C = (0..z.len()).filter(|&j| j != i).map(|j| (z[i] - z[j]).inv()).sum();
+            let step = (den_ratio - others).inv();
+            if !step.is_finite() {
+                return;
+            }
+            z[i] -= step;
+            last[i] = step.norm();
+            largest = largest.max(step.norm() / z[i].norm().max(f64::MIN_POSITIVE));
+        }
+        if largest <= 4.0 * UNIT_ROUNDOFF {
+            let distinct = (0..z.len()).all(|i| (0..i).all(|j| z[i] != z[j]));
+            if distinct && z.iter().all(|x| x.is_finite()) {
+                for ((c, &x), &e) in poles.iter_mut().zip(&z).zip(&last) {
+                    c.center = x;
+                    c.error = 4.0 * e + 4.0 * UNIT_ROUNDOFF * x.norm();
+                }
+            }
+            return;
+        }
+    }
+}
+
 fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAnalysis, String> {
     check_finite(num, "numerator")?;
     check_finite(den, "denominator")?;
@@ -211,6 +251,17 @@ fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAn
         }
     }
 
+    // When every pole is simple and none cancels, first run Aberth–Ehrlich
+    // sweeps for all poles at once on f as typed: the simultaneous iteration
+    // repairs even approximations that started near the wrong pole.
+    if let Some(as_typed) = as_typed {
+        if den_clusters.len() >= 2
+            && den_clusters.iter().all(|c| c.multiplicity == 1)
+            && zero_order_at.iter().all(|&k| k == 0)
+        {
+            aberth_on_typed(&mut den_clusters, &num, as_typed);
+        }
+    }
     // Polish unpaired poles and zeros on f as typed; each may move at most a
     // quarter of the way to the nearest other root.
     let mut polished_all = false;
