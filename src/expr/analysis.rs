@@ -97,16 +97,7 @@ fn power(
             // Non-integer constant power of a non-constant base.
             an.uses_branch_functions = true;
             if let Some(r) = rx {
-                add_roots(
-                    &r.num,
-                    &mut an.branch_candidates,
-                    &mut an.branch_candidate_polys,
-                );
-                add_roots(
-                    &r.den,
-                    &mut an.branch_candidates,
-                    &mut an.branch_candidate_polys,
-                );
+                add_zeros_and_poles(&r, an);
             }
             None
         }
@@ -119,16 +110,7 @@ fn power(
             an.uses_branch_functions = true;
             an.is_entire_transcendental_at_infinity = true;
             if let Some(r) = rx {
-                add_roots(
-                    &r.num,
-                    &mut an.branch_candidates,
-                    &mut an.branch_candidate_polys,
-                );
-                add_roots(
-                    &r.den,
-                    &mut an.branch_candidates,
-                    &mut an.branch_candidate_polys,
-                );
+                add_zeros_and_poles(&r, an);
             }
             if let Some(r) = ry {
                 add_roots(
@@ -195,6 +177,12 @@ fn call(f: Func, arg: Option<Rational>, an: &mut Analysis) {
         }
         _ => {}
     }
+}
+
+/// Zeros and poles of a rational base or argument: branch candidates.
+fn add_zeros_and_poles(r: &Rational, an: &mut Analysis) {
+    add_roots(&r.num, &mut an.branch_candidates, &mut an.branch_candidate_polys);
+    add_roots(&r.den, &mut an.branch_candidates, &mut an.branch_candidate_polys);
 }
 
 /// Roots of `p` (degree <= 2) into `points`, or `p` itself into `polys`.

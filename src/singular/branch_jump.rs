@@ -25,6 +25,47 @@ pub struct JumpScan {
 
 /// Scan |z − a| = r with `n` samples, bisect the suspicious intervals, and
 /// return the angles of the discontinuities.
+/// Where bisection of a step of the parameter ended.
+pub(crate) struct Bisected {
+    /// Midpoint of the final bracket.
+    pub at: f64,
+    /// |f| difference across the final bracket: stays large only for a jump.
+    pub size: f64,
+    /// False when f was not finite somewhere on the way (bisection stopped there).
+    pub finite: bool,
+}
+
+/// Bisect a step `[(t0, f0), (t1, f1)]` of a parametrised path `at(t)`
+/// towards the side with the larger change, `steps` times: a jump keeps its
+/// size as the bracket shrinks, a steep but continuous change does not
+/// (bisection, e.g. Burden & Faires, Numerical Analysis, §2.1).
+pub(crate) fn bisect_jump(
+    f: &dyn Fn(C) -> C,
+    at: &dyn Fn(f64) -> C,
+    ends: [(f64, C); 2],
+    steps: usize,
+    budget: &mut Budget,
+) -> Result<Bisected, String> {
+    let [(mut t0, mut v0), (mut t1, mut v1)] = ends;
+    let mut finite = true;
+    for _ in 0..steps {
+        let tm = 0.5 * (t0 + t1);
+        let vm = eval(f, at(tm), budget)?;
+        if !is_finite(vm) {
+            finite = false;
+            break;
+        }
+        if (vm - v0).norm() >= (v1 - vm).norm() {
+            t1 = tm;
+            v1 = vm;
+        } else {
+            t0 = tm;
+            v0 = vm;
+        }
+    }
+    Ok(Bisected { at: 0.5 * (t0 + t1), size: (v1 - v0).norm(), finite })
+}
+
 pub fn scan_for_jumps(
     f: &dyn Fn(C) -> C,
     a: C,
@@ -70,28 +111,13 @@ pub fn scan_for_jumps(
         if d0 <= 1e-12 * max_abs {
             continue;
         }
-        let (mut t0, mut t1) = (
-            2.0 * PI * j as f64 / n as f64,
-            2.0 * PI * (j + 1) as f64 / n as f64,
-        );
-        let (mut v0, mut v1) = (vals[j], vals[(j + 1) % n]);
-        for _ in 0..44 {
-            let tm = 0.5 * (t0 + t1);
-            let vm = eval(f, at(tm), budget)?;
-            if !is_finite(vm) {
-                break;
-            }
-            if (vm - v0).norm() >= (v1 - vm).norm() {
-                t1 = tm;
-                v1 = vm;
-            } else {
-                t0 = tm;
-                v0 = vm;
-            }
-        }
-        let d = (v1 - v0).norm();
-        if d > 0.1 * d0 && d > 1e-9 * max_abs.max(f64::MIN_POSITIVE) {
-            jumps.push(0.5 * (t0 + t1));
+        let ends = [
+            (2.0 * PI * j as f64 / n as f64, vals[j]),
+            (2.0 * PI * (j + 1) as f64 / n as f64, vals[(j + 1) % n]),
+        ];
+        let b = bisect_jump(f, &at, ends, 44, budget)?;
+        if b.size > 0.1 * d0 && b.size > 1e-9 * max_abs.max(f64::MIN_POSITIVE) {
+            jumps.push(b.at);
         }
     }
     jumps.sort_by(|x, y| x.partial_cmp(y).unwrap_or(std::cmp::Ordering::Equal));

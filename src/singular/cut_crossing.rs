@@ -12,6 +12,7 @@
 // `!(a <= b)` is deliberate: a NaN must take the cautious branch.
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
+use super::branch_jump::bisect_jump;
 use super::{eval, is_finite};
 use crate::budget::Budget;
 use crate::contour::{Contour, Piece};
@@ -100,27 +101,10 @@ fn piece_crossings(
         if !(d0 > 1e-12 * max_abs) {
             continue;
         }
-        let (mut t0, mut t1) = (ts[j], ts[j + 1]);
-        let (mut v0, mut v1) = (vals[j], vals[j + 1]);
-        let mut finite = true;
-        for _ in 0..50 {
-            let tm = 0.5 * (t0 + t1);
-            let vm = eval(f, piece.point(tm), budget)?;
-            if !is_finite(vm) {
-                finite = false;
-                break;
-            }
-            if (vm - v0).norm() >= (v1 - vm).norm() {
-                t1 = tm;
-                v1 = vm;
-            } else {
-                t0 = tm;
-                v0 = vm;
-            }
-        }
-        let d = (v1 - v0).norm();
-        if finite && d > 0.1 * d0 && d > 1e-9 * max_abs {
-            jumps.push(0.5 * (t0 + t1));
+        let point = |t: f64| piece.point(t);
+        let b = bisect_jump(f, &point, [(ts[j], vals[j]), (ts[j + 1], vals[j + 1])], 50, budget)?;
+        if b.finite && b.size > 0.1 * d0 && b.size > 1e-9 * max_abs {
+            jumps.push(b.at);
         }
     }
     jumps.sort_by(|x, y| x.total_cmp(y));

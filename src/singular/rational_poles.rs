@@ -596,9 +596,12 @@ pub fn partial_fractions_string(a: &RationalAnalysis, var: &str) -> String {
             terms.push((neg, format!("{text}/{factor}{power}")));
         }
     }
-    if terms.is_empty() {
-        return "0".into();
-    }
+    join_signed(&terms)
+}
+
+/// Signed terms joined as `a - b + c` (a leading `-` when the first is
+/// negative); `"0"` when there are none. Shared by every closed-form writer.
+pub fn join_signed(terms: &[(bool, String)]) -> String {
     let mut s = String::new();
     for (i, (neg, body)) in terms.iter().enumerate() {
         match (i, neg) {
@@ -608,7 +611,11 @@ pub fn partial_fractions_string(a: &RationalAnalysis, var: &str) -> String {
             (_, false) => s.push_str(&format!(" + {body}")),
         }
     }
-    s
+    if s.is_empty() {
+        "0".into()
+    } else {
+        s
+    }
 }
 
 #[cfg(test)]

@@ -286,18 +286,5 @@ fn complex_pole_terms(p: &PoleInfo, tol: f64) -> Vec<(bool, String)> {
 
 /// Signed terms joined: `a - b + c`; "0" when empty.
 fn join(terms: &[(bool, String)]) -> String {
-    let mut s = String::new();
-    for (i, (neg, body)) in terms.iter().enumerate() {
-        match (i, neg) {
-            (0, true) => s.push_str(&format!("-{body}")),
-            (0, false) => s.push_str(body),
-            (_, true) => s.push_str(&format!(" - {body}")),
-            (_, false) => s.push_str(&format!(" + {body}")),
-        }
-    }
-    if s.is_empty() {
-        "0".into()
-    } else {
-        s
-    }
+    crate::singular::rational_poles::join_signed(terms)
 }
