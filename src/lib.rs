@@ -16,7 +16,6 @@ pub mod quad;
 pub mod series;
 pub mod singular;
 pub mod special;
-pub mod tasks;
 pub mod transforms;
 
 #[cfg(target_arch = "wasm32")]

@@ -1,11 +1,11 @@
 //! The WebAssembly binding: a thin layer over [`crate::api`] for the page.
 //!
-//! Every export answers errors as data (`{"error":{"message":..,"span":..}}`)
+//! Every export answers errors as data (`{"error":{"code":..,"message":..,"span":..}}`)
 //! rather than throwing, except `phase_plot_rgba`, whose error is a rejected
 //! value carrying the same object so the page can show the message.
 
 use crate::api::{self, PhasePlotRequest};
-use crate::error::ApiError;
+use crate::api::{ApiError, ErrorCode};
 use serde::Serialize;
 use serde_json::Value;
 use wasm_bindgen::prelude::*;
@@ -25,7 +25,7 @@ fn to_js<T: Serialize + ?Sized>(value: &T) -> JsValue {
         Err(e) => {
             // Last resort: a hand-built error object, so callers never see a throw.
             let message = format!("internal: could not encode the response: {e}");
-            let error = ApiError::new(message).to_json();
+            let error = ApiError::internal(message).to_json();
             error.serialize(&serializer).unwrap_or(JsValue::NULL)
         }
     }
@@ -34,11 +34,11 @@ fn to_js<T: Serialize + ?Sized>(value: &T) -> JsValue {
 /// Read a JS request object as JSON.
 fn from_js(request: JsValue) -> Result<Value, ApiError> {
     serde_wasm_bindgen::from_value::<Value>(request)
-        .map_err(|e| ApiError::new(format!("the request is not a plain JSON-like object: {e}")))
+        .map_err(|e| ApiError::new(ErrorCode::BadRequest, format!("the request is not a plain JSON-like object: {e}")))
 }
 
 /// Run one request object (the public JSON contract); returns the response
-/// object or `{error:{message,span}}`. Never throws.
+/// object or `{error:{code,message,span}}`. Never throws.
 #[wasm_bindgen]
 pub fn run(request: JsValue) -> JsValue {
     let result = from_js(request).and_then(api::run_json_value);
@@ -55,12 +55,12 @@ pub fn run_json(text: &str) -> String {
 }
 
 /// Raw RGBA pixels of a phase plot (rows `rows[0]..rows[1]` when given).
-/// On failure, rejects with `{error:{message,span}}`.
+/// On failure, rejects with `{error:{code,message,span}}`.
 #[wasm_bindgen]
 pub fn phase_plot_rgba(request: JsValue) -> Result<Vec<u8>, JsValue> {
     let value = from_js(request).map_err(|e| to_js(&e.to_json()))?;
     let parsed: PhasePlotRequest = serde_json::from_value(value)
-        .map_err(|e| to_js(&ApiError::new(format!("bad \"phase_plot\" request: {e}")).to_json()))?;
+        .map_err(|e| to_js(&ApiError::new(ErrorCode::BadRequest, format!("bad \"phase_plot\" request: {e}")).to_json()))?;
     match api::phase_plot_rgba(&parsed) {
         Ok(pixels) => Ok(pixels.rgba),
         Err(e) => Err(to_js(&e.to_json())),

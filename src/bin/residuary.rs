@@ -141,7 +141,7 @@ fn plot(args: &[String]) {
     let request = PhasePlotRequest { function, view, size, options, format: Some("png".into()), rows: None };
     let pixels = api::phase_plot_rgba(&request).unwrap_or_else(|e| fail(&e.to_string()));
     let png = residuary::plot::png_encode::encode_png_rgba(pixels.width, pixels.height, &pixels.rgba)
-        .unwrap_or_else(|e| fail(&e));
+        .unwrap_or_else(|e| fail(&e.to_string()));
     std::fs::write(&output, png).unwrap_or_else(|e| fail(&format!("could not write {output}: {e}")));
     eprintln!("wrote {output} ({}x{})", pixels.width, pixels.height);
 }

@@ -8,6 +8,7 @@
 //! runs through its vertices in the order given.
 
 use crate::C;
+use crate::error::Failure;
 use serde::{Deserialize, Serialize};
 use std::f64::consts::PI;
 
@@ -79,43 +80,43 @@ impl Contour {
     }
 
     /// Check that the shape is a usable closed curve; the message says how to fix it.
-    pub fn validate(&self) -> Result<(), String> {
+    pub fn validate(&self) -> Result<(), Failure> {
         let finite = |p: &[f64; 2]| p[0].is_finite() && p[1].is_finite();
         match self {
             Contour::Circle { center, radius } => {
                 if !finite(center) {
-                    return Err("the circle's center must be two finite numbers".into());
+                    return Err(Failure::invalid("the circle's center must be two finite numbers"));
                 }
                 if !(radius.is_finite() && *radius > 0.0) {
-                    return Err(format!("the circle's radius must be a positive number, got {radius}"));
+                    return Err(Failure::invalid(format!("the circle's radius must be a positive number, got {radius}")));
                 }
             }
             Contour::Ellipse { center, semi_axes, angle } => {
                 if !finite(center) || !angle.is_finite() {
-                    return Err("the ellipse's center and angle must be finite numbers".into());
+                    return Err(Failure::invalid("the ellipse's center and angle must be finite numbers"));
                 }
                 if !(semi_axes.iter().all(|a| a.is_finite() && *a > 0.0)) {
-                    return Err("the ellipse's semi_axes must be two positive numbers".into());
+                    return Err(Failure::invalid("the ellipse's semi_axes must be two positive numbers"));
                 }
             }
             Contour::Rectangle { corners } => {
                 if !corners.iter().all(finite) {
-                    return Err("the rectangle's corners must be finite numbers".into());
+                    return Err(Failure::invalid("the rectangle's corners must be finite numbers"));
                 }
                 let [p, q] = corners;
                 if p[0] == q[0] || p[1] == q[1] {
-                    return Err("the rectangle has zero width or height; give two opposite corners".into());
+                    return Err(Failure::invalid("the rectangle has zero width or height; give two opposite corners"));
                 }
             }
             Contour::Polygon { vertices } => {
                 if vertices.len() < 3 {
-                    return Err("a polygon needs at least 3 vertices".into());
+                    return Err(Failure::invalid("a polygon needs at least 3 vertices"));
                 }
                 if !vertices.iter().all(finite) {
-                    return Err("the polygon's vertices must be finite numbers".into());
+                    return Err(Failure::invalid("the polygon's vertices must be finite numbers"));
                 }
                 if self.signed_area().abs() == 0.0 {
-                    return Err("the polygon encloses no area; check its vertices".into());
+                    return Err(Failure::invalid("the polygon encloses no area; check its vertices"));
                 }
             }
         }
@@ -365,7 +366,7 @@ mod tests {
 
     #[test]
     fn bad_shapes_are_refused_with_advice() {
-        assert!(Contour::circle(C::new(0.0, 0.0), -1.0).validate().unwrap_err().contains("positive"));
+        assert!(Contour::circle(C::new(0.0, 0.0), -1.0).validate().unwrap_err().message().contains("positive"));
         assert!(Contour::Polygon { vertices: vec![[0.0, 0.0], [1.0, 1.0]] }.validate().is_err());
         assert!(Contour::rectangle(C::new(0.0, 0.0), C::new(0.0, 1.0)).validate().is_err());
     }

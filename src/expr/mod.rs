@@ -41,15 +41,6 @@ impl std::fmt::Display for ExprError {
 
 impl std::error::Error for ExprError {}
 
-impl From<ExprError> for crate::error::ApiError {
-    fn from(e: ExprError) -> Self {
-        crate::error::ApiError {
-            message: e.message,
-            span: e.span.map(|(a, b)| [a, b]),
-        }
-    }
-}
-
 /// Scalar evaluation keeps its registers on the stack up to this many.
 const STACK_REGISTERS: usize = 64;
 

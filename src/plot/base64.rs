@@ -4,6 +4,8 @@
 //! RFC 4648 (2006), section 4. Used to hand PNG images to the page as
 //! `data:` URLs.
 
+use crate::error::Failure;
+
 const ALPHABET: &[u8; 64] = b"ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/";
 
 /// Encodes bytes as padded base64 (RFC 4648 §4).
@@ -41,20 +43,20 @@ fn value(c: u8) -> Option<u32> {
 /// Decodes padded base64 (RFC 4648 §4). Strict: length must be a multiple
 /// of 4, only the standard alphabet, `=` only as final padding, and unused
 /// padding bits must be zero (RFC 4648 §3.5).
-pub fn decode(text: &str) -> Result<Vec<u8>, String> {
+pub fn decode(text: &str) -> Result<Vec<u8>, Failure> {
     let s = text.as_bytes();
     if !s.len().is_multiple_of(4) {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "base64 text has length {}, which is not a multiple of 4; check it was copied whole",
             s.len()
-        ));
+        )));
     }
     let mut out = Vec::with_capacity(s.len() / 4 * 3);
     let groups = s.len() / 4;
     for (g, quad) in s.chunks(4).enumerate() {
         let pad = quad.iter().rev().take_while(|&&c| c == b'=').count();
         if pad > 2 || (pad > 0 && g + 1 != groups) {
-            return Err(format!("misplaced '=' padding in base64 group {}", g + 1));
+            return Err(Failure::invalid(format!("misplaced '=' padding in base64 group {}", g + 1)));
         }
         let mut n = 0u32;
         for (k, &c) in quad.iter().enumerate() {
@@ -62,11 +64,11 @@ pub fn decode(text: &str) -> Result<Vec<u8>, String> {
                 0
             } else {
                 value(c).ok_or_else(|| {
-                    format!(
+                    Failure::invalid(format!(
                         "invalid base64 character {:?} at position {}",
                         c as char,
                         g * 4 + k
-                    )
+                    ))
                 })?
             };
             n = (n << 6) | v;
@@ -74,7 +76,7 @@ pub fn decode(text: &str) -> Result<Vec<u8>, String> {
         let bytes = [(n >> 16) as u8, (n >> 8) as u8, n as u8];
         let keep = 3 - pad;
         if bytes[keep..].iter().any(|&b| b != 0) {
-            return Err("base64 text has nonzero padding bits (non-canonical encoding)".into());
+            return Err(Failure::invalid("base64 text has nonzero padding bits (non-canonical encoding)"));
         }
         out.extend_from_slice(&bytes[..keep]);
     }

@@ -7,6 +7,7 @@
 //! anti-aliased alpha edge (coverage from the signed distance to the circles).
 
 use super::colour_wheel::{colour, Wheel};
+use crate::error::Failure;
 
 /// Largest legend side in pixels.
 pub const MAX_LEGEND_SIZE: u32 = 1024;
@@ -15,11 +16,11 @@ pub const RING_INNER: f64 = 0.55;
 
 /// RGBA8 image, `size × size`, row 0 at the top, of the colour ring;
 /// transparent outside the ring.
-pub fn legend_ring(size: u32, wheel: Wheel) -> Result<Vec<u8>, String> {
+pub fn legend_ring(size: u32, wheel: Wheel) -> Result<Vec<u8>, Failure> {
     if !(8..=MAX_LEGEND_SIZE).contains(&size) {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "legend size {size} is not allowed: choose 8..={MAX_LEGEND_SIZE} pixels"
-        ));
+        )));
     }
     let n = size as usize;
     let half = f64::from(size) / 2.0;

@@ -28,6 +28,7 @@
 
 pub use super::colour_wheel::Wheel;
 use super::colour_wheel::{lut, lut_index};
+use crate::error::Failure;
 use crate::C;
 use std::f64::consts::PI;
 
@@ -102,40 +103,40 @@ impl Default for PlotOptions {
 }
 
 /// Checks image size, view box and options; the error says what to change.
-pub fn validate(view: &View, width: u32, height: u32, opts: &PlotOptions) -> Result<(), String> {
+pub fn validate(view: &View, width: u32, height: u32, opts: &PlotOptions) -> Result<(), Failure> {
     if width == 0 || height == 0 || width > MAX_SIDE || height > MAX_SIDE {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "image size {width}×{height} is not allowed: width and height must each be 1..={MAX_SIDE} pixels"
-        ));
+        )));
     }
     if u64::from(width) * u64::from(height) > MAX_PIXELS {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "image of {width}×{height} pixels is too large: at most {MAX_PIXELS} pixels in total"
-        ));
+        )));
     }
     let View { x0, x1, y0, y1 } = *view;
     if ![x0, x1, y0, y1].iter().all(|v| v.is_finite()) {
-        return Err("view box must have finite corners; choose finite x0, x1, y0, y1".into());
+        return Err(Failure::invalid("view box must have finite corners; choose finite x0, x1, y0, y1"));
     }
     if !(x0 < x1 && y0 < y1) {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "view box is empty: need x0 < x1 and y0 < y1 (got x {x0}..{x1}, y {y0}..{y1})"
-        ));
+        )));
     }
     if !((x1 - x0).is_finite() && (y1 - y0).is_finite()) {
-        return Err("view box is too wide for double precision; choose a smaller view".into());
+        return Err(Failure::invalid("view box is too wide for double precision; choose a smaller view"));
     }
     if opts.phase_lines && !(1..=MAX_PHASE_LINES).contains(&opts.phase_line_count) {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "phase_line_count must be 1..={MAX_PHASE_LINES} (got {}); use e.g. 12, or turn phase lines off",
             opts.phase_line_count
-        ));
+        )));
     }
     if opts.modulus_lines && !(opts.modulus_base.is_finite() && opts.modulus_base > 1.0) {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "modulus_base must be a finite number greater than 1 (got {}); use e.g. 2 or 2.718281828",
             opts.modulus_base
-        ));
+        )));
     }
     Ok(())
 }
@@ -149,7 +150,7 @@ pub fn render(
     height: u32,
     opts: &PlotOptions,
     out: &mut [u8],
-) -> Result<(), String> {
+) -> Result<(), Failure> {
     render_rows(eval_block, view, width, height, 0, height, opts, out)
 }
 
@@ -168,21 +169,21 @@ pub fn render_rows(
     row_end: u32,
     opts: &PlotOptions,
     out: &mut [u8],
-) -> Result<(), String> {
+) -> Result<(), Failure> {
     validate(&view, width, height, opts)?;
     if !(row_start < row_end && row_end <= height) {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "row band {row_start}..{row_end} is invalid: need row_start < row_end <= height ({height})"
-        ));
+        )));
     }
     let w = width as usize;
     let band = (row_end - row_start) as usize;
     let need = band * w * 4;
     if out.len() != need {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "output buffer has {} bytes but rows {row_start}..{row_end} of width {width} need {need} (RGBA)",
             out.len()
-        ));
+        )));
     }
     let lines = opts.modulus_lines || opts.phase_lines;
     let mut r = Renderer::new(view, width, height, opts, lines);

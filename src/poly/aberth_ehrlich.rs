@@ -12,6 +12,7 @@
 //! there (each connected union of k discs holds exactly k roots).
 
 use super::{UNIT_ROUNDOFF, ZERO_C};
+use crate::error::Failure;
 use crate::C;
 
 /// Largest degree accepted.
@@ -132,11 +133,11 @@ fn initial_points(p: &[C]) -> Vec<C> {
     out
 }
 
-fn check_input(p: &[C]) -> Result<(), String> {
+fn check_input(p: &[C]) -> Result<(), Failure> {
     if let Some(k) = p.iter().position(|c| !c.is_finite()) {
-        return Err(format!(
+        return Err(Failure::not_finite(format!(
             "coefficient {k} of the polynomial is not a finite number; check the expression for overflow or division by zero"
-        ));
+        )));
     }
     Ok(())
 }
@@ -145,17 +146,17 @@ fn check_input(p: &[C]) -> Result<(), String> {
 ///
 /// Zeros at the origin (vanishing low coefficients) are returned exactly, first.
 /// Errors: a non-finite coefficient, the zero polynomial, degree above [`MAX_DEGREE`].
-pub fn roots(p: &[C]) -> Result<Roots, String> {
+pub fn roots(p: &[C]) -> Result<Roots, Failure> {
     check_input(p)?;
     let p = super::trim(p);
     if p.is_empty() {
-        return Err("the polynomial is identically zero, so it has no isolated roots".into());
+        return Err(Failure::invalid("the polynomial is identically zero, so it has no isolated roots"));
     }
     if p.len() - 1 > MAX_DEGREE {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "the polynomial has degree {}, above the limit {MAX_DEGREE}; simplify or factor the expression",
             p.len() - 1
-        ));
+        )));
     }
     let zeros_at_origin = p.iter().position(|c| *c != ZERO_C).unwrap_or(0);
     let q = &p[zeros_at_origin..];

@@ -12,6 +12,7 @@ pub mod partial_fractions;
 pub mod taylor;
 
 use crate::C;
+use crate::error::Failure;
 
 /// Complex zero.
 pub const ZERO_C: C = C::new(0.0, 0.0);
@@ -89,11 +90,11 @@ pub fn mul(a: &[C], b: &[C]) -> Vec<C> {
 }
 
 /// Polynomial division `num = q·den + r` with `deg r < deg den`.
-pub fn divrem(num: &[C], den: &[C]) -> Result<(Vec<C>, Vec<C>), String> {
+pub fn divrem(num: &[C], den: &[C]) -> Result<(Vec<C>, Vec<C>), Failure> {
     let den = trim(den);
     let num = trim(num);
     let Some(&lead) = den.last() else {
-        return Err("division by the zero polynomial; give a nonzero denominator".into());
+        return Err(Failure::invalid("division by the zero polynomial; give a nonzero denominator"));
     };
     if num.len() < den.len() {
         return Ok((Vec::new(), num));

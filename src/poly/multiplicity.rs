@@ -14,6 +14,7 @@
 // `!(a <= b)` is deliberate: a NaN must take the cautious branch.
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
+use crate::error::Failure;
 use super::aberth_ehrlich::{self, Roots};
 use super::taylor::{abs_coefficients_at, coefficients_at};
 use super::{nth_derivative, UNIT_ROUNDOFF};
@@ -45,7 +46,7 @@ pub struct RootCluster {
 }
 
 /// Roots of `p` grouped into distinct roots with multiplicities.
-pub fn distinct_roots(p: &[C]) -> Result<(Vec<RootCluster>, bool), String> {
+pub fn distinct_roots(p: &[C]) -> Result<(Vec<RootCluster>, bool), Failure> {
     let r = aberth_ehrlich::roots(p)?;
     Ok((cluster_roots(p, &r), r.converged))
 }

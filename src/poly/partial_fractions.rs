@@ -12,6 +12,7 @@
 //! A second, independent route divides the Taylor series of `num` and `den`
 //! about `a` directly; the two are compared for the error estimate.
 
+use crate::error::Failure;
 use super::taylor::{abs_coefficients_at, coefficients_at, div_trunc, exp_series, mul_trunc};
 use super::ZERO_C;
 use crate::C;
@@ -142,7 +143,7 @@ pub fn local_series_direct(
     m: usize,
     a: C,
     count: usize,
-) -> Result<Vec<C>, String> {
+) -> Result<Vec<C>, Failure> {
     let n = coefficients_at(num, a, k + count);
     let d = coefficients_at(den, a, m + count);
     div_trunc(&n[k..], &d[m..], count)

@@ -8,6 +8,7 @@
 //! Taylor coefficients use repeated synthetic division (Horner's scheme).
 
 use crate::C;
+use crate::error::Failure;
 
 const ZERO: C = C::new(0.0, 0.0);
 
@@ -23,10 +24,10 @@ pub fn mul_trunc(a: &[C], b: &[C], n: usize) -> Vec<C> {
 }
 
 /// First `n` coefficients of `1/a`; needs `a[0] ≠ 0`.
-pub fn reciprocal(a: &[C], n: usize) -> Result<Vec<C>, String> {
+pub fn reciprocal(a: &[C], n: usize) -> Result<Vec<C>, Failure> {
     let a0 = a.first().copied().unwrap_or(ZERO);
     if a0 == ZERO || !a0.is_finite() {
-        return Err("the series has no reciprocal: its constant term is zero".into());
+        return Err(Failure::invalid("the series has no reciprocal: its constant term is zero"));
     }
     let mut r = vec![ZERO; n];
     if n == 0 {
@@ -44,7 +45,7 @@ pub fn reciprocal(a: &[C], n: usize) -> Result<Vec<C>, String> {
 }
 
 /// First `n` coefficients of `a/b`; needs `b[0] ≠ 0`.
-pub fn div_trunc(a: &[C], b: &[C], n: usize) -> Result<Vec<C>, String> {
+pub fn div_trunc(a: &[C], b: &[C], n: usize) -> Result<Vec<C>, Failure> {
     Ok(mul_trunc(a, &reciprocal(b, n)?, n))
 }
 

@@ -6,6 +6,7 @@
 //! values and their error estimates are summed.
 
 use super::{gauss_kronrod, trapezoid_periodic, QuadError, QuadResult, Tolerance};
+use crate::error::Failure;
 use crate::budget::Budget;
 use crate::contour::{Contour, Piece};
 use crate::C;
@@ -36,7 +37,7 @@ pub fn contour_integral(
     contour: &Contour,
     tol: Tolerance,
     budget: &mut Budget,
-) -> Result<QuadResult, String> {
+) -> Result<QuadResult, Failure> {
     contour.validate()?;
     let pieces = contour.pieces();
     let piece_tol = Tolerance {
@@ -60,12 +61,13 @@ pub fn contour_integral(
 }
 
 /// The message for a failed piece: where f is not finite on it, or why else.
-pub fn on_piece_error(piece: &Piece, e: QuadError) -> String {
+pub fn on_piece_error(piece: &Piece, e: QuadError) -> Failure {
     match e {
-        QuadError::NotFinite { at } => format!(
+        QuadError::NotFinite { at } => Failure::on_contour(format!(
             "f is not finite at {} on the contour: a singularity lies on it; move the contour",
             show(piece.point(at))
-        ),
-        e => e.to_string(),
+        ))
+        .at(piece.point(at)),
+        e => e.into(),
     }
 }

@@ -88,6 +88,17 @@ impl std::fmt::Display for QuadError {
 
 impl std::error::Error for QuadError {}
 
+impl From<QuadError> for crate::error::Failure {
+    fn from(e: QuadError) -> Self {
+        use crate::error::Failure;
+        match e {
+            QuadError::NotFinite { .. } => Failure::not_finite(e.to_string()),
+            QuadError::Budget(b) => b.into(),
+            QuadError::Invalid(m) => Failure::invalid(m),
+        }
+    }
+}
+
 impl From<BudgetExceeded> for QuadError {
     fn from(b: BudgetExceeded) -> Self {
         QuadError::Budget(b)

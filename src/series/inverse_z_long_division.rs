@@ -11,16 +11,17 @@
 //! of the residue method.
 
 use crate::poly::taylor::div_trunc;
+use crate::error::Failure;
 use crate::poly::{divrem, trim};
 use crate::C;
 
 /// x[0..count) of the causal inverse of num/den (ascending coefficients).
 /// Fails when deg num > deg den (X grows at infinity: not a causal transform).
-pub fn causal_sequence(num: &[C], den: &[C], count: usize) -> Result<Vec<C>, String> {
+pub fn causal_sequence(num: &[C], den: &[C], count: usize) -> Result<Vec<C>, Failure> {
     let num = trim(num);
     let den = trim(den);
     if den.is_empty() {
-        return Err("the denominator is identically zero".into());
+        return Err(Failure::invalid("the denominator is identically zero"));
     }
     let zero = C::new(0.0, 0.0);
     if num.is_empty() {
@@ -28,7 +29,7 @@ pub fn causal_sequence(num: &[C], den: &[C], count: usize) -> Result<Vec<C>, Str
     }
     let (p, q) = (num.len() - 1, den.len() - 1);
     if p > q {
-        return Err(improper_message(p, q));
+        return Err(Failure::not_applicable(improper_message(p, q)));
     }
     let shift = q - p;
     let reversed_num: Vec<C> = num.iter().rev().copied().collect();

@@ -19,6 +19,7 @@
 //! the pole location and principal-part coefficient.
 
 use crate::singular::rational_poles::{format_real, RationalAnalysis};
+use crate::error::Failure;
 use crate::C;
 
 const EPS: f64 = f64::EPSILON;
@@ -50,7 +51,7 @@ pub struct ResidueForm {
 impl ResidueForm {
     /// The form from an exact rational analysis; fails when X has a polynomial
     /// part of degree ≥ 1 (X grows at infinity: no causal inverse).
-    pub fn from_analysis(a: &RationalAnalysis) -> Result<ResidueForm, String> {
+    pub fn from_analysis(a: &RationalAnalysis) -> Result<ResidueForm, Failure> {
         let scale = a
             .polynomial_part
             .iter()
@@ -61,10 +62,10 @@ impl ResidueForm {
             .skip(1)
             .any(|c| c.norm() > 64.0 * EPS * scale)
         {
-            return Err(format!(
+            return Err(Failure::not_applicable(format!(
                 "X(z) grows like z^{} as |z| → ∞, so it is not the z-transform of a causal sequence; divide X by a power of z to shift the sequence",
                 a.polynomial_part.len() - 1
-            ));
+            )));
         }
         let constant = a.polynomial_part.first().copied().unwrap_or_default();
         let poles = a

@@ -21,6 +21,7 @@
 //! vanish: if not, X grows at infinity or has a singularity outside the circle.
 
 use crate::budget::Budget;
+use crate::error::Failure;
 use crate::C;
 use rustfft::FftPlanner;
 use std::f64::consts::PI;
@@ -63,9 +64,9 @@ pub fn inverse_z_trapezoid(
     ns: &[u64],
     max_samples: usize,
     budget: &mut Budget,
-) -> Result<ContourResult, String> {
+) -> Result<ContourResult, Failure> {
     if !(singular_radius.is_finite() && singular_radius >= 0.0) {
-        return Err("the singular radius must be a finite number ≥ 0".into());
+        return Err(Failure::invalid("the singular radius must be a finite number ≥ 0"));
     }
     // Values need 2(n + 1) samples or more; larger n are left out (None).
     let n_max = ns
@@ -90,7 +91,7 @@ pub fn inverse_z_trapezoid(
         }
     }
     if circles.is_empty() {
-        return Err("X could not be sampled on any circle outside its singularities; check the expression (is X finite for large |z|?)".into());
+        return Err(Failure::not_finite("X could not be sampled on any circle outside its singularities; check the expression (is X finite for large |z|?)"));
     }
     let largest = circles
         .iter()

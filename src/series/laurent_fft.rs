@@ -25,6 +25,7 @@
 //! |z| = ρ is sampling g on |w| = 1/ρ, so the same circles serve both.
 
 use crate::budget::Budget;
+use crate::error::Failure;
 use crate::C;
 use rustfft::FftPlanner;
 use std::f64::consts::PI;
@@ -81,17 +82,17 @@ pub fn coefficients_on_circle(
     from: i64,
     to: i64,
     budget: &mut Budget,
-) -> Result<Vec<C>, String> {
+) -> Result<Vec<C>, Failure> {
     if samples == 0 || !(radius.is_finite() && radius > 0.0) || from > to {
-        return Err("need samples > 0, a positive finite radius and from ≤ to".into());
+        return Err(Failure::invalid("need samples > 0, a positive finite radius and from ≤ to"));
     }
-    budget.spend(samples as u64).map_err(|e| e.to_string())?;
+    budget.spend(samples as u64)?;
     let mut values = Vec::with_capacity(samples);
     for k in 0..samples {
         let z = center + C::from_polar(radius, 2.0 * PI * k as f64 / samples as f64);
         let v = f(z);
         if !finite(v) {
-            return Err(not_finite_message(z, center, radius));
+            return Err(Failure::not_finite(not_finite_message(z, center, radius)).at(z));
         }
         values.push(v);
     }
@@ -110,7 +111,7 @@ pub fn laurent<F: FnMut(C) -> C>(
     req: &LaurentRequest,
     known_singularities: &[C],
     budget: &mut Budget,
-) -> Result<LaurentResult, String> {
+) -> Result<LaurentResult, Failure> {
     let (center, inner, outer) = check_request(req)?;
     check_singularities(req, center, inner, outer, known_singularities)?;
     let start = budget.used();
@@ -127,7 +128,7 @@ pub fn laurent<F: FnMut(C) -> C>(
     }
     if fits.len() < 2 {
         let (z, rho) = first_failure.unwrap_or((center, inner));
-        return Err(not_finite_message(z, center, rho));
+        return Err(Failure::not_finite(not_finite_message(z, center, rho)).at(z));
     }
     combine(&fits, req, center, budget.used() - start)
 }
@@ -141,7 +142,7 @@ struct CircleFit {
 
 enum CircleFailure {
     NotFinite(C),
-    Budget(String),
+    Budget(Failure),
 }
 
 fn finite(z: C) -> bool {
@@ -188,7 +189,7 @@ fn fit_on_circle(
     let cap = MAX_SAMPLES_PER_CIRCLE.max(4 * n);
     budget
         .spend(n as u64)
-        .map_err(|e| CircleFailure::Budget(e.to_string()))?;
+        .map_err(|e| CircleFailure::Budget(e.into()))?;
     let mut samples = Vec::with_capacity(n);
     for k in 0..n {
         samples.push(sample(
@@ -204,7 +205,7 @@ fn fit_on_circle(
     loop {
         budget
             .spend(n as u64)
-            .map_err(|e| CircleFailure::Budget(e.to_string()))?;
+            .map_err(|e| CircleFailure::Budget(e.into()))?;
         let mut finer = Vec::with_capacity(2 * n);
         for (k, &old) in samples.iter().enumerate() {
             finer.push(old);
@@ -289,7 +290,7 @@ fn combine(
     req: &LaurentRequest,
     center: C,
     used: u64,
-) -> Result<LaurentResult, String> {
+) -> Result<LaurentResult, Failure> {
     let mut coefficients = Vec::new();
     let mut errors = Vec::new();
     let mut radius_used = Vec::new();
@@ -299,9 +300,9 @@ fn combine(
         let (best, second) = (&fits[order[0]], &fits[order[1]]);
         let (c, mut e) = (best.values[i], best.errors[i]);
         if !(e.is_finite() && finite(c)) {
-            return Err(format!(
+            return Err(Failure::not_finite(format!(
                 "c_{n} cannot be represented in double precision on this annulus (it over- or underflows); rescale the variable or ask for fewer coefficients"
-            ));
+            )));
         }
         // Any two circles that both claim accuracy must agree.
         for p in 0..fits.len() {
@@ -313,10 +314,10 @@ fn combine(
                 {
                     let (lo, hi) = (a.radius.min(b.radius), a.radius.max(b.radius));
                     let ring = ring_text(req.center, center);
-                    return Err(format!(
+                    return Err(Failure::unresolved(format!(
                         "the coefficient c_{n} computed on {ring} = {} and on {ring} = {} disagree ({} vs {}): f probably has a singularity (or branch cut) with {} < {ring} < {} inside the requested annulus, so it has no single Laurent series there; narrow the annulus to avoid it",
                         short(lo), short(hi), show(a.values[i]), show(b.values[i]), short(lo), short(hi)
-                    ));
+                    )));
                 }
             }
         }
@@ -338,10 +339,10 @@ fn combine(
     })
 }
 
-fn check_request(req: &LaurentRequest) -> Result<(C, f64, f64), String> {
+fn check_request(req: &LaurentRequest) -> Result<(C, f64, f64), Failure> {
     let center = match req.center {
         Center::Point(a) if finite(a) => a,
-        Center::Point(_) => return Err("the center must be a finite complex number".into()),
+        Center::Point(_) => return Err(Failure::invalid("the center must be a finite complex number")),
         Center::Infinity => C::new(0.0, 0.0),
     };
     let inner = req.inner;
@@ -351,29 +352,29 @@ fn check_request(req: &LaurentRequest) -> Result<(C, f64, f64), String> {
         req.outer
     };
     if !(inner.is_finite() && inner >= 0.0) {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "the inner radius must be a finite number ≥ 0, got {inner}"
-        ));
+        )));
     }
     if outer.is_nan() || outer <= inner {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "the outer radius ({outer}) must be larger than the inner radius ({inner})"
-        ));
+        )));
     }
     if req.from > req.to {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "from ({}) must not exceed to ({})",
             req.from, req.to
-        ));
+        )));
     }
     if req.from < -MAX_INDEX || req.to > MAX_INDEX {
-        return Err(format!("coefficient indices must lie within ±{MAX_INDEX}"));
+        return Err(Failure::invalid(format!("coefficient indices must lie within ±{MAX_INDEX}")));
     }
     if req.to - req.from + 1 > MAX_COEFFICIENTS {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "{} coefficients requested; at most {MAX_COEFFICIENTS} per request—narrow from..to",
             req.to - req.from + 1
-        ));
+        )));
     }
     Ok((center, inner, outer))
 }
@@ -385,7 +386,7 @@ fn check_singularities(
     inner: f64,
     outer: f64,
     known: &[C],
-) -> Result<(), String> {
+) -> Result<(), Failure> {
     let scale = if outer.is_finite() {
         outer
     } else {
@@ -415,10 +416,10 @@ fn check_singularities(
     };
     let ring = ring_text(req.center, center);
     if req.center == Center::Infinity {
-        return Err(format!(
+        return Err(Failure::invalid(format!(
             "the region {ring} > {} around infinity contains a singularity at {}{more}; choose r1 > {}",
             short(inner), show(first), round_up(d_max)
-        ));
+        )));
     }
     let region = if outer.is_finite() {
         format!("{} < {ring} < {}", short(inner), short(outer))
@@ -429,10 +430,10 @@ fn check_singularities(
     if d_max < outer {
         advice += &format!(" or r1 > {}", round_up(d_max));
     }
-    Err(format!(
+    Err(Failure::invalid(format!(
         "the annulus {region} contains a singularity at {}{more}; {advice}",
         show(first)
-    ))
+    )))
 }
 
 fn not_finite_message(z: C, center: C, rho: f64) -> String {

@@ -10,6 +10,7 @@
 //! number of times, a cut merely passing through the centre an even number.
 
 use super::{eval, is_finite};
+use crate::error::Failure;
 use crate::budget::Budget;
 use crate::C;
 use std::f64::consts::PI;
@@ -45,7 +46,7 @@ pub(crate) fn bisect_jump(
     ends: [(f64, C); 2],
     steps: usize,
     budget: &mut Budget,
-) -> Result<Bisected, String> {
+) -> Result<Bisected, Failure> {
     let [(mut t0, mut v0), (mut t1, mut v1)] = ends;
     let mut finite = true;
     for _ in 0..steps {
@@ -72,7 +73,7 @@ pub fn scan_for_jumps(
     r: f64,
     n: usize,
     budget: &mut Budget,
-) -> Result<JumpScan, String> {
+) -> Result<JumpScan, Failure> {
     let at = |th: f64| a + C::from_polar(r, th);
     let mut vals = Vec::with_capacity(n);
     for j in 0..n {

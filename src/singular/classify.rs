@@ -15,6 +15,7 @@
 //! bisection (branch_jump.rs), and then get no residue.
 
 use super::branch_jump::scan_for_jumps;
+use crate::error::Failure;
 use super::residue_trapezoid::{laurent_on_circle, CircleLaurent};
 use super::{eval, is_finite, show, Hints, Kind, PointResult};
 use crate::budget::Budget;
@@ -36,7 +37,7 @@ pub fn classify_point(
     a: C,
     hints: &Hints,
     budget: &mut Budget,
-) -> Result<PointResult, String> {
+) -> Result<PointResult, Failure> {
     classify_point_near(f, a, hints, &[], budget)
 }
 
@@ -49,7 +50,7 @@ pub fn classify_infinity(
     f: &dyn Fn(C) -> C,
     hints: &Hints,
     budget: &mut Budget,
-) -> Result<PointResult, String> {
+) -> Result<PointResult, Failure> {
     let h = |w: C| f(C::new(1.0, 0.0) / w);
     let map = |v: &Vec<C>| -> Vec<C> {
         v.iter()
@@ -77,11 +78,11 @@ pub(crate) fn classify_point_near(
     hints: &Hints,
     others: &[C],
     budget: &mut Budget,
-) -> Result<PointResult, String> {
+) -> Result<PointResult, Failure> {
     if !is_finite(a) {
-        return Err(
-            "the point must be a finite complex number (use classify_infinity for infinity)".into(),
-        );
+        return Err(Failure::invalid(
+            "the point must be a finite complex number (use classify_infinity for infinity)",
+        ));
     }
     let mut out = analyse(f, a, hints, others, false, budget)?;
     for w in out.warnings.iter_mut() {
@@ -97,7 +98,7 @@ fn analyse(
     others: &[C],
     at_infinity: bool,
     budget: &mut Budget,
-) -> Result<PointResult, String> {
+) -> Result<PointResult, Failure> {
     let scale = 1.0 + a.norm();
     let mut cap = FIRST_RADIUS;
     for p in others
@@ -138,10 +139,10 @@ fn analyse(
             return Ok(branch_point());
         }
         if last > 0 {
-            return Err(format!(
+            return Err(Failure::cut_crossing(format!(
                 "f jumps across a branch cut through {} (the principal branch of log, sqrt or a non-integer power): f is not analytic in any punctured disk around it, so a residue is not defined there, and it is not a branch point either; ask at a point off the cut, or rewrite f so that its cut lies elsewhere (e.g. log(-z) instead of log(z) moves log's cut to the positive real axis)",
                 if at_infinity { "infinity".to_string() } else { show(a) }
-            ));
+            )));
         }
     }
     if hinted_branch && counts.iter().all(|c| c.is_none()) {

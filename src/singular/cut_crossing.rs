@@ -12,6 +12,7 @@
 // `!(a <= b)` is deliberate: a NaN must take the cautious branch.
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
+use crate::error::Failure;
 use super::branch_jump::bisect_jump;
 use super::{eval, is_finite};
 use crate::budget::Budget;
@@ -40,7 +41,7 @@ pub fn cut_crossings(
     f: &dyn Fn(C) -> C,
     contour: &Contour,
     budget: &mut Budget,
-) -> Result<Vec<Crossing>, String> {
+) -> Result<Vec<Crossing>, Failure> {
     contour.validate()?;
     let mut out = Vec::new();
     for (i, piece) in contour.pieces().iter().enumerate() {
@@ -59,7 +60,7 @@ fn piece_crossings(
     f: &dyn Fn(C) -> C,
     piece: &Piece,
     budget: &mut Budget,
-) -> Result<Vec<f64>, String> {
+) -> Result<Vec<f64>, Failure> {
     // Parameters 0, 1/n, …, 1 (a periodic piece's last interval wraps to t = 1 ≡ 0).
     let n = SAMPLES;
     let ts: Vec<f64> = (0..=n).map(|k| k as f64 / n as f64).collect();

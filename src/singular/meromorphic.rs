@@ -13,6 +13,7 @@
 //! classify.rs (trapezoidal rule on circles).
 
 use super::aaa::aaa;
+use crate::error::Failure;
 use super::argument_principle::{count_by_argument_principle, is_cut_error};
 use super::classify::classify_point_near;
 use super::newton_refine::{newton_refine, Refined, Target};
@@ -62,7 +63,7 @@ pub fn find_singularities(
     region: &Contour,
     hints: &Hints,
     budget: &mut Budget,
-) -> Result<RegionResult, String> {
+) -> Result<RegionResult, Failure> {
     region.validate()?;
     let mut warnings = Vec::new();
     let count = match count_by_argument_principle(f, region, budget) {
@@ -101,7 +102,7 @@ pub fn find_singularities(
                 Kind::BranchPoint => branch_points.push(p),
                 _ => {}
             },
-            Err(e) if e.contains("budget") => return Err(e),
+            Err(e) if e.is_budget() => return Err(e),
             Err(e) => warnings.push(format!(
                 "could not classify the flagged point {}: {e}",
                 show(p)
@@ -179,7 +180,7 @@ pub fn find_singularities(
             .collect();
         let r = match classify_point_near(f, p.at, &classify_hints, &others, budget) {
             Ok(r) => r,
-            Err(e) if e.contains("budget") => return Err(e),
+            Err(e) if e.is_budget() => return Err(e),
             Err(e) => {
                 warnings.push(format!(
                     "a pole of order {} at {} could not be examined further: {e}",
@@ -270,7 +271,7 @@ fn search(
     count: Option<i64>,
     depth: usize,
     budget: &mut Budget,
-) -> Result<Vec<Pt>, String> {
+) -> Result<Vec<Pt>, Failure> {
     // Uncountable cells: split first (AAA on data with a jump is costly and poor).
     if count.is_none() && depth < MAX_DEPTH {
         if let Some(all) = subdivide(ctx, c, depth, budget)? {
@@ -310,9 +311,9 @@ fn subdivide(
     c: &Contour,
     depth: usize,
     budget: &mut Budget,
-) -> Result<Option<Vec<Pt>>, String> {
+) -> Result<Option<Vec<Pt>>, Failure> {
     let (lo, hi) = c.bounding_box();
-    let mut last_err = String::new();
+    let mut last_err: Option<Failure> = None;
     for attempt in 0..4 {
         let shift = [0.0123, -0.0311, 0.0457, 0.0][attempt];
         let xm = lo.re + (hi.re - lo.re) * (0.5 + shift);
@@ -328,10 +329,10 @@ fn subdivide(
         for q in &quads {
             match count_by_argument_principle(ctx.f, q, budget) {
                 Ok(n) => counts.push(Some(n)),
-                Err(e) if e.contains("budget") => return Err(e),
+                Err(e) if e.is_budget() => return Err(e),
                 Err(e) if is_cut_error(&e) => counts.push(None),
                 Err(e) => {
-                    last_err = e;
+                    last_err = Some(e);
                     ok = false;
                     break;
                 }
@@ -348,16 +349,17 @@ fn subdivide(
                 }
             }
             if all.len() > MAX_POINTS {
-                return Err(format!(
+                return Err(Failure::invalid(format!(
                     "more than {MAX_POINTS} zeros and poles lie in the region; shrink the region"
-                ));
+                )));
             }
         }
         return Ok(Some(all));
     }
     ctx.warnings.push(format!(
-        "could not subdivide the region near {}: {last_err}",
-        show(mid(c))
+        "could not subdivide the region near {}: {}",
+        show(mid(c)),
+        last_err.map(|e| e.to_string()).unwrap_or_default()
     ));
     Ok(None)
 }
@@ -384,7 +386,7 @@ fn locate(
     c: &Contour,
     counted: bool,
     budget: &mut Budget,
-) -> Result<(Vec<Pt>, bool), String> {
+) -> Result<(Vec<Pt>, bool), Failure> {
     let pieces = c.pieces();
     let lengths: Vec<f64> = pieces.iter().map(piece_length).collect();
     let total: f64 = lengths.iter().sum();
@@ -481,7 +483,7 @@ fn locate(
                     order = Some(n);
                     break;
                 }
-                Err(e) if e.contains("budget") => return Err(e),
+                Err(e) if e.is_budget() => return Err(e),
                 Err(_) => rho /= 3.0,
             }
         }
@@ -553,7 +555,7 @@ fn unhinted_essential(
     known: &[C],
     hints: &Hints,
     budget: &mut Budget,
-) -> Result<Vec<C>, String> {
+) -> Result<Vec<C>, Failure> {
     let size = region.size();
     let link = 0.05 * size;
     let loose: Vec<C> = ctx
@@ -623,7 +625,7 @@ fn unhinted_essential(
                     .collect();
                 match classify_point_near(ctx.f, p, hints, &others, budget) {
                     Ok(r) if r.kind == Kind::Essential => Some(p),
-                    Err(e) if e.contains("budget") => return Err(e),
+                    Err(e) if e.is_budget() => return Err(e),
                     _ => None,
                 }
             }
@@ -650,7 +652,7 @@ fn pin_log_derivative_pole(
     centre: C,
     rad: f64,
     budget: &mut Budget,
-) -> Result<Option<C>, String> {
+) -> Result<Option<C>, Failure> {
     let Some(l) = laurent_on_circle(g, centre, rad, 16, 4096, budget)? else {
         return Ok(None);
     };
@@ -683,7 +685,7 @@ fn single_point_of_order(
     n: i64,
     rho: f64,
     budget: &mut Budget,
-) -> Result<bool, String> {
+) -> Result<bool, Failure> {
     let m = n.unsigned_abs() as usize;
     let g = |w: C| {
         if n > 0 {

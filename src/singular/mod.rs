@@ -21,6 +21,7 @@ pub use classify::{classify_infinity, classify_point};
 pub use meromorphic::find_singularities;
 
 use crate::budget::Budget;
+use crate::error::Failure;
 use crate::C;
 use serde::Serialize;
 
@@ -110,8 +111,8 @@ pub struct RegionResult {
 }
 
 /// Evaluate f at z, charging one evaluation to the budget.
-pub(crate) fn eval(f: &dyn Fn(C) -> C, z: C, budget: &mut Budget) -> Result<C, String> {
-    budget.spend(1).map_err(|e| e.to_string())?;
+pub(crate) fn eval(f: &dyn Fn(C) -> C, z: C, budget: &mut Budget) -> Result<C, Failure> {
+    budget.spend(1)?;
     Ok(f(z))
 }
 

@@ -8,6 +8,7 @@
 //! it to g = 1/f: g/g' = (1/f)/(−f'/f²) = −f/f', so the step is z + m f/f'.
 
 use super::is_finite;
+use crate::error::Failure;
 use crate::budget::Budget;
 use crate::C;
 
@@ -36,7 +37,7 @@ pub fn newton_refine(
     target: Target,
     max_travel: f64,
     budget: &mut Budget,
-) -> Result<Option<Refined>, String> {
+) -> Result<Option<Refined>, Failure> {
     let merit = |v: C| match target {
         Target::Zero => v.norm(),
         Target::Pole => 1.0 / v.norm(),
@@ -47,7 +48,7 @@ pub fn newton_refine(
     let mut prev_step = f64::INFINITY;
     let mut prev_ratio = f64::NAN;
     let mut last_step = f64::NAN;
-    budget.spend(1).map_err(|e| e.to_string())?;
+    budget.spend(1)?;
     let (mut v, mut d) = fd(z);
     for _ in 0..80 {
         if merit(v) == 0.0 {
@@ -71,7 +72,7 @@ pub fn newton_refine(
         let mut t = 1.0;
         for _ in 0..6 {
             let zt = z + full * t;
-            budget.spend(1).map_err(|e| e.to_string())?;
+            budget.spend(1)?;
             let (vt, dt) = fd(zt);
             if merit(vt) < merit(v) || (target == Target::Pole && !is_finite(vt)) {
                 accepted = Some((zt, vt, dt, t));
@@ -117,7 +118,7 @@ pub fn newton_refine(
     }
     for k in 0..4 {
         let w = z + C::from_polar(delta, 0.3 + k as f64 * std::f64::consts::FRAC_PI_2);
-        budget.spend(1).map_err(|e| e.to_string())?;
+        budget.spend(1)?;
         let (vw, _) = fd(w);
         if !(merit(vw) > here) {
             return Ok(None);

@@ -13,6 +13,7 @@
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
 use crate::poly::multiplicity::{distinct_roots, RootCluster};
+use crate::error::Failure;
 use crate::poly::partial_fractions::local_expansion;
 use crate::poly::{divrem, trim, UNIT_ROUNDOFF, ZERO_C};
 use crate::C;
@@ -70,11 +71,11 @@ pub struct RationalAnalysis {
     pub warnings: Vec<String>,
 }
 
-fn check_finite(p: &[C], what: &str) -> Result<(), String> {
+fn check_finite(p: &[C], what: &str) -> Result<(), Failure> {
     if let Some(k) = p.iter().position(|c| !c.is_finite()) {
-        return Err(format!(
+        return Err(Failure::not_finite(format!(
             "coefficient {k} of the {what} is not a finite number; check the expression"
-        ));
+        )));
     }
     Ok(())
 }
@@ -98,7 +99,7 @@ fn cluster_warning(c: &RootCluster, what: &str) -> Option<String> {
 }
 
 /// Analyse `num/den` (ascending coefficients; common roots may remain).
-pub fn analyse_rational(num: &[C], den: &[C]) -> Result<RationalAnalysis, String> {
+pub fn analyse_rational(num: &[C], den: &[C]) -> Result<RationalAnalysis, Failure> {
     analyse(num, den, None)
 }
 
@@ -112,7 +113,7 @@ pub type AsTyped<'a> = &'a dyn Fn(C) -> (C, C);
 /// as typed keeps them well conditioned. A polished root is kept only if the
 /// iteration converges near where it started; the principal parts are then
 /// computed from the polished factors.
-pub fn analyse_rational_polished(num: &[C], den: &[C], as_typed: AsTyped) -> Result<RationalAnalysis, String> {
+pub fn analyse_rational_polished(num: &[C], den: &[C], as_typed: AsTyped) -> Result<RationalAnalysis, Failure> {
     analyse(num, den, Some(as_typed))
 }
 
@@ -184,15 +185,15 @@ fn aberth_on_typed(poles: &mut [RootCluster], num: &[C], as_typed: AsTyped) {
     }
 }
 
-fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAnalysis, String> {
+fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAnalysis, Failure> {
     check_finite(num, "numerator")?;
     check_finite(den, "denominator")?;
     let num = trim(num);
     let den = trim(den);
     if den.is_empty() {
-        return Err(
-            "the denominator is identically zero; the expression is undefined everywhere".into(),
-        );
+        return Err(Failure::invalid(
+            "the denominator is identically zero; the expression is undefined everywhere",
+        ));
     }
     let mut warnings = Vec::new();
     if num.is_empty() {
@@ -209,9 +210,9 @@ fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAn
             warnings,
         });
     }
-    let (mut den_clusters, den_ok) = distinct_roots(&den).map_err(|e| format!("denominator: {e}"))?;
+    let (mut den_clusters, den_ok) = distinct_roots(&den).map_err(|e| e.context("denominator: "))?;
     let (mut num_clusters, num_ok) = if num.len() > 1 {
-        distinct_roots(&num).map_err(|e| format!("numerator: {e}"))?
+        distinct_roots(&num).map_err(|e| e.context("numerator: "))?
     } else {
         (Vec::new(), true)
     };
@@ -435,18 +436,18 @@ fn matches(a: C, s: C, e: f64) -> Option<f64> {
 }
 
 /// Residue of `num/den` at the point `a`: pole, removable singularity or regular point.
-pub fn residue_at_point(num: &[C], den: &[C], a: C) -> Result<PointResidue, String> {
+pub fn residue_at_point(num: &[C], den: &[C], a: C) -> Result<PointResidue, Failure> {
     residue_at_point_with(num, den, a, None)
 }
 
 /// [`residue_at_point`] with the poles polished on f as typed (see [`analyse_rational_polished`]).
-pub fn residue_at_point_polished(num: &[C], den: &[C], a: C, as_typed: AsTyped) -> Result<PointResidue, String> {
+pub fn residue_at_point_polished(num: &[C], den: &[C], a: C, as_typed: AsTyped) -> Result<PointResidue, Failure> {
     residue_at_point_with(num, den, a, Some(as_typed))
 }
 
-fn residue_at_point_with(num: &[C], den: &[C], a: C, as_typed: Option<AsTyped>) -> Result<PointResidue, String> {
+fn residue_at_point_with(num: &[C], den: &[C], a: C, as_typed: Option<AsTyped>) -> Result<PointResidue, Failure> {
     if !a.is_finite() {
-        return Err("the point must be finite; ask for the residue at infinity separately".into());
+        return Err(Failure::invalid("the point must be finite; ask for the residue at infinity separately"));
     }
     let r = analyse(num, den, as_typed)?;
     let nearest = r

@@ -8,6 +8,7 @@
 //! convergent trapezoidal rule", SIAM Review 56 (2014) 385–458, §§3, 10.
 
 use super::{eval, is_finite};
+use crate::error::Failure;
 use crate::budget::Budget;
 use crate::C;
 use std::f64::consts::PI;
@@ -63,7 +64,7 @@ fn sample(
     n: usize,
     j: usize,
     budget: &mut Budget,
-) -> Result<C, String> {
+) -> Result<C, Failure> {
     let th = OFFSET + 2.0 * PI * j as f64 / n as f64;
     eval(f, a + C::from_polar(r, th), budget)
 }
@@ -78,7 +79,7 @@ pub fn laurent_on_circle(
     k_max: usize,
     n_max: usize,
     budget: &mut Budget,
-) -> Result<Option<CircleLaurent>, String> {
+) -> Result<Option<CircleLaurent>, Failure> {
     let mut n = (4 * k_max).max(64).next_power_of_two();
     let n_max = n_max.max(n);
     let mut samples: Vec<C> = Vec::with_capacity(n);
@@ -171,7 +172,7 @@ pub fn residue_by_trapezoid(
     a: C,
     r: f64,
     budget: &mut Budget,
-) -> Result<(C, f64), String> {
+) -> Result<(C, f64), Failure> {
     let outer = laurent_on_circle(f, a, r, 8, 1 << 14, budget)?;
     let inner = laurent_on_circle(f, a, 0.5 * r, 8, 1 << 14, budget)?;
     match (outer, inner) {
@@ -183,10 +184,10 @@ pub fn residue_by_trapezoid(
                 + 4.0 * f64::EPSILON * res.norm();
             Ok((res, err))
         }
-        _ => Err(format!(
+        _ => Err(Failure::not_finite(format!(
             "f is not finite on the circle |z − a| = {r} or {}; choose another radius",
             0.5 * r
-        )),
+        ))),
     }
 }
 
@@ -219,7 +220,7 @@ pub fn recenter_pole(
     rho: f64,
     invert: bool,
     budget: &mut Budget,
-) -> Result<C, String> {
+) -> Result<C, Failure> {
     let g = |z: C| {
         if invert {
             C::new(1.0, 0.0) / f(z)

@@ -17,10 +17,10 @@
 // `!(a <= b)` is deliberate: a NaN must take the cautious branch.
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
-use super::{budget, compile_text};
-use crate::api::{FunctionInput, Number};
+use crate::api::input::{budget, compile_text};
+use crate::api::wire::{FunctionInput, Number};
 use crate::contour::Contour;
-use crate::error::ApiError;
+use crate::api::error::{ApiError, ErrorCode};
 use crate::expr::Function;
 use crate::series::inverse_z_long_division::{causal_sequence, deflate};
 use crate::series::inverse_z_residues::ResidueForm;
@@ -124,12 +124,12 @@ pub fn run(req: &InverseZRequest) -> Result<InverseZResponse, ApiError> {
         warnings.push(format!(
             "a singularity lies outside the unit circle (|z| = {}): the sequence grows without bound (an unstable system). {}",
             format_real(r0),
-            super::CAUTION
+            crate::api::input::CAUTION
         ));
     } else if r0 >= 1.0 - 1e-12 {
         warnings.push(format!(
             "a singularity lies on the unit circle: the sequence does not decay (a marginally stable system). {}",
-            super::CAUTION
+            crate::api::input::CAUTION
         ));
     }
     response.warnings.extend(warnings);
@@ -139,12 +139,12 @@ pub fn run(req: &InverseZRequest) -> Result<InverseZResponse, ApiError> {
 /// Validate the indices: integers 0 ≤ n ≤ 10⁶, at most 10 000 of them.
 fn indices(n: &[f64]) -> Result<Vec<u64>, ApiError> {
     if n.is_empty() {
-        return Err(ApiError::new(
+        return Err(ApiError::invalid(
             "\"n\" is empty; give the indices wanted, e.g. \"n\": [0, 1, 2, 3]",
         ));
     }
     if n.len() > MAX_COUNT {
-        return Err(ApiError::new(format!(
+        return Err(ApiError::invalid(format!(
             "\"n\" has {} entries; at most {MAX_COUNT} per request — split the request",
             n.len()
         )));
@@ -152,15 +152,15 @@ fn indices(n: &[f64]) -> Result<Vec<u64>, ApiError> {
     n.iter()
         .map(|&v| {
             if !v.is_finite() || v.fract() != 0.0 {
-                Err(ApiError::new(format!(
+                Err(ApiError::invalid(format!(
                     "\"n\" must hold integers; {v} is not one"
                 )))
             } else if v < 0.0 {
-                Err(ApiError::new(format!(
+                Err(ApiError::invalid(format!(
                     "n must be ≥ 0 for the causal inverse (x[n] = 0 for n < 0); got {v}"
                 )))
             } else if v > MAX_N {
-                Err(ApiError::new(format!("n = {v} is too large; n ≤ 1000000")))
+                Err(ApiError::invalid(format!("n = {v} is too large; n ≤ 1000000")))
             } else {
                 Ok(v as u64)
             }
@@ -176,8 +176,8 @@ fn rational(
     budget: &mut crate::budget::Budget,
     warnings: &mut Vec<String>,
 ) -> Result<InverseZResponse, ApiError> {
-    let analysis = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
-    let form = ResidueForm::from_analysis(&analysis).map_err(ApiError::new)?;
+    let analysis = analyse_rational_polished(num, den, &|z| f.eval_d(z))?;
+    let form = ResidueForm::from_analysis(&analysis)?;
     warnings.extend(analysis.warnings.iter().cloned());
     let r0 = analysis
         .poles
@@ -198,7 +198,7 @@ fn rational(
     let division: Option<Vec<C>> = if work <= LONG_DIVISION_WORK {
         match causal_sequence(&rn, &rd, n_max + 1) {
             Ok(seq) => Some(ns.iter().map(|&n| seq[n as usize]).collect()),
-            Err(e) => return Err(ApiError::new(e)),
+            Err(e) => return Err(ApiError::from(e)),
         }
     } else {
         warnings.push("the long division was skipped (too much work for this n and degree); x comes from the residues".into());
@@ -304,7 +304,7 @@ fn general(
     let (r0, poles) = match singular_radius {
         Some(r) if r.is_finite() && r >= 0.0 => (r, Vec::new()),
         Some(_) => {
-            return Err(ApiError::new(
+            return Err(ApiError::invalid(
                 "\"singular_radius\" must be a finite number ≥ 0",
             ))
         }
@@ -312,9 +312,9 @@ fn general(
     };
     let mut eval = |z: C| f.eval(z);
     let contour =
-        inverse_z_trapezoid(&mut eval, r0, ns, MAX_SAMPLES, budget).map_err(ApiError::new)?;
+        inverse_z_trapezoid(&mut eval, r0, ns, MAX_SAMPLES, budget)?;
     if !(contour.positive_power_ratio <= POSITIVE_POWER_LIMIT) {
-        return Err(ApiError::new(format!(
+        return Err(ApiError::new(ErrorCode::NotApplicable, format!(
             "on |z| = {} X has positive powers of z (relative size {:.1e}): either X grows as |z| → ∞ (then it is not the transform of a causal sequence) or X has a singularity farther out than |z| = {}; give \"singular_radius\" at least as large as every singularity's modulus",
             format_real(contour.largest_radius),
             contour.positive_power_ratio,
@@ -323,7 +323,7 @@ fn general(
     }
     let values = contour_list(Some(&contour), ns.len());
     if let Some(i) = values.iter().position(|v| v.is_none()) {
-        return Err(ApiError::new(format!(
+        return Err(ApiError::invalid(format!(
             "n = {} is too large for the contour method (a non-rational X allows n ≤ {})",
             ns[i],
             MAX_SAMPLES / 2 - 1
@@ -361,7 +361,7 @@ fn search_singularities(
     budget: &mut crate::budget::Budget,
     warnings: &mut Vec<String>,
 ) -> (f64, Vec<PoleAt>) {
-    let h = super::hints(f);
+    let h = crate::api::input::hints(f);
     let mut r0 = h
         .essential_candidates
         .iter()

@@ -1,20 +1,47 @@
 //! `partial_fractions`: a rational f as polynomial part plus Σ c/(z − a)^k.
 
-use super::{compile, pairs};
-use crate::api::{pair, FractionTerm, PartialFractionsRequest, PartialFractionsResponse};
-use crate::error::ApiError;
+use crate::api::input::{compile, pairs};
+use crate::api::wire::{pair, FunctionInput};
+use crate::api::error::{ApiError, ErrorCode};
 use crate::singular::rational_poles::{analyse_rational_polished, partial_fractions_string};
+use serde::{Deserialize, Serialize};
+
+/// `partial_fractions`: a rational f as polynomial part plus Σ c/(z−a)^k.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct PartialFractionsRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct FractionTerm {
+    pub at: [f64; 2],
+    pub power: u32,
+    pub c: [f64; 2],
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct PartialFractionsResponse {
+    /// Ascending coefficients of the polynomial part.
+    pub polynomial: Vec<[f64; 2]>,
+    pub terms: Vec<FractionTerm>,
+    pub removable: Vec<[f64; 2]>,
+    /// The expansion written out, e.g. `1 + 0.5/(s + 1) - 0.5/(s + 3)`.
+    pub text: String,
+    pub error_estimate: f64,
+    pub warnings: Vec<String>,
+}
 
 pub fn run(req: &PartialFractionsRequest) -> Result<PartialFractionsResponse, ApiError> {
     let f = compile(&req.function)?;
     let r = f.rational().ok_or_else(|| {
-        ApiError::new(format!(
+        ApiError::new(ErrorCode::NotApplicable, format!(
             "partial fractions need a rational function (a ratio of polynomials in {}); this f is not one. \
              Use \"singularities\" or \"laurent\" for its poles and principal parts",
             f.var()
         ))
     })?;
-    let a = analyse_rational_polished(&r.num, &r.den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(&r.num, &r.den, &|z| f.eval_d(z))?;
     let mut terms = Vec::new();
     let mut error_estimate: f64 = 0.0;
     for p in &a.poles {

@@ -32,11 +32,11 @@
 // `!(a <= b)` is deliberate: a NaN must take the cautious branch.
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
-use super::{budget, compile, hints};
-use crate::api::{pair, FunctionInput, Number};
+use crate::api::input::{budget, compile, hints};
+use crate::api::wire::{pair, FunctionInput, Number};
 use crate::budget::Budget;
 use crate::contour::Contour;
-use crate::error::ApiError;
+use crate::api::error::{ApiError, ErrorCode};
 use crate::expr::Function;
 use crate::quad::gauss_kronrod::{integrate, integrate_infinite};
 use crate::quad::trapezoid_periodic::integrate_periodic;
@@ -44,6 +44,7 @@ use crate::quad::{QuadError, QuadResult, Tolerance};
 use crate::singular::product_residue::{exp_taylor, power_taylor, product_residue};
 use crate::singular::rational_poles::{analyse_rational_polished, format_complex, PoleInfo};
 use crate::singular::{classify_point, find_singularities, Hints, Kind};
+use crate::error::Failure;
 use crate::C;
 use serde::{Deserialize, Serialize};
 use std::f64::consts::PI;
@@ -142,13 +143,13 @@ pub fn run(req: &RealIntegralRequest) -> Result<RealIntegralResponse, ApiError> 
     let kind = req.kind.trim().to_ascii_lowercase();
     let real_param = |n: Option<Number>, name: &str| -> Result<f64, ApiError> {
         let Some(n) = n else {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::invalid(format!(
                 "kind \"{kind}\" needs \"{name}\" (a real number)"
             )));
         };
         let z = n.to_c();
         if !(z.re.is_finite() && z.im == 0.0) {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::invalid(format!(
                 "\"{name}\" must be a finite real number"
             )));
         }
@@ -166,15 +167,15 @@ pub fn run(req: &RealIntegralRequest) -> Result<RealIntegralResponse, ApiError> 
         "trig" => trig(&f, &mut budget, &mut warnings)?,
         "mellin" => {
             let Some(alpha) = req.alpha else {
-                return Err(ApiError::new(
+                return Err(ApiError::invalid(
                     "kind \"mellin\" needs \"alpha\" (a number or [re, im]): the integral is ∫_0^∞ x^(alpha−1) f(x) dx",
                 ));
             };
-            let alpha = super::finite(alpha, "alpha")?;
+            let alpha = crate::api::input::finite(alpha, "alpha")?;
             mellin(&f, alpha, &mut budget, &mut warnings)?
         }
         other => {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::invalid(format!(
                 "unknown kind \"{other}\"; use \"line\", \"fourier\", \"trig\" or \"mellin\""
             )))
         }
@@ -255,10 +256,10 @@ fn assemble(side: ResidueSide, q: QuadResult, mut warnings: Vec<String>) -> Real
 
 fn quad_error(e: QuadError, what: &str) -> ApiError {
     match e {
-        QuadError::NotFinite { at } => ApiError::new(format!(
+        QuadError::NotFinite { at } => ApiError::new(ErrorCode::Divergent, format!(
             "f is not finite at {what} = {at:.6e}: a singularity lies on the path of integration, so the integral diverges there; check the expression"
         )),
-        other => ApiError::new(other.to_string()),
+        other => Failure::from(other).into(),
     }
 }
 
@@ -337,18 +338,18 @@ fn line_rational(
     budget: &mut Budget,
     warnings: &mut Vec<String>,
 ) -> Result<(ResidueSide, QuadResult), ApiError> {
-    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z))?;
     warnings.extend(a.warnings.iter().cloned());
     let zero = crate::poly::trim(num).is_empty();
     let decay = -a.infinity_order;
     if !zero {
         if omega == 0.0 && decay < 2 {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::new(ErrorCode::Divergent, format!(
                 "∫ f(x) dx over the whole real line diverges: f falls off only like 1/x^{decay} (the residue formula needs deg denominator − deg numerator ≥ 2, here {decay}); for an oscillating factor use kind \"fourier\" with omega ≠ 0"
             )));
         }
         if omega != 0.0 && decay < 1 {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::new(ErrorCode::Divergent, format!(
                 "∫ f(x) e^(iωx) dx diverges: the amplitude f does not tend to 0 at infinity (deg denominator − deg numerator = {decay}, needs ≥ 1)"
             )));
         }
@@ -370,7 +371,7 @@ fn line_rational(
         let (res, res_err) = product_residue(&p.principal_part, &p.principal_part_errors, &taylor);
         let (weight, note) = if on_real_axis(p, pole_scale) {
             if p.order > 1 {
-                return Err(ApiError::new(format!(
+                return Err(ApiError::new(ErrorCode::Divergent, format!(
                     "f has a pole of order {} at x = {} on the real axis: the integral diverges, even as a principal value; move the pole off the axis (e.g. add a small damping)",
                     p.order,
                     show(C::new(p.at.re, 0.0))
@@ -523,7 +524,7 @@ fn sample_abs(
         for s in [x, -x] {
             let v = f.eval(C::new(s, 0.0));
             if !(v.re.is_finite() && v.im.is_finite()) {
-                return Err(ApiError::new(format!(
+                return Err(ApiError::new(ErrorCode::Divergent, format!(
                     "f is not finite at x = {s}: a singularity lies on the real axis, so the integral diverges (principal values are computed for rational f only)"
                 )));
             }
@@ -564,12 +565,12 @@ fn line_general(
     if omega == 0.0 {
         let (a16, a20) = (at(16) * 2f64.powi(16), at(20) * 2f64.powi(20));
         if !(a20 <= 0.25 * a16 + tiny && a20 <= 1e-2 * peak + tiny) {
-            return Err(ApiError::new(
+            return Err(ApiError::invalid(
                 "f does not appear to decay like 1/x² on the real axis (sampled up to |x| = 2^20), so ∫ f(x) dx may diverge; for an oscillating factor use kind \"fourier\"",
             ));
         }
     } else if !(at(20) <= 0.5 * at(16) + tiny && at(20) <= 1e-2 * peak + tiny) {
-        return Err(ApiError::new(
+        return Err(ApiError::invalid(
             "the amplitude f does not appear to tend to 0 on the real axis (sampled up to |x| = 2^20), so the Fourier integral may diverge",
         ));
     }
@@ -622,7 +623,7 @@ fn line_general(
         let eval = |z: C| f.eval(z);
         let eval_d = |z: C| f.eval_d(z);
         match find_singularities(&eval, &eval_d, &region, &h, budget) {
-            Err(e) if e.contains("budget") => return Err(ApiError::new(e)),
+            Err(e) if e.is_budget() => return Err(ApiError::from(e)),
             Err(e) => warnings.push(format!(
                 "the singularities could not be located, so the residue side is not computed: {e}"
             )),
@@ -673,7 +674,7 @@ fn general_residue_sum(
     let mut err = 0.0;
     for p in &found.poles {
         if p.at.im.abs() <= 1e-6 * (1.0 + p.at.norm()) {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::new(ErrorCode::Divergent, format!(
                 "f has a pole at about x = {} on the real axis: the integral diverges (principal values are computed for rational f only)",
                 show(C::new(p.at.re, 0.0))
             )));
@@ -725,12 +726,12 @@ fn trig(
         let a = f.eval(C::new(theta, 0.0));
         let b = f.eval(C::new(theta + 2.0 * PI, 0.0));
         if !(a.re.is_finite() && a.im.is_finite()) {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::new(ErrorCode::Divergent, format!(
                 "f is not finite at θ = {theta}: a singularity lies on the real θ axis, so the integral diverges"
             )));
         }
         if !((a - b).norm() <= 1e-9 * (1.0 + a.norm())) {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::new(ErrorCode::NotApplicable, format!(
                 "f is not 2π-periodic (f({theta}) ≠ f({theta} + 2π)): kind \"trig\" needs f built from cos and sin of the variable; for other integrands use kind \"line\" or a contour_integral"
             )));
         }
@@ -738,11 +739,11 @@ fn trig(
     let two_pi = 2.0 * PI;
     let mut g = |t: f64| f.eval(C::new(two_pi * t, 0.0)) * two_pi;
     let q = integrate_periodic(&mut g, Tolerance::default(), budget).map_err(|e| match e {
-        QuadError::NotFinite { at } => ApiError::new(format!(
+        QuadError::NotFinite { at } => ApiError::new(ErrorCode::Divergent, format!(
             "f is not finite at θ = {:.6}: a singularity lies on the real θ axis, so the integral diverges",
             at * two_pi
         )),
-        other => ApiError::new(other.to_string()),
+        other => Failure::from(other).into(),
     })?;
 
     // g(z) = f(−i log z)/(iz) on the unit disk.
@@ -775,7 +776,7 @@ fn trig(
         return Ok((side, q));
     }
     match find_singularities(&gz, &gzd, &region, &h, budget) {
-        Err(e) if e.contains("budget") => return Err(ApiError::new(e)),
+        Err(e) if e.is_budget() => return Err(ApiError::from(e)),
         Err(e) => warnings.push(format!(
             "the singularities of g(z) = f(−i log z)/(iz) in the unit disk could not be located, so the residue side is not computed: {e}"
         )),
@@ -800,7 +801,7 @@ fn trig(
             for &z in &found.essential {
                 match classify_point(&gz, z, &h, budget) {
                     Ok(r) if r.kind == Kind::Essential => points.push((z, r.residue, r.error_estimate, "essential singularity inside |z| = 1".into())),
-                    Err(e) if e.contains("budget") => return Err(ApiError::new(e)),
+                    Err(e) if e.is_budget() => return Err(ApiError::from(e)),
                     _ => points.push((z, None, 0.0, "essential singularity".into())),
                 }
             }
@@ -852,12 +853,12 @@ fn mellin(
     warnings: &mut Vec<String>,
 ) -> Result<(ResidueSide, QuadResult), ApiError> {
     let Some(r) = f.rational() else {
-        return Err(ApiError::new(
+        return Err(ApiError::invalid(
             "kind \"mellin\" needs f rational in the variable (a ratio of polynomials) with no poles on (0, ∞); for other f use kind \"line\" after the substitution x = e^u",
         ));
     };
     if alpha.im == 0.0 && (alpha.re - alpha.re.round()).abs() <= 1e-12 * (1.0 + alpha.re.abs()) {
-        return Err(ApiError::new(format!(
+        return Err(ApiError::new(ErrorCode::NotApplicable, format!(
             "alpha = {} is an integer: then x^(alpha−1) has no branch cut and the keyhole formula 2πi/(1 − e^(2πiα)) Σ Res degenerates (0/0); use a non-integer alpha (e.g. {} + 0.5) or, for an even integrand, kind \"line\"",
             alpha.re, alpha.re
         )));
@@ -865,21 +866,21 @@ fn mellin(
     let num = crate::poly::trim(&r.num);
     let den = crate::poly::trim(&r.den);
     if num.is_empty() {
-        return Err(ApiError::new("f is identically zero; the integral is 0"));
+        return Err(ApiError::invalid("f is identically zero; the integral is 0"));
     }
     let (kn, num0) = strip_low(&num);
     let (kd, den0) = strip_low(&den);
     let k = kn - kd; // f ~ x^k at 0
     let d = (den.len() as i64 - 1) - (num.len() as i64 - 1); // f ~ x^−d at ∞
     if !(alpha.re + (k as f64) > 0.0 && alpha.re < d as f64) {
-        return Err(ApiError::new(format!(
+        return Err(ApiError::new(ErrorCode::Divergent, format!(
             "∫_0^∞ x^(α−1) f(x) dx diverges: here f ~ x^{k} near 0 and ~ x^{} at infinity, so it converges only for {} < Re α < {d}, and Re α = {}",
             -d,
             -k,
             alpha.re
         )));
     }
-    let a = analyse_rational_polished(&num, &den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(&num, &den, &|z| f.eval_d(z))?;
     warnings.extend(a.warnings.iter().cloned());
     let scale = a.poles.iter().map(|p| p.at.norm()).fold(1.0, f64::max);
     let mut used = Vec::new();
@@ -891,7 +892,7 @@ fn mellin(
             continue; // the branch point z = 0: handled by the convergence condition
         }
         if p.at.re > 0.0 && on_real_axis(p, scale) {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::new(ErrorCode::Divergent, format!(
                 "f has a pole at x = {} on the positive real axis: the Mellin integral diverges there",
                 show(C::new(p.at.re, 0.0))
             )));

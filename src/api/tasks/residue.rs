@@ -3,14 +3,36 @@
 //! Rational f goes to exact partial-fraction algebra; anything else to the
 //! trapezoidal rule on small circles with classification of the point.
 
-use super::{budget, compile, hints, point};
-use crate::api::{pair, ResidueRequest, ResidueResponse};
-use crate::error::ApiError;
+use crate::api::input::{budget, compile, hints, point};
+use crate::api::wire::{pair, FunctionInput, Point};
+use crate::api::error::ApiError;
 use crate::expr::Function;
 use crate::singular::rational_check::check_residues;
 use crate::singular::rational_poles::{analyse_rational, analyse_rational_polished, format_complex, residue_at_point_polished};
 use crate::singular::{classify_infinity, classify_point, PointResult};
 use crate::C;
+use serde::{Deserialize, Serialize};
+
+/// `residue`: the residue of f at one point or at infinity.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ResidueRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+    pub at: Point,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ResidueResponse {
+    /// `null` where no residue exists (a branch point, or infinity not isolated).
+    pub residue: Option<[f64; 2]>,
+    /// `"pole"`, `"removable"`, `"regular"`, `"essential"` or `"branch_point"`.
+    pub kind: String,
+    pub order: Option<u32>,
+    pub error_estimate: Option<f64>,
+    /// Principal-part coefficients `c_{-1}, c_{-2}, …` where known.
+    pub principal_part: Vec<[f64; 2]>,
+    pub warnings: Vec<String>,
+}
 
 pub fn run(req: &ResidueRequest) -> Result<ResidueResponse, ApiError> {
     let f = compile(&req.function)?;
@@ -22,7 +44,7 @@ pub fn run(req: &ResidueRequest) -> Result<ResidueResponse, ApiError> {
 }
 
 fn rational_at(f: &Function, num: &[C], den: &[C], a: C) -> Result<ResidueResponse, ApiError> {
-    let r = residue_at_point_polished(num, den, a, &|z| f.eval_d(z)).map_err(ApiError::new)?;
+    let r = residue_at_point_polished(num, den, a, &|z| f.eval_d(z))?;
     let mut warnings = Vec::new();
     let mut error_estimate = r.error_estimate;
     if r.kind.as_str() == "pole" {
@@ -63,7 +85,7 @@ fn rational_at(f: &Function, num: &[C], den: &[C], a: C) -> Result<ResidueRespon
 }
 
 fn rational_at_infinity(num: &[C], den: &[C]) -> Result<ResidueResponse, ApiError> {
-    let a = analyse_rational(num, den).map_err(ApiError::new)?;
+    let a = analyse_rational(num, den)?;
     let (kind, order) = if a.infinity_order > 0 { ("pole", Some(a.infinity_order as u32)) } else { ("regular", None) };
     Ok(ResidueResponse {
         residue: Some(pair(a.residue_at_infinity)),
@@ -83,7 +105,7 @@ fn general(f: &Function, at: Option<C>) -> Result<ResidueResponse, ApiError> {
         Some(a) => classify_point(&eval, a, &hints, &mut budget),
         None => classify_infinity(&eval, &hints, &mut budget),
     }
-    .map_err(ApiError::new)?;
+    ?;
     let principal_part = if at.is_some() { r.principal_part.iter().map(|&c| pair(c)).collect() } else { Vec::new() };
     Ok(ResidueResponse {
         residue: r.residue.map(pair),

@@ -4,14 +4,46 @@
 //! singularities already known (poles of a rational f, points found in the
 //! disk, structural candidates) are used to refuse an annulus that holds one.
 
-use super::{budget, compile, hints, point};
-use crate::api::{Coefficient, LaurentRequest, LaurentResponse};
+use crate::api::input::{budget, compile, hints, point};
+
 use crate::contour::Contour;
-use crate::error::ApiError;
+use crate::api::wire::{FunctionInput, Point};
+use crate::api::error::{ApiError, ErrorCode};
 use crate::expr::Function;
 use crate::series::laurent_fft::{self, Center};
 use crate::singular::find_singularities;
 use crate::C;
+use serde::{Deserialize, Serialize};
+
+/// `laurent`: coefficients `c_n`, `n = from..=to`, on an annulus around a point or infinity.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct LaurentRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+    pub center: Point,
+    #[serde(default)]
+    pub inner: f64,
+    /// Omitted or `null`: as far as the nearest singularity allows.
+    #[serde(default)]
+    pub outer: Option<f64>,
+    pub from: i64,
+    pub to: i64,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct Coefficient {
+    pub n: i64,
+    pub c: [f64; 2],
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct LaurentResponse {
+    pub coefficients: Vec<Coefficient>,
+    pub error_estimate: f64,
+    /// Radii of the sampling circles used.
+    pub radii: Vec<f64>,
+    pub warnings: Vec<String>,
+}
 
 pub fn run(req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
     let f = compile(&req.function)?;
@@ -22,15 +54,15 @@ pub fn run(req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
     let inner = req.inner;
     let outer = req.outer.unwrap_or(f64::INFINITY);
     if !(inner >= 0.0 && inner.is_finite()) {
-        return Err(ApiError::new("\"inner\" must be a finite number ≥ 0"));
+        return Err(ApiError::invalid("\"inner\" must be a finite number ≥ 0"));
     }
     if matches!(center, Center::Point(_)) && !(outer > inner) {
-        return Err(ApiError::new("\"outer\" must be larger than \"inner\" (or omitted for no limit)"));
+        return Err(ApiError::invalid("\"outer\" must be larger than \"inner\" (or omitted for no limit)"));
     }
     if let Center::Point(a) = center {
         let h = hints(&f);
         if let Some(b) = h.branch_candidates.iter().find(|b| (**b - a).norm() <= 1e-12 * a.norm().max(1.0)) {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::new(ErrorCode::NotApplicable, format!(
                 "f has a branch point at the centre {} (sqrt, log or a non-integer power), so it has no Laurent series there",
                 crate::singular::rational_poles::format_complex(*b + 0.0, 0.0)
             )));
@@ -40,7 +72,7 @@ pub fn run(req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
     let mut budget = budget(None);
     let known = known_singularities(&f, center, inner, outer, &mut warnings, &mut budget);
     let spec = laurent_fft::LaurentRequest { center, inner, outer, from: req.from, to: req.to };
-    let result = laurent_fft::laurent(|z| f.eval(z), &spec, &known, &mut budget).map_err(ApiError::new)?;
+    let result = laurent_fft::laurent(|z| f.eval(z), &spec, &known, &mut budget)?;
     let mut radii = result.radius_used.clone();
     radii.sort_by(f64::total_cmp);
     radii.dedup();

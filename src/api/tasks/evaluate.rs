@@ -1,9 +1,23 @@
 //! `evaluate`: f and f' at a list of points.
 
-use super::{compile, finite};
-use crate::api::{pair, EvaluateRequest, EvaluateResponse};
-use crate::error::ApiError;
+use crate::api::input::{compile, finite};
+use crate::api::wire::{pair, FunctionInput, Number};
+use crate::api::error::ApiError;
 use crate::C;
+use serde::{Deserialize, Serialize};
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct EvaluateRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+    pub at: Vec<Number>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct EvaluateResponse {
+    pub values: Vec<[f64; 2]>,
+    pub derivatives: Vec<[f64; 2]>,
+}
 
 /// Most points one request may ask for.
 pub const MAX_POINTS: usize = 1_000_000;
@@ -11,7 +25,7 @@ pub const MAX_POINTS: usize = 1_000_000;
 pub fn run(req: &EvaluateRequest) -> Result<EvaluateResponse, ApiError> {
     let f = compile(&req.function)?;
     if req.at.len() > MAX_POINTS {
-        return Err(ApiError::new(format!("too many points in \"at\" (at most {MAX_POINTS}); split the request")));
+        return Err(ApiError::invalid(format!("too many points in \"at\" (at most {MAX_POINTS}); split the request")));
     }
     let zs = req.at.iter().map(|&n| finite(n, "at")).collect::<Result<Vec<C>, _>>()?;
     let mut values = vec![C::new(0.0, 0.0); zs.len()];

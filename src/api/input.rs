@@ -1,14 +1,11 @@
-//! Task handlers behind the API doorway: each turns a parsed request into a
-//! response by calling the numerical core. One file a task.
+//! From wire values to checked core values: compile the expression, check
+//! numbers, points and contours (errors name the field), make the budget.
 
-pub mod evaluate;
-pub mod phase_plot;
-
-use crate::api::{FunctionInput, Number, Point};
+use super::error::{ApiError, ErrorCode};
+use super::wire::{FunctionInput, Number, Point};
 use crate::budget::{Budget, DEFAULT_EVALUATIONS};
-use crate::singular::Hints;
-use crate::error::ApiError;
 use crate::expr::{ExprError, Function};
+use crate::singular::Hints;
 use crate::C;
 
 /// Said beside every stability reading (a result that can feed a control design).
@@ -28,13 +25,13 @@ pub fn compile(input: &FunctionInput) -> Result<Function, ApiError> {
 pub fn compile_text(text: &str, input: &FunctionInput, field: &str) -> Result<Function, ApiError> {
     let var = input.var.as_deref().unwrap_or("z");
     if input.params.len() > MAX_PARAMS {
-        return Err(ApiError::new(format!("too many parameters (at most {MAX_PARAMS})")));
+        return Err(ApiError::invalid(format!("too many parameters (at most {MAX_PARAMS})")));
     }
     let mut params = Vec::with_capacity(input.params.len());
     for (name, value) in &input.params {
         let v = value.to_c();
         if !(v.re.is_finite() && v.im.is_finite()) {
-            return Err(ApiError::new(format!("parameter \"{name}\" must be a finite number")));
+            return Err(ApiError::invalid(format!("parameter \"{name}\" must be a finite number")));
         }
         params.push((name.clone(), v));
     }
@@ -43,7 +40,7 @@ pub fn compile_text(text: &str, input: &FunctionInput, field: &str) -> Result<Fu
 
 fn expr_error(e: ExprError, field: &str) -> ApiError {
     let message = if field == "f" { e.message } else { format!("in \"{field}\": {}", e.message) };
-    ApiError { message, span: e.span.map(|(a, b)| [a, b]) }
+    ApiError { code: ErrorCode::Expression, message, span: e.span.map(|(a, b)| [a, b]) }
 }
 
 /// A finite complex number from the wire, or a clear error naming the field.
@@ -52,22 +49,12 @@ pub fn finite(n: Number, field: &str) -> Result<C, ApiError> {
     if z.re.is_finite() && z.im.is_finite() {
         Ok(z)
     } else {
-        Err(ApiError::new(format!("\"{field}\" must be finite numbers")))
+        Err(ApiError::invalid(format!("\"{field}\" must be finite numbers")))
     }
 }
-pub mod residue;
-pub mod singularities;
-pub mod laurent;
-pub mod partial_fractions;
-pub mod contour_integral;
-pub mod argument_count;
-pub mod inverse_laplace;
-pub mod inverse_z;
-pub mod real_integral;
-
 /// A contour or region from a request, checked; the message names the field.
 pub fn checked_contour<'a>(c: &'a crate::contour::Contour, field: &str) -> Result<&'a crate::contour::Contour, ApiError> {
-    c.validate().map_err(|e| ApiError::new(format!("{field}: {e}")))?;
+    c.validate().map_err(|e| ApiError::invalid(format!("{field}: {e}")))?;
     Ok(c)
 }
 
@@ -75,9 +62,9 @@ pub fn checked_contour<'a>(c: &'a crate::contour::Contour, field: &str) -> Resul
 pub fn point(p: &Point, field: &str) -> Result<Option<C>, ApiError> {
     match p {
         Point::Finite([x, y]) if x.is_finite() && y.is_finite() => Ok(Some(C::new(*x, *y))),
-        Point::Finite(_) => Err(ApiError::new(format!("\"{field}\" must be finite numbers [x, y]"))),
+        Point::Finite(_) => Err(ApiError::invalid(format!("\"{field}\" must be finite numbers [x, y]"))),
         Point::Named(name) if name.eq_ignore_ascii_case("infinity") => Ok(None),
-        Point::Named(other) => Err(ApiError::new(format!(
+        Point::Named(other) => Err(ApiError::invalid(format!(
             "\"{field}\" must be [x, y] or \"infinity\", not \"{other}\""
         ))),
     }

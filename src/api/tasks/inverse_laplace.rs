@@ -15,9 +15,9 @@
 // `!(a <= b)` is deliberate: a NaN must take the cautious branch.
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
-use super::{budget, compile_text, hints};
-use crate::api::{FunctionInput, Number};
-use crate::error::ApiError;
+use crate::api::input::{budget, compile_text, hints};
+use crate::api::wire::{FunctionInput, Number};
+use crate::api::error::{ApiError, ErrorCode};
 use crate::expr::Function;
 use crate::singular::rational_poles::{analyse_rational_polished, format_real};
 use crate::transforms::delay_estimate::{estimate_delay, left_growth_rate};
@@ -104,12 +104,12 @@ pub fn run(req: &InverseLaplaceRequest) -> Result<InverseLaplaceResponse, ApiErr
     if rightmost > 1e-12 * scale {
         response.warnings.push(format!(
             "a pole lies in the right half-plane (Re s = {rightmost:.6}): f grows without bound (an unstable system). {}",
-            super::CAUTION
+            crate::api::input::CAUTION
         ));
     } else if rightmost >= -1e-12 * scale {
         response.warnings.push(format!(
             "a pole lies on the imaginary axis: f does not decay (a marginally stable system). {}",
-            super::CAUTION
+            crate::api::input::CAUTION
         ));
     }
     Ok(response)
@@ -117,29 +117,29 @@ pub fn run(req: &InverseLaplaceRequest) -> Result<InverseLaplaceResponse, ApiErr
 
 fn validate_times(t: &[f64]) -> Result<Vec<f64>, ApiError> {
     if t.is_empty() {
-        return Err(ApiError::new(
+        return Err(ApiError::invalid(
             "\"t\" is empty; pass the times t > 0 at which to evaluate f",
         ));
     }
     if t.len() > MAX_TIMES {
-        return Err(ApiError::new(format!(
+        return Err(ApiError::invalid(format!(
             "\"t\" has {} times; at most {MAX_TIMES} per request — split the request",
             t.len()
         )));
     }
     for (i, &x) in t.iter().enumerate() {
         if !x.is_finite() {
-            return Err(ApiError::new(format!("t[{i}] is not a finite number")));
+            return Err(ApiError::invalid(format!("t[{i}] is not a finite number")));
         }
         if x > MAX_TIME {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::invalid(format!(
                 "t[{i}] = {} is beyond {MAX_TIME:e}: at such times no digit of f survives in double precision; \
                  rescale time (e.g. work in ms or s)",
                 format_real(x)
             )));
         }
         if x <= 0.0 {
-            return Err(ApiError::new(format!(
+            return Err(ApiError::invalid(format!(
                 "t[{i}] = {} is not positive; f at t = 0 is the limit from the right and f = 0 for t < 0 \
                  (causal): pass t > 0",
                 format_real(x)
@@ -149,8 +149,8 @@ fn validate_times(t: &[f64]) -> Result<Vec<f64>, ApiError> {
     Ok(t.to_vec())
 }
 
-fn budget_error(e: impl std::fmt::Display) -> ApiError {
-    ApiError::new(e.to_string())
+fn budget_error(e: crate::budget::BudgetExceeded) -> ApiError {
+    e.into()
 }
 
 fn rational(
@@ -160,7 +160,7 @@ fn rational(
     times: &[f64],
     budget: &mut crate::budget::Budget,
 ) -> Result<InverseLaplaceResponse, ApiError> {
-    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z))?;
     let real = has_real_coefficients(num, den);
     let mut warnings = a.warnings.clone();
     let q = a.polynomial_part.clone();
@@ -374,7 +374,7 @@ fn general(
             Ok(x) => x,
             Err(TalbotError::Budget(e)) => return Err(budget_error(e)),
             Err(TalbotError::NotFinite { at }) => {
-                return Err(ApiError::new(format!(
+                return Err(ApiError::new(ErrorCode::NotFinite, format!(
                     "F is not finite at s = {} on the inversion contour for t = {}: F has a singularity there that \
                      the expression analysis did not locate, or overflows; the contour inversion needs every \
                      singularity of F to the left of the contour",

@@ -11,22 +11,50 @@
 //! `singular::find_singularities`, reported only when their weighted sum
 //! reconciles with the argument-principle count.
 
-use super::contour_integral::{covering_regions, search_cover, show};
-use super::{budget, checked_contour, compile};
-use crate::api::{pair, ArgumentCountRequest, ArgumentCountResponse, CountedPoint};
+use crate::api::tasks::contour_integral::{covering_regions, search_cover, show};
+use crate::api::input::{budget, checked_contour, compile};
+use crate::api::wire::{pair, ContourRequest};
 use crate::contour::Contour;
-use crate::error::ApiError;
+use crate::api::error::ApiError;
 use crate::expr::Function;
 use crate::singular::count_by_argument_principle;
 use crate::singular::rational_poles::analyse_rational_polished;
 use crate::C;
+use serde::{Deserialize, Serialize};
+
+/// `argument_count`: zeros − poles inside a contour by the argument principle.
+pub type ArgumentCountRequest = ContourRequest;
+
+/// A zero or pole counted, with the contour's winding number about it.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct CountedPoint {
+    pub at: [f64; 2],
+    /// `"zero"` or `"pole"`.
+    pub kind: String,
+    pub order: u32,
+    pub winding: i32,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ArgumentCountResponse {
+    /// Zeros with multiplicity, each weighted by the winding number (null when not certain).
+    pub zeros: Option<i64>,
+    /// Poles with multiplicity, each weighted by the winding number (null when not certain).
+    pub poles: Option<i64>,
+    /// The argument principle: (1/2π) × total change of arg f along the contour.
+    pub zeros_minus_poles: i64,
+    /// The zeros and poles behind `zeros` and `poles`.
+    pub points: Vec<CountedPoint>,
+    pub method: String,
+    pub warnings: Vec<String>,
+}
 
 pub fn run(req: &ArgumentCountRequest) -> Result<ArgumentCountResponse, ApiError> {
     let f = compile(&req.function)?;
     let contour = checked_contour(&req.contour, "contour")?;
     let mut budget = budget(req.max_evaluations);
     let eval = |z: C| f.eval(z);
-    let count = count_by_argument_principle(&eval, contour, &mut budget).map_err(ApiError::new)?;
+    let count = count_by_argument_principle(&eval, contour, &mut budget)?;
     let mut warnings = Vec::new();
     let (points, method) = match f.rational() {
         Some(r) => (
@@ -95,7 +123,7 @@ fn rational_points(
     contour: &Contour,
     warnings: &mut Vec<String>,
 ) -> Result<Option<Vec<CountedPoint>>, ApiError> {
-    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z))?;
     warnings.extend(a.warnings.iter().cloned());
     let mut out = Vec::new();
     let all = a

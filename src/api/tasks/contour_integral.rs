@@ -23,11 +23,11 @@
 // `!(a <= b)` is deliberate: a NaN must take the cautious branch.
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
-use super::{budget, checked_contour, compile, hints};
-use crate::api::{pair, ContourIntegralRequest, ContourIntegralResponse, WindingOut};
+use crate::api::input::{budget, checked_contour, compile, hints};
+use crate::api::wire::{pair, ContourRequest};
 use crate::budget::Budget;
 use crate::contour::Contour;
-use crate::error::ApiError;
+use crate::api::error::{ApiError, ErrorCode};
 use crate::expr::Function;
 use crate::quad::contour_quadrature::{contour_integral, on_piece_error};
 use crate::quad::Tolerance;
@@ -35,8 +35,47 @@ use crate::quad::{gauss_kronrod, QuadResult};
 use crate::singular::cut_crossing::{cut_crossings, Crossing};
 use crate::singular::rational_poles::{analyse_rational_polished, format_complex};
 use crate::singular::{classify_point, find_singularities, Kind, RegionResult};
+use crate::error::Failure;
 use crate::C;
 use std::f64::consts::PI;
+use serde::{Deserialize, Serialize};
+
+/// `contour_integral`: ∮ f dz computed three independent ways (quadrature,
+/// residues inside, residues outside plus infinity), disagreement shown.
+pub type ContourIntegralRequest = ContourRequest;
+
+/// A singular point with the contour's winding number about it.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct WindingOut {
+    pub at: [f64; 2],
+    pub winding: i32,
+    /// `"pole"`, `"essential"` or `"branch_point"`.
+    pub kind: String,
+    #[serde(skip_serializing_if = "Option::is_none", default)]
+    pub order: Option<u32>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ContourIntegralResponse {
+    pub value: [f64; 2],
+    pub by_quadrature: [f64; 2],
+    pub by_inside_residues: Option<[f64; 2]>,
+    pub by_outside_residues: Option<[f64; 2]>,
+    /// Largest pairwise |difference| among the available ways.
+    pub max_discrepancy: f64,
+    pub winding: Vec<WindingOut>,
+    /// Which way `value` is: `"quadrature"`, `"inside_residues"` or `"outside_residues"`.
+    pub value_from: String,
+    pub error_estimate: f64,
+    pub quadrature_error_estimate: f64,
+    pub inside_residues_error_estimate: Option<f64>,
+    pub outside_residues_error_estimate: Option<f64>,
+    /// One sentence: do the ways agree, and to what.
+    pub agreement: String,
+    /// `"rational"` (exact polynomial algebra) or `"numerical"`.
+    pub method: String,
+    pub warnings: Vec<String>,
+}
 
 /// A singular point closer to the contour than this fraction of its size gets a warning.
 const NEAR_FRACTION: f64 = 1e-2;
@@ -103,7 +142,7 @@ pub fn run(req: &ContourIntegralRequest) -> Result<ContourIntegralResponse, ApiE
     } else {
         split_quadrature(&mut g, contour, &ways.crossings, &mut budget)
     }
-    .map_err(ApiError::new)?;
+    ?;
     if !q.converged {
         warnings.push(format!(
             "the quadrature did not reach its tolerance (error estimate {:.1e}); a singularity may lie close to the contour or f may jump across it",
@@ -266,7 +305,7 @@ fn check_on_and_near(
                 ));
                 continue;
             }
-            return Err(ApiError::new(format!(
+            return Err(ApiError::new(ErrorCode::OnContour, format!(
                 "f has {what} at {} on the contour; move the contour",
                 show(p.at)
             )));
@@ -298,7 +337,7 @@ fn split_quadrature(
     contour: &Contour,
     crossings: &[Crossing],
     budget: &mut Budget,
-) -> Result<QuadResult, String> {
+) -> Result<QuadResult, Failure> {
     let pieces = contour.pieces();
     let mut total = QuadResult::zero();
     let parts = pieces.len() + crossings.len();
@@ -357,7 +396,7 @@ fn rational_ways(
     contour: &Contour,
     warnings: &mut Vec<String>,
 ) -> Result<ResidueWays, ApiError> {
-    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z))?;
     warnings.extend(a.warnings.iter().cloned());
     let points: Vec<Singular> = a
         .poles
@@ -498,15 +537,15 @@ pub(crate) fn search_cover(
     f: &Function,
     regions: &[Contour],
     budget: &mut Budget,
-) -> Result<RegionResult, String> {
+) -> Result<RegionResult, Failure> {
     let hints = hints(f);
     let eval = |z: C| f.eval(z);
     let eval_d = |z: C| f.eval_d(z);
-    let mut last = String::from("no region to search");
+    let mut last = Failure::invalid("no region to search");
     for region in regions {
         match find_singularities(&eval, &eval_d, region, &hints, budget) {
             Ok(found) => return Ok(found),
-            Err(e) if e.contains("budget") => return Err(e),
+            Err(e) if e.is_budget() => return Err(e),
             Err(e) => last = e,
         }
     }
@@ -534,7 +573,7 @@ fn general_ways(
                 ));
             }
             Ok(_) => {}
-            Err(e) => return Err(ApiError::new(e)),
+            Err(e) => return Err(ApiError::from(e)),
         }
     }
     let found = match search_cover(f, &covering_regions(contour), budget) {
@@ -573,7 +612,7 @@ fn general_ways(
             match classify_point(&eval, z, &hints, budget) {
                 Ok(r) if r.kind == Kind::Essential => r.residue.map(|c| (c, r.error_estimate)),
                 Ok(_) => None,
-                Err(e) if e.contains("budget") => return Err(ApiError::new(e)),
+                Err(e) if e.is_budget() => return Err(ApiError::from(e)),
                 Err(_) => None,
             }
         } else {

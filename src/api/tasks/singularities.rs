@@ -1,15 +1,70 @@
 //! `singularities`: poles (with orders and residues), zeros, essential
 //! singularities and branch points inside a region, plus the residue at infinity.
 
-use super::{budget, checked_contour, compile, hints};
-use crate::api::{pair, PointOut, PoleOut, SingularitiesRequest, SingularitiesResponse, ZeroOut};
+use crate::api::input::{budget, checked_contour, compile, hints};
+use crate::api::wire::{pair, FunctionInput};
 use crate::contour::Contour;
-use crate::error::ApiError;
+use crate::api::error::ApiError;
 use crate::expr::Function;
 use crate::singular::rational_check::check_residues;
 use crate::singular::rational_poles::{analyse_rational_polished, format_complex};
 use crate::singular::{classify_infinity, classify_point, find_singularities, Kind};
 use crate::C;
+use serde::{Deserialize, Serialize};
+
+/// `singularities`: poles, zeros, essential singularities and branch points in a region.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct SingularitiesRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+    pub region: Contour,
+    #[serde(default)]
+    pub max_evaluations: Option<u64>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct PoleOut {
+    pub at: [f64; 2],
+    pub order: u32,
+    pub residue: Option<[f64; 2]>,
+    pub error_estimate: Option<f64>,
+    /// `c_{-1}, c_{-2}, …, c_{-order}`.
+    pub principal_part: Vec<[f64; 2]>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ZeroOut {
+    pub at: [f64; 2],
+    pub order: u32,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct PointOut {
+    pub at: [f64; 2],
+    /// For essential singularities, the residue `c_{-1}` where it could be computed.
+    #[serde(skip_serializing_if = "Option::is_none", default)]
+    pub residue: Option<[f64; 2]>,
+    #[serde(skip_serializing_if = "Option::is_none", default)]
+    pub error_estimate: Option<f64>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct SingularitiesResponse {
+    pub poles: Vec<PoleOut>,
+    pub zeros: Vec<ZeroOut>,
+    pub essential: Vec<PointOut>,
+    pub branch_points: Vec<PointOut>,
+    /// Removable singularities (common roots of numerator and denominator).
+    pub removable: Vec<PointOut>,
+    pub residue_at_infinity: Option<[f64; 2]>,
+    /// `|sum of all finite residues + residue at infinity|`, which must be ~0 (rational f).
+    pub residue_sum_defect: Option<f64>,
+    /// Zeros minus poles inside the region by the argument principle, where counted.
+    pub zeros_minus_poles: Option<i64>,
+    /// `"rational"` (exact polynomial algebra) or `"numerical"` (sampling methods).
+    pub method: String,
+    pub warnings: Vec<String>,
+}
 
 pub fn run(req: &SingularitiesRequest) -> Result<SingularitiesResponse, ApiError> {
     let f = compile(&req.function)?;
@@ -26,7 +81,7 @@ fn inside(region: &Contour, z: C) -> Option<bool> {
 }
 
 fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<SingularitiesResponse, ApiError> {
-    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z)).map_err(ApiError::new)?;
+    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z))?;
     let mut warnings = a.warnings.clone();
     let mut boundary = Vec::new();
     let mut on_boundary = |what: &str, z: C| {
@@ -190,7 +245,7 @@ fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Resu
     let mut budget = budget(max_evaluations);
     let eval = |z: C| f.eval(z);
     let eval_d = |z: C| f.eval_d(z);
-    let found = find_singularities(&eval, &eval_d, region, &hints, &mut budget).map_err(ApiError::new)?;
+    let found = find_singularities(&eval, &eval_d, region, &hints, &mut budget)?;
     let mut warnings = found.warnings.clone();
     let mut essential = Vec::new();
     for &z in &found.essential {

@@ -1,0 +1,63 @@
+//! Wire shapes shared by several tasks: numbers, points, the function input,
+//! the contour request, and the enums that name states on the wire.
+//!
+//! Complex numbers are `[re, im]` on the wire. Each task's own request and
+//! response live in its file under `api/tasks/`.
+
+use crate::contour::Contour;
+use crate::C;
+use serde::{Deserialize, Serialize};
+use std::collections::BTreeMap;
+
+/// A complex number on the wire: `[re, im]`, or a bare real number on input.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(untagged)]
+pub enum Number {
+    Real(f64),
+    Complex([f64; 2]),
+}
+
+impl Number {
+    pub fn to_c(self) -> C {
+        match self {
+            Number::Real(x) => C::new(x, 0.0),
+            Number::Complex([re, im]) => C::new(re, im),
+        }
+    }
+}
+
+/// `[re, im]` for output; non-finite parts serialise as `null`.
+pub fn pair(z: C) -> [f64; 2] {
+    [z.re, z.im]
+}
+
+/// A point that may be the point at infinity: `[x, y]` or `"infinity"`.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(untagged)]
+pub enum Point {
+    Finite([f64; 2]),
+    Named(String),
+}
+
+/// The expression part shared by every request.
+#[derive(Debug, Clone, Default, Serialize, Deserialize)]
+pub struct FunctionInput {
+    /// The expression text.
+    pub f: String,
+    /// Name of the free variable (`z` by default).
+    #[serde(default)]
+    pub var: Option<String>,
+    /// Named parameters: a number or `[re, im]` each.
+    #[serde(default)]
+    pub params: BTreeMap<String, Number>,
+}
+
+/// A function and a closed contour: the request of `contour_integral` and `argument_count`.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ContourRequest {
+    #[serde(flatten)]
+    pub function: FunctionInput,
+    pub contour: Contour,
+    #[serde(default)]
+    pub max_evaluations: Option<u64>,
+}
