@@ -3,8 +3,10 @@
 // infinity; direct quadrature), each shown with its error estimate, and any
 // disagreement between them shown in a warning style, never hidden. Also the
 // argument-principle count of zeros and poles inside the contour.
-import { el, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, isFinitePair, responseError } from './util.js';
-import { runHeavy } from './engine.js';
+import { el } from './dom.js';
+import { isFinitePair } from './complex.js';
+import { fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow } from './format.js';
+import { runHeavy, responseError } from './engine.js';
 
 /** The three ways, in the order shown; `key` is the response field suffix. */
 const WAYS = [

@@ -4,7 +4,6 @@
 // heavy tasks (singularities, Laurent series) and can be cancelled by ending it.
 // When workers are not available everything runs on the main thread in small steps.
 import * as wasmGlue from '../../dist/pkg/residuary.js';
-import { yieldToBrowser } from './util.js';
 
 /* global WASM_BASE64, GLUE_SOURCE, WORKER_SOURCE */
 
@@ -20,6 +19,18 @@ export const Engine = {
   nextId: 1,
   plotJob: null,
 };
+
+/** Let the browser paint and handle input before continuing. */
+export function yieldToBrowser() {
+  return new Promise((resolve) => setTimeout(resolve, 0));
+}
+
+/** The error object of a response, if any: {message, span} or null. */
+export function responseError(response) {
+  if (!response || typeof response !== 'object') return { message: 'no answer from the engine', span: null };
+  if (response.error) return { message: String(response.error.message || 'unknown error'), span: response.error.span || null };
+  return null;
+}
 
 function decodeBase64(text) {
   const bin = atob(text);

@@ -4,8 +4,9 @@
 // numerical contour inversion (and, for z, long division); this block draws the
 // result on a small chart, gives the closed form when there is one, the largest
 // disagreement between the ways, and every warning the core gives.
-import { el, fmtReal, responseError } from './util.js';
-import { runHeavy } from './engine.js';
+import { el } from './dom.js';
+import { fmtReal } from './format.js';
+import { runHeavy, responseError } from './engine.js';
 
 /** How many times t the s-chart samples in (0, T]. */
 export const INVERSE_TIMES = 120;

@@ -1,7 +1,9 @@
 // Wires the page together: state, inputs, the plot, the readout and the
 // singularities panel. Everything the user types is kept (see state.js).
-import { $, el, debounce, fmtComplex, fmtReal, fmtSig, fmtExact, cAbs, cArg, cInv, responseError, isFinitePair } from './util.js';
-import { Engine, startEngine, runNow, runHeavy } from './engine.js';
+import { $, el, debounce } from './dom.js';
+import { cAbs, cArg, cInv, isFinitePair } from './complex.js';
+import { fmtComplex, fmtReal, fmtSig, fmtExact } from './format.js';
+import { Engine, startEngine, runNow, runHeavy, responseError } from './engine.js';
 import { loadState, saveState, fromHash, toHash } from './state.js';
 import { showUnderline, syncMirror } from './expr-input.js';
 import { renderParams, paramsForRequest } from './params.js';

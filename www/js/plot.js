@@ -4,7 +4,8 @@
 // bands; a newer request abandons an older one. While panning or zooming the
 // last pictures are moved and scaled at once, and the core redraws after.
 import { plotBands } from './engine.js';
-import { fmtReal, cInv } from './util.js';
+import { cInv } from './complex.js';
+import { fmtReal } from './format.js';
 
 const MARGIN = { left: 54, right: 10, top: 8, bottom: 34 };
 const BAND_PIXELS = 40000;

@@ -2,8 +2,10 @@
 // cancellable), the table, the markers, the residue at infinity with the sum
 // check, the stability reading and, for a chosen point, its principal part in
 // MathML with its Laurent coefficients.
-import { el, fmtComplex, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, trimComplex, cAbs, cSub, isFinitePair, responseError } from './util.js';
-import { runHeavy, cancelHeavy } from './engine.js';
+import { el } from './dom.js';
+import { cAbs, cSub, isFinitePair } from './complex.js';
+import { fmtComplex, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, trimComplex } from './format.js';
+import { runHeavy, cancelHeavy, responseError } from './engine.js';
 
 const MATHML = 'http://www.w3.org/1998/Math/MathML';
 
