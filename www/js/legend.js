@@ -2,7 +2,7 @@
 // to a ring, with the argument marked around it; and the marker key.
 import { plotOnce } from './engine.js';
 import { el } from './dom.js';
-import { markerIcon, KIND_WORDS } from './singularities.js';
+import { markerIcon, KIND_WORDS } from './markers.js';
 
 /** Draw the colour ring for `wheel` ("oklch" or "hsv") into `canvas` (150 × 150 drawing units). */
 export function drawWheelKey(canvas, wheel) {

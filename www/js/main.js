@@ -8,10 +8,11 @@ import { loadState, saveState, fromHash, toHash } from './state.js';
 import { showUnderline, syncMirror } from './expr-input.js';
 import { renderParams, paramsForRequest } from './params.js';
 import { createPlot } from './plot.js';
+import { KIND_WORDS } from './markers.js';
 import { drawWheelKey, fillMarkerKey } from './legend.js';
 import { demoList, demoState } from './demos.js';
 import {
-  regionContour, regionProblem, regionWords, itemsOf, stabilityReading, KIND_WORDS, searchSingularities, cancelHeavy,
+  regionContour, regionProblem, regionWords, itemsOf, stabilityReading, searchSingularities, cancelHeavy,
   fillTable, highlightRow, laurentRadius, requestLaurent, showDetail,
 } from './singularities.js';
 import { requestContourIntegral, requestArgumentCount, showContourIntegral, showArgumentCount, contourStatus } from './contour.js';

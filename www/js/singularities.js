@@ -6,12 +6,9 @@ import { el } from './dom.js';
 import { cAbs, cSub, isFinitePair } from './complex.js';
 import { fmtComplex, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, trimComplex } from './format.js';
 import { runHeavy, cancelHeavy, responseError } from './engine.js';
+import { KIND_WORDS, markerIcon } from './markers.js';
 
 const MATHML = 'http://www.w3.org/1998/Math/MathML';
-
-export const KIND_WORDS = {
-  pole: 'pole', zero: 'zero', essential: 'essential singularity', branch: 'branch point', removable: 'removable point',
-};
 
 /** The contour of the chosen region. `view` is [x0, x1, y0, y1]. */
 export function regionContour(region, view) {
@@ -143,26 +140,6 @@ export function fillTable(tbody, items, onPick) {
 /** Mark the chosen row. */
 export function highlightRow(tbody, index) {
   for (const tr of tbody.querySelectorAll('tr')) tr.classList.toggle('picked', Number(tr.dataset.index) === index);
-}
-
-/** A small inline SVG of a marker, for the table and the key. */
-export function markerIcon(kind) {
-  const ns = 'http://www.w3.org/2000/svg';
-  const svg = document.createElementNS(ns, 'svg');
-  svg.setAttribute('width', '16'); svg.setAttribute('height', '16'); svg.setAttribute('viewBox', '-8 -8 16 16');
-  svg.setAttribute('aria-hidden', 'true');
-  svg.classList.add('marker-icon');
-  const shape = (tag, attrs) => { const s = document.createElementNS(ns, tag); for (const [k, v] of Object.entries(attrs)) s.setAttribute(k, v); svg.append(s); };
-  const line = { fill: 'none', stroke: '#111', 'stroke-width': '1.6', 'stroke-linejoin': 'round' };
-  if (kind === 'pole') shape('polygon', Object.assign({ points: '0,-6 6,0 0,6 -6,0' }, line));
-  else if (kind === 'zero') { shape('circle', Object.assign({ r: 5 }, line)); shape('circle', { r: 2, fill: '#111' }); }
-  else if (kind === 'essential') {
-    let d = '';
-    for (let k = 0; k < 8; k++) { const a = (k * Math.PI) / 4, r = k % 2 ? 3.5 : 6.5; d += `M0 0L${(r * Math.cos(a)).toFixed(2)} ${(r * Math.sin(a)).toFixed(2)}`; }
-    shape('path', Object.assign({ d }, line));
-  } else if (kind === 'branch') shape('polygon', Object.assign({ points: '0,-6 6,4 -6,4' }, line));
-  else shape('rect', Object.assign({ x: -4, y: -4, width: 8, height: 8 }, line));
-  return svg;
 }
 
 /** Radius for the Laurent annulus: half the distance to the nearest other singular point,
