@@ -42,6 +42,12 @@ export function paramsForRequest(rows) {
   return { params, problems };
 }
 
+/** The function as the core is asked for it: {f, var, params} (rows that do not parse are left out). */
+export function functionInput(state) {
+  const { params } = paramsForRequest(state.params);
+  return { f: state.f, var: state.var.trim() || 'z', params };
+}
+
 /** Draw the rows into `container`; `onChange()` fires on every edit. */
 export function renderParams(container, rows, onChange) {
   container.textContent = '';

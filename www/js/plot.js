@@ -8,6 +8,8 @@ import { drawLayer, renderPlot, scheduleRender } from './plot/render.js';
 import { drawAxes } from './plot/axes.js';
 import { drawUnitCircle, drawRegion, drawMarkers, drawMessage } from './plot/overlays.js';
 import { attachInput } from './plot/input.js';
+import { KIND_WORDS } from './markers.js';
+import { regionWords } from './region.js';
 
 /** The plot on `canvas`. Hooks: baseRequest() (the request without view and size, or null while
  *  the core loads), onViewChange(view), onPointer(point | null), onMarkerClick(index), onStatus(what, error). */
@@ -71,4 +73,14 @@ function drawPlot(plot) {
   drawMessage(plot);
   ctx.restore();
   drawAxes(plot);
+}
+
+/** A short text description of the plot for screen readers; `v` names the plane's variable. */
+export function plotDescription(plot, v, infinity) {
+  const [x0, x1, y0, y1] = plot.getView();
+  const counts = {};
+  for (const it of plot.markers) counts[it.kind] = (counts[it.kind] || 0) + 1;
+  const marked = Object.entries(counts).map(([k, c]) => `${c} ${KIND_WORDS[k]}${c === 1 ? '' : 's'}`).join(', ');
+  return `Phase plot of f${infinity ? '(1/w)' : ''} for ${regionWords(v, { shape: 'rectangle', corners: [[x0, y0], [x1, y1]] })}: colour shows the argument of f.` +
+    (marked ? ` Marked: ${marked}; see the singularities table.` : '');
 }
