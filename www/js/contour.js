@@ -73,7 +73,7 @@ export function showContourIntegral(parts, variable, contour, isView, resp) {
   const err = responseError(resp);
   parts.result.hidden = Boolean(err);
   if (err) {
-    const stopped = err.message === 'cancelled';
+    const stopped = err.code === 'cancelled';
     contourStatus(parts, stopped ? 'Stopped before the contour integral finished.' : 'The contour integral was not computed: ' + err.message + '.', stopped ? 'stale' : 'error');
     parts.box.dataset.state = stopped ? 'stopped' : 'error';
     return;
@@ -141,7 +141,7 @@ export function showArgumentCount(parts, resp) {
   parts.count.textContent = '';
   const err = responseError(resp);
   if (err) {
-    parts.count.textContent = err.message === 'cancelled' ? '' : 'Zeros and poles inside: not counted (' + err.message + ').';
+    parts.count.textContent = err.code === 'cancelled' ? '' : 'Zeros and poles inside: not counted (' + err.message + ').';
     parts.count.dataset.k = '';
     return;
   }

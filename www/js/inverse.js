@@ -66,7 +66,7 @@ export function showInverse(parts, request, resp) {
   if (err) {
     parts.result.hidden = true;
     delete parts.chart.dataset.points;
-    if (err.message === 'cancelled') { inverseStatus(parts, 'Stopped before the inverse transform finished.', 'stale'); return; }
+    if (err.code === 'cancelled') { inverseStatus(parts, 'Stopped before the inverse transform finished.', 'stale'); return; }
     const msg = err.message.charAt(0).toUpperCase() + err.message.slice(1);
     inverseStatus(parts, 'Not computed: ' + msg + (msg.endsWith('.') ? '' : '.'), 'error');
     return;

@@ -67,7 +67,7 @@ export function createPipeline(page, hooks) {
     if (err) {
       ui.find.disabled = false;
       ui.cancel.disabled = true;
-      ui.findStatus.textContent = err.message === 'cancelled' ? 'Search stopped.' : 'Search failed: ' + err.message;
+      ui.findStatus.textContent = err.code === 'cancelled' ? 'Search stopped.' : 'Search failed: ' + err.message;
       contourStatus(ui.ci, 'Not computed: the search did not finish.', 'stale');
       return;
     }

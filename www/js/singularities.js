@@ -152,7 +152,7 @@ export function laurentRadius(item, items, fallback) {
  *  Laurent series about it). Resolves with the response or an error object. */
 export function requestLaurent(base, item, radius) {
   if (item.kind === 'branch') {
-    return Promise.resolve({ error: { message: 'f is not single-valued around a branch point, so it has no Laurent series there', span: null } });
+    return Promise.resolve({ error: { code: 'not_applicable', message: 'f is not single-valued around a branch point, so it has no Laurent series there', span: null } });
   }
   const order = item.order > 0 ? item.order : 0;
   const from = item.kind === 'zero' || item.kind === 'removable' ? 0 : item.kind === 'essential' ? -12 : -order - 2;
@@ -267,7 +267,7 @@ export function showDetail(parts, variable, item, response, annulus) {
     principalPartMathML(variable, item.at, coeffs, level, item.kind === 'essential', item.floor, item.kind === 'essential' ? 4 : 12));
   }
   if (err) {
-    notes.push(err.message === 'cancelled' ? 'Stopped.' : 'Laurent series not available: ' + err.message + '.');
+    notes.push(err.code === 'cancelled' ? 'Stopped.' : 'Laurent series not available: ' + err.message + '.');
   } else {
     notes.push(`Laurent series about ${variable}₀ = ${fmtSig(item.at, 10, item.floor)}, valid for 0 < |${variable} − ${variable}₀| < ${fmtReal(radius, 4)}` +
       ` (${annulus.why}).` +
