@@ -392,6 +392,31 @@ describe('the page with the real core', () => {
     assert.ok((await view(b.page))[1] - (await view(b.page))[0] > 2.5, 'the z view comes back');
   });
 
+  test('Stop ends a search in flight, says so, and the next search still answers', async () => {
+    await load(b.page, withState({ f: LOWPASS, var: 's', params: [{ name: 'wn', value: '2' }, { name: 'zeta', value: '0.3' }], view: [-3, 3, -3, 3], autoFind: false }));
+    await b.page.reload(); // a fresh document: no table from an earlier test (a hash change keeps the page)
+    await b.page.waitForSelector('body[data-ready=true]', { timeout: 20000 });
+    await plotDone(b.page);
+    // Find and Stop in one task: the search has been handed to the worker when Stop is pressed.
+    const enabledWhileBusy = await b.page.evaluate(() => {
+      document.getElementById('find').click();
+      const enabled = !document.getElementById('cancel-find').disabled;
+      document.getElementById('cancel-find').click();
+      return enabled;
+    });
+    assert.ok(enabledWhileBusy, 'Stop was not enabled while the search ran');
+    await b.page.waitForTimeout(300); // room for a late answer of the stopped search to (wrongly) show
+    assert.equal(await b.page.textContent('#find-status'), 'Search stopped.');
+    assert.equal(await b.page.isDisabled('#cancel-find'), true);
+    assert.equal(await b.page.$$eval('#sing-body tr[data-index]', (trs) => trs.length), 0, 'the stopped search filled the table');
+    assert.notEqual(await b.page.getAttribute('#ci-box', 'data-state'), 'done', 'the stopped search computed the contour integral');
+    await b.page.click('#find');
+    await searchDone(b.page);
+    const kinds = await b.page.$$eval('#sing-body tr[data-index]', (trs) => trs.map((t) => t.dataset.kind));
+    // H(s) = wn²/(s² + 2ζwn s + wn²) has exactly two poles and no zeros (common practice).
+    assert.deepEqual(kinds, ['pole', 'pole']);
+  });
+
   test('a link with a state in its address opens that state', async () => {
     const state = { f: '1/(z^2 + 0.5*z + 2)', var: 'z', params: [{ name: 'a', value: '0.3+0.1i' }], view: [-2, 2, -2, 2], phase: true };
     await load(b.page, withState(state));

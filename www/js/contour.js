@@ -3,8 +3,10 @@
 // infinity; direct quadrature), each shown with its error estimate, and any
 // disagreement between them shown in a warning style, never hidden. Also the
 // argument-principle count of zeros and poles inside the contour.
-import { el, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, isFinitePair, responseError } from './util.js';
-import { runHeavy } from './engine.js';
+import { el } from './dom.js';
+import { isFinitePair } from './complex.js';
+import { fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow } from './format.js';
+import { runHeavy, responseError } from './engine.js';
 
 /** The three ways, in the order shown; `key` is the response field suffix. */
 const WAYS = [
@@ -71,7 +73,7 @@ export function showContourIntegral(parts, variable, contour, isView, resp) {
   const err = responseError(resp);
   parts.result.hidden = Boolean(err);
   if (err) {
-    const stopped = err.message === 'cancelled';
+    const stopped = err.code === 'cancelled';
     contourStatus(parts, stopped ? 'Stopped before the contour integral finished.' : 'The contour integral was not computed: ' + err.message + '.', stopped ? 'stale' : 'error');
     parts.box.dataset.state = stopped ? 'stopped' : 'error';
     return;
@@ -139,7 +141,7 @@ export function showArgumentCount(parts, resp) {
   parts.count.textContent = '';
   const err = responseError(resp);
   if (err) {
-    parts.count.textContent = err.message === 'cancelled' ? '' : 'Zeros and poles inside: not counted (' + err.message + ').';
+    parts.count.textContent = err.code === 'cancelled' ? '' : 'Zeros and poles inside: not counted (' + err.message + ').';
     parts.count.dataset.k = '';
     return;
   }

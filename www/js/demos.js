@@ -1,5 +1,6 @@
 // The example menu: our own scenarios, inlined from demo-data/*.json at build time.
 /* global DEMO_DATA */
+import { $, el } from './dom.js';
 
 export function demoList() {
   return typeof DEMO_DATA !== 'undefined' && Array.isArray(DEMO_DATA) ? DEMO_DATA : [];
@@ -14,4 +15,22 @@ export function demoState(demo) {
     hi: null,
   }));
   return { f: demo.f, var: demo.var || 'z', params, view: demo.view || [-3, 3, -3, 3] };
+}
+
+/** Fill the example menu; hide it when there are no examples. */
+export function fillExampleMenu(select) {
+  const demos = demoList();
+  demos.forEach((d, i) => select.append(el('option', { value: String(i), text: d.title })));
+  if (demos.length === 0) select.closest('label').hidden = true;
+}
+
+/** Once the function is no longer the chosen example's, the example's name and text go. */
+export function forgetExampleIfChanged(state) {
+  const picker = $('demo-select');
+  const d = demoList()[Number(picker.value)];
+  if (picker.value === '' || !d) return;
+  if (d.f !== state.f || (d.var || 'z') !== state.var.trim()) {
+    picker.value = '';
+    $('demo-description').hidden = true;
+  }
 }

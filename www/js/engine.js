@@ -4,7 +4,6 @@
 // heavy tasks (singularities, Laurent series) and can be cancelled by ending it.
 // When workers are not available everything runs on the main thread in small steps.
 import * as wasmGlue from '../../dist/pkg/residuary.js';
-import { yieldToBrowser } from './util.js';
 
 /* global WASM_BASE64, GLUE_SOURCE, WORKER_SOURCE */
 
@@ -21,6 +20,24 @@ export const Engine = {
   plotJob: null,
 };
 
+/** Let the browser paint and handle input before continuing. */
+export function yieldToBrowser() {
+  return new Promise((resolve) => setTimeout(resolve, 0));
+}
+
+/** The error object of a response, if any: {code, message, span} or null. `code` is the core's
+ *  machine code (e.g. "budget_exhausted"), or one the page sets itself: "cancelled" (Stop),
+ *  "not_ready" (the core is still loading), "internal" (anything else that went wrong here);
+ *  null when the answer carries none. Decide on `code`, never on the words of `message`. */
+export function responseError(response) {
+  if (!response || typeof response !== 'object') return { code: 'internal', message: 'no answer from the engine', span: null };
+  if (response.error) {
+    const e = response.error;
+    return { code: typeof e.code === 'string' ? e.code : null, message: String(e.message || 'unknown error'), span: e.span || null };
+  }
+  return null;
+}
+
 function decodeBase64(text) {
   const bin = atob(text);
   const bytes = new Uint8Array(bin.length);
@@ -28,9 +45,11 @@ function decodeBase64(text) {
   return bytes;
 }
 
-function errorObject(e) {
+/** An error response from a thrown value: the core's own error object passes through as it is;
+ *  anything else (a trap, a failed call) becomes code "internal", or `code` when given. */
+function errorObject(e, code = 'internal') {
   if (e && e.error) return { error: e.error };
-  return { error: { message: String((e && e.message) || e), span: null } };
+  return { error: { code, message: String((e && e.message) || e), span: null } };
 }
 
 /** Load the core; resolves with {ok, message}. Never rejects. */
@@ -95,7 +114,7 @@ function attachHeavy(worker) {
 
 /** A quick call on the main thread (e.g. evaluate at one point). Never throws. */
 export function runNow(request) {
-  if (!Engine.ready) return { error: { message: Engine.message || 'the computing core is still loading', span: null } };
+  if (!Engine.ready) return { error: { code: 'not_ready', message: Engine.message || 'the computing core is still loading', span: null } };
   try {
     return wasmGlue.run(request);
   } catch (e) {
@@ -116,11 +135,11 @@ export async function runHeavy(request) {
   });
 }
 
-/** Stop every heavy call in flight (their promises resolve with a "cancelled" error). */
+/** Stop every heavy call in flight (their promises resolve with an error of code "cancelled"). */
 export async function cancelHeavy() {
   if (!Engine.heavyWorker) return;
   Engine.heavyWorker.terminate();
-  for (const resolve of Engine.heavyPending.values()) resolve({ error: { message: 'cancelled', span: null, cancelled: true } });
+  for (const resolve of Engine.heavyPending.values()) resolve({ error: { code: 'cancelled', message: 'cancelled', span: null } });
   Engine.heavyPending.clear();
   Engine.heavyWorker = null;
   const worker = await spawnWorker();
@@ -172,7 +191,7 @@ export function plotBands(request, bands, onBand) {
 
 /** One small phase plot in a single call (used for the colour key). */
 export function plotOnce(request) {
-  if (!Engine.ready) return errorObject(new Error('the computing core is still loading'));
+  if (!Engine.ready) return errorObject(new Error('the computing core is still loading'), 'not_ready');
   try {
     return { rgba: wasmGlue.phase_plot_rgba(request) };
   } catch (e) {

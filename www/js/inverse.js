@@ -4,8 +4,10 @@
 // numerical contour inversion (and, for z, long division); this block draws the
 // result on a small chart, gives the closed form when there is one, the largest
 // disagreement between the ways, and every warning the core gives.
-import { el, fmtReal, responseError } from './util.js';
-import { runHeavy } from './engine.js';
+import { el } from './dom.js';
+import { fmtReal } from './format.js';
+import { runHeavy, responseError } from './engine.js';
+import { drawInverseChart } from './inverse-chart.js';
 
 /** How many times t the s-chart samples in (0, T]. */
 export const INVERSE_TIMES = 120;
@@ -64,7 +66,7 @@ export function showInverse(parts, request, resp) {
   if (err) {
     parts.result.hidden = true;
     delete parts.chart.dataset.points;
-    if (err.message === 'cancelled') { inverseStatus(parts, 'Stopped before the inverse transform finished.', 'stale'); return; }
+    if (err.code === 'cancelled') { inverseStatus(parts, 'Stopped before the inverse transform finished.', 'stale'); return; }
     const msg = err.message.charAt(0).toUpperCase() + err.message.slice(1);
     inverseStatus(parts, 'Not computed: ' + msg + (msg.endsWith('.') ? '' : '.'), 'error');
     return;
@@ -113,94 +115,106 @@ export function showInverse(parts, request, resp) {
   if (isS && Number.isFinite(resp.delay) && resp.delay > 0) fact('Delay', `f(t) = 0 for t < ${fmtReal(resp.delay, 6)}`);
 }
 
-/** "Nice" tick positions covering [lo, hi]. */
-function ticks(lo, hi, count) {
-  const span = hi - lo;
-  if (!(span > 0)) return [lo];
-  const raw = span / count;
-  const mag = Math.pow(10, Math.floor(Math.log10(raw)));
-  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) || 10 * mag;
-  const out = [];
-  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
-  return out;
+// ---- the section on the page ---------------------------------------------------------
+
+/** What the section shows: the request it answers (key), whether T/N was typed, and a serial
+ *  that makes an answer arriving after Stop or a newer request go unused. */
+const inverseSection = { key: '', spanTyped: false, serial: 0 };
+
+/** The span asked for: T (s) or N (z), typed or the default. */
+function inverseSpan(page, kind) {
+  const typed = Number(page.ui.inv.span.value);
+  if (kind === 'z') {
+    return inverseSection.spanTyped && Number.isFinite(typed) && typed >= 0 ? Math.min(2000, Math.floor(typed)) : INVERSE_DEFAULT_N;
+  }
+  return inverseSection.spanTyped && Number.isFinite(typed) && typed > 0 ? Math.min(1e6, typed) : defaultSpan(page.found.items);
 }
 
-const tickText = (v) => fmtReal(Number(v.toPrecision(6)), 4);
-
-/** Draw (or redraw, after a resize) the chart from its data attribute. */
-export function drawInverseChart(canvas) {
-  const box = canvas.parentElement.getBoundingClientRect();
-  const cssW = Math.max(160, Math.floor(box.width));
-  const cssH = Math.round(Math.min(220, Math.max(140, cssW * 0.45)));
-  const dpr = window.devicePixelRatio || 1;
-  canvas.style.height = cssH + 'px';
-  canvas.width = Math.round(cssW * dpr);
-  canvas.height = Math.round(cssH * dpr);
-  const g = canvas.getContext('2d');
-  g.setTransform(dpr, 0, 0, dpr, 0, 0);
-  g.clearRect(0, 0, cssW, cssH);
-  if (!canvas.dataset.points) return;
-  const { x, y } = JSON.parse(canvas.dataset.points);
-  const stems = canvas.dataset.kind === 'z';
-  const finite = y.filter((v) => v !== null);
-  if (!finite.length) return;
-  let lo = Math.min(0, ...finite), hi = Math.max(0, ...finite);
-  if (hi - lo < 1e-300) { hi += 1; lo -= 1; }
-  const pad = 0.06 * (hi - lo);
-  lo -= stems && lo === 0 ? 0 : pad;
-  hi += pad;
-  const x0 = stems ? -0.5 : 0, x1 = stems ? x[x.length - 1] + 0.5 : x[x.length - 1];
-  const yt = ticks(lo, hi, 4), xt = stems ? ticks(0, x[x.length - 1], 6).filter((v) => Number.isInteger(v)) : ticks(0, x1, 6);
-  g.font = '11px system-ui, sans-serif';
-  const left = 8 + Math.max(...yt.map((v) => g.measureText(tickText(v)).width)), right = 10, top = 8, bottom = 22;
-  const px = (v) => left + ((v - x0) / (x1 - x0)) * (cssW - left - right);
-  const py = (v) => top + ((hi - v) / (hi - lo)) * (cssH - top - bottom);
-  // grid and tick labels
-  g.strokeStyle = '#e3e8ec';
-  g.lineWidth = 1;
-  g.fillStyle = '#5b6670';
-  g.textAlign = 'right';
-  g.textBaseline = 'middle';
-  for (const v of yt) {
-    const yy = Math.round(py(v)) + 0.5;
-    g.beginPath(); g.moveTo(left, yy); g.lineTo(cssW - right, yy); g.stroke();
-    g.fillText(tickText(v), left - 4, yy);
-  }
-  g.textAlign = 'center';
-  g.textBaseline = 'top';
-  for (const v of xt) {
-    const xx = Math.round(px(v)) + 0.5;
-    g.beginPath(); g.moveTo(xx, top); g.lineTo(xx, cssH - bottom); g.stroke();
-    g.fillText(tickText(v), xx, cssH - bottom + 4);
-  }
-  // the axes: the zero line and the left edge
-  g.strokeStyle = '#7d8891';
-  g.beginPath();
-  g.moveTo(left, Math.round(py(0)) + 0.5); g.lineTo(cssW - right, Math.round(py(0)) + 0.5);
-  g.moveTo(left + 0.5, top); g.lineTo(left + 0.5, cssH - bottom);
-  g.stroke();
-  g.textAlign = 'right';
-  g.textBaseline = 'bottom';
-  g.fillText(stems ? 'n' : 't', cssW - right, cssH - bottom - 2);
-  // the data
-  g.strokeStyle = '#1f5f8b';
-  g.fillStyle = '#1f5f8b';
-  g.lineWidth = stems ? 1.2 : 1.8;
-  if (stems) {
-    const r = Math.max(1.5, Math.min(3.5, (cssW - left - right) / x.length / 3));
-    x.forEach((n, i) => {
-      if (y[i] === null) return;
-      g.beginPath(); g.moveTo(px(n), py(0)); g.lineTo(px(n), py(y[i])); g.stroke();
-      g.beginPath(); g.arc(px(n), py(y[i]), r, 0, 2 * Math.PI); g.fill();
-    });
+/** After a search: show the section for s or z, in words fitting the variable, open or folded. */
+export function prepareInverse(page, base) {
+  const inv = page.ui.inv;
+  const kind = inverseKind(base.var);
+  const box = inv.box;
+  const wasVar = box.dataset.var;
+  box.hidden = !kind;
+  if (!kind) { page.inverseOpenNext = null; return; }
+  if (wasVar !== base.var) inverseSection.spanTyped = false;
+  // Open for s; for z folded unless the chosen example is a transfer function (or the user opened it).
+  if (page.inverseOpenNext !== null) box.open = base.var === 's' || page.inverseOpenNext;
+  else if (wasVar !== base.var) box.open = base.var === 's';
+  page.inverseOpenNext = null;
+  box.dataset.var = base.var;
+  if (kind === 'laplace') {
+    inv.title.textContent = 'Inverse Laplace transform f(t)';
+    inv.what.textContent = 'The time function f(t), t > 0, whose Laplace transform is the function above, read as F(s): the sum of the residues of F(s)·exp(st), checked against a numerical inversion along a contour passing right of the singularities.';
+    inv.spanLabel.textContent = 'Times 0 < t ≤ T, T =';
+    inv.spanHint.textContent = inverseSection.spanTyped ? '' : '(default: 10/|Re| of the rightmost pole, or 10)';
   } else {
-    g.beginPath();
-    let pen = false;
-    x.forEach((t, i) => {
-      if (y[i] === null) { pen = false; return; }
-      if (pen) g.lineTo(px(t), py(y[i])); else g.moveTo(px(t), py(y[i]));
-      pen = true;
-    });
-    g.stroke();
+    inv.title.textContent = 'Inverse z-transform x[n]';
+    inv.what.textContent = 'The causal sequence x[n], n ≥ 0, whose z-transform is the function above (read as X(z)): by residues, checked against a contour integral and long division.';
+    inv.spanLabel.textContent = 'Samples n = 0 … N, N =';
+    inv.spanHint.textContent = '';
   }
+  inv.span.step = kind === 'z' ? '1' : 'any';
+  if (!inverseSection.spanTyped) inv.span.value = String(inverseSpan(page, kind));
+  if (!box.open) {
+    inv.result.hidden = true;
+    inv.warnings.textContent = '';
+    inverseSection.key = '';
+    inverseStatus(inv, 'Open this section to compute the inverse transform.', 'closed');
+  }
+}
+
+/** Compute and show the inverse transform for `base` (the searched function). */
+export async function runInverse(page, base) {
+  const inv = page.ui.inv;
+  const kind = inverseKind(base.var);
+  if (!kind) return;
+  const span = inverseSpan(page, kind);
+  if (!inverseSection.spanTyped) inv.span.value = String(span);
+  const request = inverseRequest(base, span);
+  const serial = ++inverseSection.serial;
+  inverseStatus(inv, kind === 'laplace' ? 'Computing f(t)…' : 'Computing x[n]…', 'busy');
+  const resp = await requestInverse(base, span);
+  if (serial !== inverseSection.serial) return;
+  showInverse(inv, request, resp);
+  inverseSection.key = JSON.stringify(request);
+}
+
+/** Stop pressed: an inverse transform in progress is dropped. */
+export function stopInverse(page) {
+  if (page.ui.inv.box.dataset.state !== 'busy') return;
+  inverseSection.serial++;
+  inverseStatus(page.ui.inv, 'Stopped before the inverse transform finished.', 'stale');
+}
+
+/** Opening the section or changing T/N outside a search: compute now, if the results are current. */
+async function inverseOnDemand(page) {
+  const ui = page.ui;
+  if (ui.inv.box.hidden || !ui.inv.box.open) return;
+  if (ui.find.disabled) return; // a search is running; it computes the inverse at its end
+  if (ui.singTable.classList.contains('stale') || !page.found.base) { inverseStatus(ui.inv, 'Computed with the next search.', 'stale'); return; }
+  const kind = inverseKind(page.found.base.var);
+  if (!kind) return;
+  if (inverseSection.key === JSON.stringify(inverseRequest(page.found.base, inverseSpan(page, kind)))) {
+    if (!ui.inv.result.hidden) drawInverseChart(ui.inv.chart); // its width may have changed while folded
+    return;
+  }
+  const serial = page.searchSerial;
+  ui.cancel.disabled = false;
+  await runInverse(page, page.found.base);
+  if (serial === page.searchSerial) ui.cancel.disabled = true;
+}
+
+/** Opening the section and changing T or N. */
+export function attachInverseSection(page) {
+  const inv = page.ui.inv;
+  inv.box.addEventListener('toggle', () => {
+    if (inv.box.open) inverseOnDemand(page);
+  });
+  inv.span.addEventListener('change', () => {
+    inverseSection.spanTyped = inv.span.value.trim() !== '';
+    inv.spanHint.textContent = '';
+    inverseOnDemand(page);
+  });
 }

@@ -1,8 +1,8 @@
 // The colour key: the core's own colouring of f(z) = z on a small square, cut
 // to a ring, with the argument marked around it; and the marker key.
 import { plotOnce } from './engine.js';
-import { el } from './util.js';
-import { markerIcon, KIND_WORDS } from './singularities.js';
+import { el } from './dom.js';
+import { markerIcon, KIND_WORDS } from './markers.js';
 
 /** Draw the colour ring for `wheel` ("oklch" or "hsv") into `canvas` (150 × 150 drawing units). */
 export function drawWheelKey(canvas, wheel) {

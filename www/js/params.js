@@ -1,6 +1,24 @@
 // Parameter rows: name, value (a real number, or complex text such as 0.3+0.1i)
 // and a slider over the real part.
-import { el, parseComplex, fmtReal } from './util.js';
+import { el } from './dom.js';
+import { fmtReal } from './format.js';
+
+/** Parse a parameter value typed by a person: "2", "-0.5", "1e-3", "0.3+0.1i", "2i", "-i", "3-4j".
+ *  Returns [re, im] or null when the text is not a number. */
+export function parseComplex(text) {
+  const s = String(text).replace(/\s+/g, '').replace(/j/g, 'i').replace(/[−–]/g, '-');
+  if (s === '') return null;
+  const num = '(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][+-]?\\d+)?';
+  const real = new RegExp('^([+-]?' + num + ')$');
+  const imag = new RegExp('^([+-]?(?:' + num + ')?)\\*?i$');
+  const both = new RegExp('^([+-]?' + num + ')([+-](?:' + num + ')?)\\*?i$');
+  const coef = (t) => (t === '' || t === '+' ? 1 : t === '-' ? -1 : Number(t));
+  let m;
+  if ((m = s.match(real))) return [Number(m[1]), 0];
+  if ((m = s.match(imag))) return [0, coef(m[1])];
+  if ((m = s.match(both))) return [Number(m[1]), coef(m[2])];
+  return null;
+}
 
 /** A slider range that holds `v` comfortably. */
 export function rangeFor(v) {
@@ -22,6 +40,12 @@ export function paramsForRequest(rows) {
     params[name] = v[1] === 0 ? v[0] : v;
   }
   return { params, problems };
+}
+
+/** The function as the core is asked for it: {f, var, params} (rows that do not parse are left out). */
+export function functionInput(state) {
+  const { params } = paramsForRequest(state.params);
+  return { f: state.f, var: state.var.trim() || 'z', params };
 }
 
 /** Draw the rows into `container`; `onChange()` fires on every edit. */

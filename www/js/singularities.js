@@ -1,36 +1,15 @@
-// The singularities panel: the region, the search (off the main thread and
+// The singularities panel: the search request (run off the main thread and
 // cancellable), the table, the markers, the residue at infinity with the sum
 // check, the stability reading and, for a chosen point, its principal part in
 // MathML with its Laurent coefficients.
-import { el, fmtComplex, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, trimComplex, cAbs, cSub, isFinitePair, responseError } from './util.js';
-import { runHeavy, cancelHeavy } from './engine.js';
+import { el } from './dom.js';
+import { cAbs, cSub, isFinitePair } from './complex.js';
+import { fmtComplex, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, trimComplex } from './format.js';
+import { runHeavy, responseError } from './engine.js';
+import { KIND_WORDS, markerIcon } from './markers.js';
+import { regionWords } from './region.js';
 
 const MATHML = 'http://www.w3.org/1998/Math/MathML';
-
-export const KIND_WORDS = {
-  pole: 'pole', zero: 'zero', essential: 'essential singularity', branch: 'branch point', removable: 'removable point',
-};
-
-/** The contour of the chosen region. `view` is [x0, x1, y0, y1]. */
-export function regionContour(region, view) {
-  if (region.mode === 'circle') {
-    const [x, y, r] = region.circle;
-    return { shape: 'circle', center: [x, y], radius: r };
-  }
-  const v = region.mode === 'rect' ? region.rect : view;
-  return { shape: 'rectangle', corners: [[v[0], v[2]], [v[1], v[3]]] };
-}
-
-/** Why a region cannot be searched, or '' when it can. */
-export function regionProblem(contour) {
-  if (contour.shape === 'circle') {
-    if (!(contour.radius > 0) || !contour.center.every(Number.isFinite)) return 'the circle needs a finite centre and a radius above 0';
-  } else {
-    const [[a, b], [c, d]] = contour.corners;
-    if (![a, b, c, d].every(Number.isFinite) || a === c || b === d) return 'the rectangle needs two different finite corners';
-  }
-  return '';
-}
 
 /** Flatten a singularities response into one list of points. `floor` is the size below which a
  *  location's real or imaginary part is rounding noise (a small fraction of the region's size). */
@@ -48,13 +27,6 @@ export function itemsOf(resp, floor = 0) {
   for (const r of pts(resp.removable)) items.push({ kind: 'removable', at: Array.isArray(r) ? r : r.at });
   for (const it of items) it.floor = floor;
   return items.filter((it) => isFinitePair(it.at));
-}
-
-/** The region in words, e.g. "Re s from −4 to 2, Im s from −3 to 3". */
-export function regionWords(variable, contour) {
-  if (contour.shape === 'circle') return `|${variable} − (${fmtComplex(contour.center, 4)})| < ${fmtReal(contour.radius, 4)}`;
-  const [[a, b], [c, d]] = contour.corners;
-  return `Re ${variable} from ${fmtReal(Math.min(a, c), 4)} to ${fmtReal(Math.max(a, c), 4)}, Im ${variable} from ${fmtReal(Math.min(b, d), 4)} to ${fmtReal(Math.max(b, d), 4)}`;
 }
 
 /** Does the region hold the closed unit disc? */
@@ -105,7 +77,26 @@ export function stabilityReading(variable, items, contour) {
 export function searchSingularities(base, contour) {
   return runHeavy(Object.assign({}, base, { task: 'singularities', region: contour }));
 }
-export { cancelHeavy };
+
+/** Residue at infinity and the residue-sum check, in one short line each (`parts`: resInf, sumCheck). */
+export function showSums(parts, resp, items) {
+  const rinf = resp.residue_at_infinity;
+  parts.resInf.textContent = isFinitePair(rinf) ? fmtSig(rinf, 10) : 'not available for this function (see the warnings)';
+  parts.resInf.title = isFinitePair(rinf) ? 'Full precision: ' + fmtExact(rinf) : '';
+  const withResidue = items.filter((it) => (it.kind === 'pole' || it.kind === 'essential') && isFinitePair(it.residue));
+  const sum = withResidue.reduce((acc, it) => [acc[0] + it.residue[0], acc[1] + it.residue[1]], [0, 0]);
+  if (!isFinitePair(rinf)) {
+    parts.sumCheck.textContent = `Σ residues in the region = ${fmtSig(sum, 10)} (no check without the residue at infinity)`;
+    return;
+  }
+  const total = cAbs([sum[0] + rinf[0], sum[1] + rinf[1]]);
+  const scale = Math.max(1e-300, cAbs(rinf), ...withResidue.map((it) => cAbs(it.residue)));
+  const small = total <= 1e-8 * scale + 1e-13;
+  parts.sumCheck.textContent = `|Σ residues in the region + Res∞| = ${fmtReal(total, small ? 2 : 6)}` +
+    (small ? ' (about 0, as expected when the region holds every finite singularity)'
+      : ' — not 0, so f has singular points outside the region (or a residue is inaccurate)');
+  parts.sumCheck.classList.toggle('bad', !small);
+}
 
 /** A table cell holding a complex number on one or two lines, 10 significant digits;
  *  the full double-precision value is in the title (and in the copied text). */
@@ -143,26 +134,6 @@ export function highlightRow(tbody, index) {
   for (const tr of tbody.querySelectorAll('tr')) tr.classList.toggle('picked', Number(tr.dataset.index) === index);
 }
 
-/** A small inline SVG of a marker, for the table and the key. */
-export function markerIcon(kind) {
-  const ns = 'http://www.w3.org/2000/svg';
-  const svg = document.createElementNS(ns, 'svg');
-  svg.setAttribute('width', '16'); svg.setAttribute('height', '16'); svg.setAttribute('viewBox', '-8 -8 16 16');
-  svg.setAttribute('aria-hidden', 'true');
-  svg.classList.add('marker-icon');
-  const shape = (tag, attrs) => { const s = document.createElementNS(ns, tag); for (const [k, v] of Object.entries(attrs)) s.setAttribute(k, v); svg.append(s); };
-  const line = { fill: 'none', stroke: '#111', 'stroke-width': '1.6', 'stroke-linejoin': 'round' };
-  if (kind === 'pole') shape('polygon', Object.assign({ points: '0,-6 6,0 0,6 -6,0' }, line));
-  else if (kind === 'zero') { shape('circle', Object.assign({ r: 5 }, line)); shape('circle', { r: 2, fill: '#111' }); }
-  else if (kind === 'essential') {
-    let d = '';
-    for (let k = 0; k < 8; k++) { const a = (k * Math.PI) / 4, r = k % 2 ? 3.5 : 6.5; d += `M0 0L${(r * Math.cos(a)).toFixed(2)} ${(r * Math.sin(a)).toFixed(2)}`; }
-    shape('path', Object.assign({ d }, line));
-  } else if (kind === 'branch') shape('polygon', Object.assign({ points: '0,-6 6,4 -6,4' }, line));
-  else shape('rect', Object.assign({ x: -4, y: -4, width: 8, height: 8 }, line));
-  return svg;
-}
-
 /** Radius for the Laurent annulus: half the distance to the nearest other singular point,
  *  or `fallback` when none was found. Returns {radius, why} (the reason in words). */
 export function laurentRadius(item, items, fallback) {
@@ -181,7 +152,7 @@ export function laurentRadius(item, items, fallback) {
  *  Laurent series about it). Resolves with the response or an error object. */
 export function requestLaurent(base, item, radius) {
   if (item.kind === 'branch') {
-    return Promise.resolve({ error: { message: 'f is not single-valued around a branch point, so it has no Laurent series there', span: null } });
+    return Promise.resolve({ error: { code: 'not_applicable', message: 'f is not single-valued around a branch point, so it has no Laurent series there', span: null } });
   }
   const order = item.order > 0 ? item.order : 0;
   const from = item.kind === 'zero' || item.kind === 'removable' ? 0 : item.kind === 'essential' ? -12 : -order - 2;
@@ -296,7 +267,7 @@ export function showDetail(parts, variable, item, response, annulus) {
     principalPartMathML(variable, item.at, coeffs, level, item.kind === 'essential', item.floor, item.kind === 'essential' ? 4 : 12));
   }
   if (err) {
-    notes.push(err.message === 'cancelled' ? 'Stopped.' : 'Laurent series not available: ' + err.message + '.');
+    notes.push(err.code === 'cancelled' ? 'Stopped.' : 'Laurent series not available: ' + err.message + '.');
   } else {
     notes.push(`Laurent series about ${variable}₀ = ${fmtSig(item.at, 10, item.floor)}, valid for 0 < |${variable} − ${variable}₀| < ${fmtReal(radius, 4)}` +
       ` (${annulus.why}).` +

@@ -1,8 +1,17 @@
 // The page state, and keeping it: localStorage (when the browser allows it on
 // this page) and the URL hash, so a link can carry a whole setup.
-import { safeStorage } from './util.js';
 
 const STORAGE_KEY = 'residuary.page.v1';
+
+/** localStorage that never throws (file:// pages may refuse it). */
+export const safeStorage = {
+  get(key) {
+    try { return window.localStorage.getItem(key); } catch (e) { return null; }
+  },
+  set(key, value) {
+    try { window.localStorage.setItem(key, value); return true; } catch (e) { return false; }
+  },
+};
 
 export function defaultState() {
   return {

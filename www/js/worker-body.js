@@ -6,9 +6,10 @@
 /* global wasmGlue */
 let latestPlot = -1;
 
+/** The core's error object as it is; anything else thrown becomes code "internal". */
 function errorOf(e) {
   if (e && e.error) return e.error;
-  return { message: String((e && e.message) || e), span: null };
+  return { code: 'internal', message: String((e && e.message) || e), span: null };
 }
 
 self.onmessage = async (event) => {

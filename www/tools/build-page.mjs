@@ -5,13 +5,16 @@
 //   demo-data/*.json (the example menu).
 // Our modules are written as ES modules for development; here they are joined
 // in dependency order with their import lines removed and `export` dropped, so
-// every top-level name must be unique (checked below). The wasm-bindgen glue is
+// every top-level name must be unique (checked below). The order comes from the
+// imports themselves: a depth-first walk of the import graph from www/js/main.js
+// puts every module after the modules it imports (a cycle or a missing file
+// stops the build with the chain of imports that leads to it). The wasm-bindgen glue is
 // wrapped into one namespace object `wasmGlue`; the wasm goes in as base64.
 // The same glue text, plus www/js/worker-body.js, is kept as a string so the
 // page can start Web Workers from Blob URLs (nothing is fetched, even from file://).
 // No npm dependencies: node's standard library only.
 import { readFileSync, writeFileSync, readdirSync, mkdirSync, existsSync } from 'node:fs';
-import { dirname, join, resolve } from 'node:path';
+import { dirname, join, relative, resolve, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
@@ -19,8 +22,11 @@ const www = join(root, 'www');
 const out = join(root, 'dist', 'residuary.html');
 const pkg = join(root, 'dist', 'pkg');
 
-// Dependency order: a module comes after every module it imports.
-const MODULES = ['util', 'engine', 'state', 'expr-input', 'params', 'plot', 'singularities', 'contour', 'inverse', 'legend', 'demos', 'main'];
+const jsDir = join(www, 'js');
+const ENTRY = 'main';
+// The one import that is not one of our modules: the wasm-bindgen glue, which the
+// bundle provides as `wasmGlue` (see wrapGlue).
+const GLUE_IMPORT = { path: join(pkg, 'residuary.js'), name: 'wasmGlue' };
 
 function fail(message) {
   console.error('build-page: ' + message);
@@ -32,11 +38,62 @@ function read(path) {
   return readFileSync(path, 'utf8');
 }
 
+// An import statement: `import {a, b} from './x.js';`, `import * as n from '...';`
+// or `import './x.js';` (possibly over several lines), and a re-export `export {..} from '...'`.
+const IMPORT_RE = /^import\s+(?:([^;'"]*?)\s+from\s+)?['"]([^'"]+)['"];?[ \t]*$/gm;
+const REEXPORT_RE = /^export\s*\{[^}]*\}\s*from\s+['"]([^'"]+)['"];?[ \t]*$/gm;
+
+/** Module name (path under www/js without .js, e.g. "plot/view") of an import `spec` in module `from`. */
+function resolveImport(from, spec, clause) {
+  const target = resolve(dirname(join(jsDir, from + '.js')), spec);
+  if (target === GLUE_IMPORT.path) {
+    if (clause !== `* as ${GLUE_IMPORT.name}`) fail(`www/js/${from}.js: import the wasm glue as \`import * as ${GLUE_IMPORT.name} from '${spec}'\``);
+    return null;
+  }
+  const rel = relative(jsDir, target).split(sep).join('/');
+  if (rel.startsWith('..') || !rel.endsWith('.js')) fail(`www/js/${from}.js imports '${spec}', which is not a .js module under www/js`);
+  if (clause && !/^\{[^}]*\}$/.test(clause.trim())) fail(`www/js/${from}.js: write \`import { a, b } from '${spec}'\` (the bundle joins modules into one scope, so default and namespace imports cannot work)`);
+  if (clause && /\sas\s/.test(clause)) fail(`www/js/${from}.js: \`as\` renames in imports from '${spec}' cannot work in the joined bundle; use the exported name`);
+  return rel.slice(0, -3);
+}
+
+/** The modules `name` imports, in the order written. */
+function importsOf(name, text) {
+  const found = [];
+  for (const m of text.matchAll(IMPORT_RE)) found.push([m[2], m[1] || '']);
+  for (const m of text.matchAll(REEXPORT_RE)) found.push([m[1], '']);
+  return found.map(([spec, clause]) => resolveImport(name, spec, clause)).filter((n) => n !== null);
+}
+
+/** Every module reachable from `entry`, each after the modules it imports (depth-first post-order). */
+function moduleOrder(entry) {
+  const order = [];
+  const state = new Map(); // name -> 'open' while its imports are walked, 'done' after
+  const walk = (name, chain) => {
+    if (state.get(name) === 'done') return;
+    if (state.get(name) === 'open') {
+      const loop = chain.slice(chain.indexOf(name)).concat(name);
+      fail('import cycle: ' + loop.map((n) => `www/js/${n}.js`).join(' -> ') + ' (the joined bundle needs an order; move the shared part into its own module)');
+    }
+    const path = join(jsDir, name + '.js');
+    if (!existsSync(path)) {
+      const by = chain.length ? `www/js/${chain[chain.length - 1]}.js imports www/js/${name}.js` : `the entry www/js/${name}.js`;
+      fail(`missing module: ${by}, which does not exist (import chain: ${chain.concat(name).join(' -> ')})`);
+    }
+    state.set(name, 'open');
+    for (const dep of importsOf(name, readFileSync(path, 'utf8'))) walk(dep, chain.concat(name));
+    state.set(name, 'done');
+    order.push(name);
+  };
+  walk(entry, []);
+  return order;
+}
+
 /** Strip import lines and `export` keywords from one of our modules. */
 function flattenModule(name) {
-  const text = read(join(www, 'js', name + '.js'));
+  const text = read(join(jsDir, name + '.js'));
   const stripped = text
-    .replace(/^import\s[^;]*?from\s+['"][^'"]+['"];?[ \t]*$/gm, '')
+    .replace(IMPORT_RE, '')
     .replace(/^export\s*\{[^}]*\}\s*(from\s+['"][^'"]+['"])?;?[ \t]*$/gm, '');
   const lines = stripped.split('\n');
   const body = lines.map((l) => l.replace(/^export\s+(default\s+)?(?=(async\s+)?function|const|let|class)/, '')).join('\n');
@@ -101,10 +158,15 @@ function loadDemos() {
   });
 }
 
+const modules = moduleOrder(ENTRY);
+if (process.argv.includes('--order')) { // print the module order and stop (needs no wasm build)
+  console.log(modules.map((n) => `www/js/${n}.js`).join('\n'));
+  process.exit(0);
+}
 const glue = wrapGlue(read(join(pkg, 'residuary.js')));
 const wasm = readFileSync(join(pkg, 'residuary_bg.wasm'));
 const workerBody = read(join(www, 'js', 'worker-body.js'));
-const app = MODULES.map(flattenModule).join('\n');
+const app = modules.map(flattenModule).join('\n');
 const demos = loadDemos();
 
 const seen = new Map();
@@ -133,4 +195,4 @@ html = html.replace(scriptTag, () => `<script type="module">\n${bundle}\n</scrip
 
 mkdirSync(dirname(out), { recursive: true });
 writeFileSync(out, html);
-console.log(`build-page: wrote ${out} (${(html.length / 1024).toFixed(0)} KiB; wasm ${(wasm.length / 1024).toFixed(0)} KiB; ${demos.length} examples)`);
+console.log(`build-page: wrote ${out} (${(html.length / 1024).toFixed(0)} KiB; wasm ${(wasm.length / 1024).toFixed(0)} KiB; ${modules.length} modules; ${demos.length} examples)`);

@@ -1,0 +1,66 @@
+// Numbers as text on the page: short readable reals, complex numbers on one or
+// two lines, significant digits that carry information, full precision for titles.
+import { isFinitePair } from './complex.js';
+
+/** A short, readable number: up to `digits` significant digits, no trailing zeros. */
+export function fmtReal(x, digits = 6) {
+  if (x === null || x === undefined || Number.isNaN(x)) return 'NaN';
+  if (!Number.isFinite(x)) return x > 0 ? '∞' : '−∞';
+  if (x === 0) return '0';
+  const ax = Math.abs(x);
+  let t;
+  if (ax >= 1e-4 && ax < 1e7) {
+    t = Number(x.toPrecision(digits)).toString();
+  } else {
+    t = x.toExponential(digits - 1).replace(/\.?0+e/, 'e').replace('e+', 'e');
+  }
+  return t.replace(/-/g, '−');
+}
+
+/** [re, im] as "a + bi"; tiny parts relative to the other are kept (numbers must be right). */
+export function fmtComplex(z, digits = 6) {
+  if (!Array.isArray(z) || z.length !== 2) return '—';
+  const [re, im] = z.map((v) => (v === null ? NaN : v));
+  if (Number.isNaN(re) || Number.isNaN(im)) return 'not a number';
+  if (!Number.isFinite(re) || !Number.isFinite(im)) return '∞';
+  if (im === 0) return fmtReal(re, digits);
+  const ims = fmtReal(Math.abs(im), digits);
+  const imPart = (ims === '1' ? '' : ims) + 'i';
+  if (re === 0) return (im < 0 ? '−' : '') + imPart;
+  return fmtReal(re, digits) + (im < 0 ? ' − ' : ' + ') + imPart;
+}
+
+/** Drop a part of [re, im] that lies below the last of `digits` significant digits of |z|
+ *  (e.g. the 1e-17 imaginary part of a real pole found numerically): it carries no information. */
+export function trimComplex(z, digits = 10, absFloor = 0) {
+  if (!isFinitePair(z)) return z;
+  const floor = Math.max(Math.hypot(z[0], z[1]) * Math.pow(10, -digits), absFloor);
+  return [Math.abs(z[0]) < floor ? 0 : z[0], Math.abs(z[1]) < floor ? 0 : z[1]];
+}
+
+/** Drop parts below an absolute level (e.g. a coefficient's error estimate). */
+export function trimBelow(z, level) {
+  if (!isFinitePair(z) || !(level > 0)) return z;
+  return [Math.abs(z[0]) < level ? 0 : z[0], Math.abs(z[1]) < level ? 0 : z[1]];
+}
+
+/** [re, im] to `digits` significant digits of |z|, as one line. */
+export function fmtSig(z, digits = 10, absFloor = 0) {
+  return fmtComplex(trimComplex(z, digits, absFloor), digits);
+}
+
+/** [re, im] to `digits` significant digits as two lines ["a", "+ bi"] (the second may be ''),
+ *  so long complex numbers fit a narrow table column. */
+export function fmtSigLines(z, digits = 10, absFloor = 0) {
+  const t = trimComplex(z, digits, absFloor);
+  if (!isFinitePair(t)) return [fmtComplex(t, digits), ''];
+  const [re, im] = t;
+  if (im === 0 || re === 0) return [fmtComplex(t, digits), ''];
+  const ims = fmtReal(Math.abs(im), digits);
+  return [fmtReal(re, digits), (im < 0 ? '− ' : '+ ') + (ims === '1' ? '' : ims) + 'i'];
+}
+
+/** Full double precision, for titles and copying: "re, im". */
+export function fmtExact(z) {
+  return isFinitePair(z) ? `${z[0]} ${z[1] < 0 || Object.is(z[1], -0) ? '-' : '+'} ${Math.abs(z[1])}i` : String(z);
+}

@@ -1,0 +1,96 @@
+// The inverse transform's chart: f(t) as a line over 0 < t ≤ T, or x[n] as stems
+// for n = 0 … N, with a light grid and tick labels. The data sit on the canvas
+// (data-points, data-kind) so a resize can redraw without asking the core again.
+import { fmtReal } from './format.js';
+
+/** "Nice" tick positions covering [lo, hi]. */
+function ticks(lo, hi, count) {
+  const span = hi - lo;
+  if (!(span > 0)) return [lo];
+  const raw = span / count;
+  const mag = Math.pow(10, Math.floor(Math.log10(raw)));
+  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) || 10 * mag;
+  const out = [];
+  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
+  return out;
+}
+
+const tickText = (v) => fmtReal(Number(v.toPrecision(6)), 4);
+
+/** Draw (or redraw, after a resize) the chart from its data attribute. */
+export function drawInverseChart(canvas) {
+  const box = canvas.parentElement.getBoundingClientRect();
+  const cssW = Math.max(160, Math.floor(box.width));
+  const cssH = Math.round(Math.min(220, Math.max(140, cssW * 0.45)));
+  const dpr = window.devicePixelRatio || 1;
+  canvas.style.height = cssH + 'px';
+  canvas.width = Math.round(cssW * dpr);
+  canvas.height = Math.round(cssH * dpr);
+  const g = canvas.getContext('2d');
+  g.setTransform(dpr, 0, 0, dpr, 0, 0);
+  g.clearRect(0, 0, cssW, cssH);
+  if (!canvas.dataset.points) return;
+  const { x, y } = JSON.parse(canvas.dataset.points);
+  const stems = canvas.dataset.kind === 'z';
+  const finite = y.filter((v) => v !== null);
+  if (!finite.length) return;
+  let lo = Math.min(0, ...finite), hi = Math.max(0, ...finite);
+  if (hi - lo < 1e-300) { hi += 1; lo -= 1; }
+  const pad = 0.06 * (hi - lo);
+  lo -= stems && lo === 0 ? 0 : pad;
+  hi += pad;
+  const x0 = stems ? -0.5 : 0, x1 = stems ? x[x.length - 1] + 0.5 : x[x.length - 1];
+  const yt = ticks(lo, hi, 4), xt = stems ? ticks(0, x[x.length - 1], 6).filter((v) => Number.isInteger(v)) : ticks(0, x1, 6);
+  g.font = '11px system-ui, sans-serif';
+  const left = 8 + Math.max(...yt.map((v) => g.measureText(tickText(v)).width)), right = 10, top = 8, bottom = 22;
+  const px = (v) => left + ((v - x0) / (x1 - x0)) * (cssW - left - right);
+  const py = (v) => top + ((hi - v) / (hi - lo)) * (cssH - top - bottom);
+  // grid and tick labels
+  g.strokeStyle = '#e3e8ec';
+  g.lineWidth = 1;
+  g.fillStyle = '#5b6670';
+  g.textAlign = 'right';
+  g.textBaseline = 'middle';
+  for (const v of yt) {
+    const yy = Math.round(py(v)) + 0.5;
+    g.beginPath(); g.moveTo(left, yy); g.lineTo(cssW - right, yy); g.stroke();
+    g.fillText(tickText(v), left - 4, yy);
+  }
+  g.textAlign = 'center';
+  g.textBaseline = 'top';
+  for (const v of xt) {
+    const xx = Math.round(px(v)) + 0.5;
+    g.beginPath(); g.moveTo(xx, top); g.lineTo(xx, cssH - bottom); g.stroke();
+    g.fillText(tickText(v), xx, cssH - bottom + 4);
+  }
+  // the axes: the zero line and the left edge
+  g.strokeStyle = '#7d8891';
+  g.beginPath();
+  g.moveTo(left, Math.round(py(0)) + 0.5); g.lineTo(cssW - right, Math.round(py(0)) + 0.5);
+  g.moveTo(left + 0.5, top); g.lineTo(left + 0.5, cssH - bottom);
+  g.stroke();
+  g.textAlign = 'right';
+  g.textBaseline = 'bottom';
+  g.fillText(stems ? 'n' : 't', cssW - right, cssH - bottom - 2);
+  // the data
+  g.strokeStyle = '#1f5f8b';
+  g.fillStyle = '#1f5f8b';
+  g.lineWidth = stems ? 1.2 : 1.8;
+  if (stems) {
+    const r = Math.max(1.5, Math.min(3.5, (cssW - left - right) / x.length / 3));
+    x.forEach((n, i) => {
+      if (y[i] === null) return;
+      g.beginPath(); g.moveTo(px(n), py(0)); g.lineTo(px(n), py(y[i])); g.stroke();
+      g.beginPath(); g.arc(px(n), py(y[i]), r, 0, 2 * Math.PI); g.fill();
+    });
+  } else {
+    g.beginPath();
+    let pen = false;
+    x.forEach((t, i) => {
+      if (y[i] === null) { pen = false; return; }
+      if (pen) g.lineTo(px(t), py(y[i])); else g.moveTo(px(t), py(y[i]));
+      pen = true;
+    });
+    g.stroke();
+  }
+}

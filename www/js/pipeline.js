@@ -1,0 +1,175 @@
+// The search pipeline: after the function or the region changes, search the
+// region for singularities (off the main thread, cancellable by Stop), then fill
+// the table, the markers, the residue sums and the transfer-function reading;
+// then the contour integral three ways, the argument-principle count, the
+// inverse transform (when its section is open) and the partial fractions. Each
+// step checks that no newer search or Stop has come in the meantime. Also the
+// Laurent detail for a chosen point.
+import { el, debounce } from './dom.js';
+import { Engine, runHeavy, cancelHeavy, responseError } from './engine.js';
+import { functionInput } from './params.js';
+import { regionProblem } from './region.js';
+import {
+  itemsOf, stabilityReading, searchSingularities, showSums, fillTable, highlightRow, laurentRadius, requestLaurent, showDetail,
+} from './singularities.js';
+import { requestContourIntegral, requestArgumentCount, showContourIntegral, showArgumentCount, contourStatus } from './contour.js';
+import { inverseStatus, prepareInverse, runInverse, stopInverse } from './inverse.js';
+
+/** The pipeline over `page` (state, ui, plot, exprOk, found, searchSerial, readingOpenNext; see
+ *  main.js). Hooks: contour() (the region's contour now), describePlot() (after the markers change). */
+export function createPipeline(page, hooks) {
+  const { state, ui } = page;
+  const plot = () => page.plot;
+
+  const autoSearch = debounce(() => { if (state.autoFind) find(); }, 700);
+
+  /** The results no longer belong to the function: dim them and take the markers off the plot. */
+  function markStale() {
+    page.searchSerial++;
+    ui.singTable.classList.add('stale');
+    ui.find.disabled = false;
+    ui.cancel.disabled = true;
+    ui.findStatus.className = 'find-status';
+    ui.findStatus.textContent = state.autoFind ? 'The function changed; searching again when typing stops…' : 'The function changed: press “Find singularities” for new results.';
+    if (plot().markers.length) { plot().markers = []; plot().selected = -1; plot().draw(); }
+    ui.canvas.dataset.markers = '0';
+    ui.detail.box.hidden = true;
+    if (ui.ci.box.dataset.state !== 'none') contourStatus(ui.ci, 'The function changed: the contour integral is computed again with the next search.', 'stale');
+    if (!['none', 'closed'].includes(ui.inv.box.dataset.state)) inverseStatus(ui.inv, 'The function changed: the inverse transform is computed again with the next search.', 'stale');
+  }
+
+  /** The contour no longer matches the shown integral: say so until the next search. */
+  function regionMoved() {
+    const st = ui.ci.box.dataset.state;
+    if (st === 'done' || st === 'error') contourStatus(ui.ci, 'The region changed: the integral below is for the contour named above; search again to update it.', 'stale');
+  }
+
+  async function find() {
+    autoSearch.cancel();
+    if (!Engine.ready || !page.exprOk) {
+      ui.findStatus.textContent = page.exprOk ? 'The computing core is not ready.' : 'Fix the function first.';
+      return;
+    }
+    const contour = hooks.contour();
+    const problem = regionProblem(contour);
+    if (problem) { ui.findStatus.textContent = 'Region: ' + problem + '.'; return; }
+    const serial = ++page.searchSerial;
+    const base = functionInput(state);
+    ui.find.disabled = true;
+    ui.cancel.disabled = false;
+    ui.findStatus.textContent = 'Searching…';
+    ui.findStatus.className = 'find-status busy';
+    if (ui.ci.box.dataset.state !== 'none') contourStatus(ui.ci, 'Waiting for the search…', 'stale');
+    const resp = await searchSingularities(base, contour);
+    if (serial !== page.searchSerial) return;
+    ui.findStatus.className = 'find-status';
+    const err = responseError(resp);
+    if (err) {
+      ui.find.disabled = false;
+      ui.cancel.disabled = true;
+      ui.findStatus.textContent = err.code === 'cancelled' ? 'Search stopped.' : 'Search failed: ' + err.message;
+      contourStatus(ui.ci, 'Not computed: the search did not finish.', 'stale');
+      return;
+    }
+    ui.singTable.classList.remove('stale');
+    const size = contour.shape === 'circle' ? contour.radius
+      : Math.max(Math.abs(contour.corners[1][0] - contour.corners[0][0]), Math.abs(contour.corners[1][1] - contour.corners[0][1]));
+    const found = { items: itemsOf(resp, 1e-12 * size), base, contour };
+    page.found = found;
+    const n = found.items.length;
+    ui.findStatus.textContent = n ? `Found ${n} point${n === 1 ? '' : 's'} in the region` +
+      (resp.method === 'rational' ? ' (f is rational: exact analysis)' : resp.method === 'numerical' ? ' (numerical search)' : '') +
+      '. Choose a row or marker for its principal part.' : 'Search finished: nothing in the region.';
+    fillTable(ui.tbody, found.items, pick);
+    plot().markers = found.items;
+    plot().selected = -1;
+    plot().draw();
+    ui.canvas.dataset.markers = String(found.items.length);
+    hooks.describePlot();
+    ui.detail.box.hidden = true;
+    ui.warnings.textContent = '';
+    for (const w of Array.isArray(resp.warnings) ? resp.warnings : []) ui.warnings.append(el('li', { text: String(w) }));
+    showSums(ui, resp, found.items);
+    // A transfer-function reading, only for s or z, and said to be a reading.
+    const reading = stabilityReading(base.var, found.items, contour);
+    const wasVar = ui.stabilityBox.dataset.var;
+    ui.stabilityBox.hidden = !reading;
+    if (reading) {
+      ui.stabilityTitle.textContent = reading.title;
+      ui.stability.textContent = reading.text;
+      // Open by default for s; for z (also the default variable) it stays folded unless opened,
+      // except for an example that is a transfer function.
+      if (page.readingOpenNext !== null) ui.stabilityBox.open = page.readingOpenNext;
+      else if (wasVar !== base.var) ui.stabilityBox.open = base.var === 's';
+      page.readingOpenNext = null;
+      ui.stabilityBox.dataset.var = base.var;
+    }
+    prepareInverse(page, base);
+    // The contour integral three ways, then the argument-principle count (still cancellable by Stop).
+    contourStatus(ui.ci, 'Computing the contour integral three ways…', 'busy');
+    const ci = await requestContourIntegral(base, contour);
+    if (serial !== page.searchSerial) return;
+    showContourIntegral(ui.ci, base.var, contour, state.region.mode === 'view', ci);
+    const count = await requestArgumentCount(base, contour);
+    if (serial !== page.searchSerial) return;
+    showArgumentCount(ui.ci, count);
+    // Then the inverse transform (s or z), when its section is open; Stop still cancels it.
+    if (!ui.inv.box.hidden && ui.inv.box.open) {
+      await runInverse(page, base);
+      if (serial !== page.searchSerial) return;
+    }
+    ui.find.disabled = false;
+    ui.cancel.disabled = true;
+    // Partial fractions, shown only when f is rational (the task answers).
+    const pf = await runHeavy(Object.assign({}, base, { task: 'partial_fractions' }));
+    if (serial !== page.searchSerial) return;
+    const pfErr = responseError(pf);
+    ui.partial.hidden = Boolean(pfErr) || typeof pf.text !== 'string';
+    ui.pfWarnings.textContent = '';
+    if (!ui.partial.hidden) {
+      ui.partial.textContent = 'Partial fractions: ' + pf.text;
+      for (const w of Array.isArray(pf.warnings) ? pf.warnings : []) ui.pfWarnings.append(el('li', { text: 'Partial fractions: ' + String(w) }));
+    }
+  }
+
+  /** Stop pressed: whatever is computing is dropped and the heavy worker restarted. */
+  async function stop() {
+    page.searchSerial++;
+    ui.cancel.disabled = true;
+    ui.find.disabled = false;
+    ui.findStatus.className = 'find-status';
+    ui.findStatus.textContent = 'Search stopped.';
+    if (ui.ci.box.dataset.state === 'busy') contourStatus(ui.ci, 'Stopped before the contour integral finished.', 'stale');
+    stopInverse(page);
+    await cancelHeavy();
+  }
+
+  /** A row or marker chosen: its principal part and Laurent coefficients. */
+  async function pick(index) {
+    const found = page.found;
+    const item = found.items[index];
+    if (!item) return;
+    plot().selected = index;
+    plot().draw();
+    highlightRow(ui.tbody, index);
+    const c = found.contour;
+    const size = c.shape === 'circle' ? c.radius : Math.max(Math.abs(c.corners[1][0] - c.corners[0][0]), Math.abs(c.corners[1][1] - c.corners[0][1])) / 2;
+    const annulus = laurentRadius(item, found.items, Math.max(size / 2, 1e-6));
+    ui.detail.box.hidden = false;
+    ui.detail.note.textContent = 'Computing the Laurent series…';
+    ui.detail.math.textContent = '';
+    ui.detail.body.textContent = '';
+    ui.detail.warnings.textContent = '';
+    const resp = await requestLaurent(found.base, item, annulus.radius);
+    if (plot().selected !== index) return;
+    showDetail(ui.detail, found.base.var, item, resp, annulus);
+    const r = ui.detail.box.getBoundingClientRect();
+    if (r.top > window.innerHeight || r.bottom < 0) ui.detail.box.scrollIntoView({ block: 'nearest' });
+  }
+
+  return {
+    find, stop, pick, markStale, regionMoved,
+    /** Search after a pause, when automatic search is on. */
+    autoSearchSoon() { if (state.autoFind) autoSearch(); },
+  };
+}

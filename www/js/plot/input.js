@@ -1,0 +1,100 @@
+// Pointer, wheel and keyboard input on the plot: drag to pan, pinch or wheel to
+// zoom about the pointer, arrow keys and + − 0 from the keyboard; a click that
+// did not move picks the nearest marker; the pointer's plane point goes to the readout.
+import { insidePlot, toPlane } from './view.js';
+import { markerAt } from './overlays.js';
+
+/** Listen on `plot.canvas`. `viewChanged()` after every pan; `hooks.onPointer(point | null)`,
+ *  `hooks.onMarkerClick(index)`. Zooming goes through plot.zoom and plot.reset. */
+export function attachInput(plot, viewChanged, hooks) {
+  const canvas = plot.canvas;
+  const pointers = new Map();
+  let dragStart = null, pinchStart = null, moved = false;
+
+  function localPos(event) {
+    const r = canvas.getBoundingClientRect();
+    return [event.clientX - r.left, event.clientY - r.top];
+  }
+
+  canvas.addEventListener('pointerdown', (event) => {
+    const pos = localPos(event);
+    if (!insidePlot(plot, pos) && pointers.size === 0) return;
+    canvas.setPointerCapture(event.pointerId);
+    pointers.set(event.pointerId, pos);
+    moved = false;
+    if (pointers.size === 1) dragStart = { pos, cx: plot.cx, cy: plot.cy };
+    if (pointers.size === 2) {
+      const [a, b] = [...pointers.values()];
+      pinchStart = { dist: Math.hypot(a[0] - b[0], a[1] - b[1]), scale: plot.scale };
+    }
+  });
+
+  canvas.addEventListener('pointermove', (event) => {
+    const pos = localPos(event);
+    if (pointers.has(event.pointerId)) {
+      pointers.set(event.pointerId, pos);
+      if (pointers.size === 2 && pinchStart) {
+        const [a, b] = [...pointers.values()];
+        const d = Math.hypot(a[0] - b[0], a[1] - b[1]);
+        if (d > 4) {
+          const mid = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
+          plot.zoom((pinchStart.scale * pinchStart.dist / d) / plot.scale, mid);
+          moved = true;
+        }
+      } else if (dragStart) {
+        const dx = pos[0] - dragStart.pos[0], dy = pos[1] - dragStart.pos[1];
+        if (Math.abs(dx) + Math.abs(dy) > 3) moved = true;
+        if (moved) {
+          plot.cx = dragStart.cx - dx * plot.scale;
+          plot.cy = dragStart.cy + dy * plot.scale;
+          viewChanged();
+        }
+      }
+    }
+    hooks.onPointer && hooks.onPointer(insidePlot(plot, pos) ? toPlane(plot, pos[0], pos[1]) : null);
+  });
+
+  function endPointer(event) {
+    if (!pointers.has(event.pointerId)) return;
+    const pos = pointers.get(event.pointerId);
+    pointers.delete(event.pointerId);
+    if (pointers.size < 2) pinchStart = null;
+    if (pointers.size === 1) {
+      const [p] = [...pointers.values()];
+      dragStart = { pos: p, cx: plot.cx, cy: plot.cy };
+    }
+    if (pointers.size === 0) {
+      dragStart = null;
+      if (!moved && event.type === 'pointerup') {
+        const best = markerAt(plot, pos);
+        if (best >= 0 && hooks.onMarkerClick) hooks.onMarkerClick(best);
+      }
+    }
+  }
+  canvas.addEventListener('pointerup', endPointer);
+  canvas.addEventListener('pointercancel', endPointer);
+  canvas.addEventListener('pointerleave', () => { if (pointers.size === 0) hooks.onPointer && hooks.onPointer(null); });
+
+  canvas.addEventListener('wheel', (event) => {
+    const pos = localPos(event);
+    if (!insidePlot(plot, pos)) return;
+    event.preventDefault();
+    const unit = event.deltaMode === 1 ? 33 : event.deltaMode === 2 ? 400 : 1;
+    const dy = Math.max(-300, Math.min(300, event.deltaY * unit));
+    plot.zoom(Math.pow(1.0015, dy), pos);
+  }, { passive: false });
+
+  canvas.addEventListener('keydown', (event) => {
+    const k = event.key;
+    const pan = 40 * plot.scale;
+    if (k === '+' || k === '=') plot.zoom(1 / 1.25);
+    else if (k === '-' || k === '_') plot.zoom(1.25);
+    else if (k === 'ArrowLeft') { plot.cx -= pan; viewChanged(); }
+    else if (k === 'ArrowRight') { plot.cx += pan; viewChanged(); }
+    else if (k === 'ArrowUp') { plot.cy += pan; viewChanged(); }
+    else if (k === 'ArrowDown') { plot.cy -= pan; viewChanged(); }
+    else if (k === '0') plot.reset();
+    else return;
+    event.preventDefault();
+  });
+}

@@ -1,0 +1,137 @@
+// What the plot draws over the picture: the unit circle of the z-plane, the
+// region's outline with its direction, the singularity markers, and a message.
+import { cInv } from '../complex.js';
+import { drawMarker } from '../markers.js';
+import { MARGIN, toScreen } from './view.js';
+
+/** A faint dotted unit circle in the z-plane (where |z| = 1 matters for discrete time). */
+export function drawUnitCircle(plot) {
+  if (!plot.unitCircle) return;
+  const ctx = plot.ctx;
+  const [sx, sy] = toScreen(plot, 0, 0);
+  ctx.save();
+  ctx.setLineDash([2, 4]);
+  ctx.lineWidth = 1;
+  ctx.strokeStyle = 'rgba(0,0,0,0.45)';
+  ctx.beginPath();
+  ctx.arc(sx, sy, 1 / plot.scale, 0, 2 * Math.PI);
+  ctx.stroke();
+  ctx.restore();
+}
+
+/** The region's boundary: the contour of the contour integral, a thin outline with small
+ *  arrowheads showing its counter-clockwise direction (dark with a light edge, so it reads on any colour). */
+export function drawRegion(plot) {
+  const r = plot.region;
+  if (!r || plot.infinityMode) return;
+  const ctx = plot.ctx;
+  const arrows = []; // [x, y, dx, dy] on the screen: a point on the outline and the direction of travel
+  ctx.save();
+  ctx.beginPath();
+  if (r.shape === 'rectangle') {
+    const [[ax, ay], [bx, by]] = r.corners;
+    const [sx0, sy0] = toScreen(plot, Math.min(ax, bx), Math.max(ay, by)); // top left
+    const [sx1, sy1] = toScreen(plot, Math.max(ax, bx), Math.min(ay, by)); // bottom right
+    ctx.rect(sx0, sy0, sx1 - sx0, sy1 - sy0);
+    const mx = (sx0 + sx1) / 2, my = (sy0 + sy1) / 2;
+    // Counter-clockwise in the plane: along the bottom to the right, up the right side, ...
+    arrows.push([mx, sy1, 1, 0], [sx1, my, 0, -1], [mx, sy0, -1, 0], [sx0, my, 0, 1]);
+  } else if (r.shape === 'circle') {
+    const [sx, sy] = toScreen(plot, r.center[0], r.center[1]);
+    const rad = r.radius / plot.scale;
+    ctx.arc(sx, sy, rad, 0, 2 * Math.PI);
+    for (const t of [Math.PI / 4, (3 * Math.PI) / 4, (5 * Math.PI) / 4, (7 * Math.PI) / 4]) {
+      // the point at angle t in the plane, and the tangent (−sin t, cos t), with y flipped
+      arrows.push([sx + rad * Math.cos(t), sy - rad * Math.sin(t), -Math.sin(t), -Math.cos(t)]);
+    }
+  }
+  ctx.lineWidth = 3;
+  ctx.strokeStyle = 'rgba(255,255,255,0.75)';
+  ctx.stroke();
+  ctx.lineWidth = 1.25;
+  ctx.strokeStyle = 'rgba(15,15,15,0.9)';
+  ctx.stroke();
+  const size = 6;
+  for (const [x, y, dx, dy] of arrows) {
+    ctx.beginPath();
+    ctx.moveTo(x + dx * size, y + dy * size);
+    ctx.lineTo(x - dx * size - dy * size * 0.75, y - dy * size + dx * size * 0.75);
+    ctx.lineTo(x - dx * size + dy * size * 0.75, y - dy * size - dx * size * 0.75);
+    ctx.closePath();
+    ctx.fillStyle = 'rgba(15,15,15,0.9)';
+    ctx.lineWidth = 1.5;
+    ctx.strokeStyle = 'rgba(255,255,255,0.85)';
+    ctx.stroke();
+    ctx.fill();
+  }
+  ctx.restore();
+}
+
+/** Where marker `m` sits on the canvas, or null (the origin has no image in the view around infinity). */
+function markerScreenPoint(plot, m) {
+  let p = m.at;
+  if (plot.infinityMode) {
+    if (p[0] === 0 && p[1] === 0) return null;
+    p = cInv(p);
+  }
+  return toScreen(plot, p[0], p[1]);
+}
+
+/** Every marker in (or just outside) the view, the chosen one ringed, orders above 1 written beside. */
+export function drawMarkers(plot) {
+  const ctx = plot.ctx;
+  plot.markers.forEach((m, i) => {
+    const at = markerScreenPoint(plot, m);
+    if (!at) return;
+    const [x, y] = at;
+    if (x < MARGIN.left - 10 || x > MARGIN.left + plot.pw + 10 || y < MARGIN.top - 10 || y > MARGIN.top + plot.ph + 10) return;
+    drawMarker(ctx, m.kind, x, y, i === plot.selected);
+    if (m.order > 1) {
+      ctx.font = 'bold 12px system-ui, sans-serif';
+      ctx.lineWidth = 3;
+      ctx.strokeStyle = 'rgba(255,255,255,0.9)';
+      ctx.fillStyle = '#111';
+      ctx.strokeText(String(m.order), x + 8, y - 7);
+      ctx.fillText(String(m.order), x + 8, y - 7);
+    }
+  });
+}
+
+/** The index of the marker nearest the CSS pixel `pos` within 14 pixels, or −1. */
+export function markerAt(plot, pos) {
+  let best = -1, bestD = 14;
+  plot.markers.forEach((m, i) => {
+    const at = markerScreenPoint(plot, m);
+    if (!at) return;
+    const d = Math.hypot(at[0] - pos[0], at[1] - pos[1]);
+    if (d < bestD) { bestD = d; best = i; }
+  });
+  return best;
+}
+
+/** `plot.message`, if any, in a light band across the middle of the picture. */
+export function drawMessage(plot) {
+  if (!plot.message) return;
+  const ctx = plot.ctx;
+  ctx.fillStyle = 'rgba(255,255,255,0.88)';
+  ctx.fillRect(MARGIN.left, MARGIN.top + plot.ph / 2 - 30, plot.pw, 60);
+  ctx.fillStyle = '#333';
+  ctx.font = '14px system-ui, sans-serif';
+  ctx.textAlign = 'center';
+  ctx.textBaseline = 'middle';
+  wrapText(ctx, plot.message, MARGIN.left + plot.pw / 2, MARGIN.top + plot.ph / 2, plot.pw - 24, 18);
+}
+
+/** Centered text wrapped to `width`, for messages over the plot. */
+function wrapText(ctx, text, x, y, width, lineHeight) {
+  const words = String(text).split(/\s+/);
+  const lines = [];
+  let line = '';
+  for (const w of words) {
+    const t = line ? line + ' ' + w : w;
+    if (ctx.measureText(t).width > width && line) { lines.push(line); line = w; } else line = t;
+  }
+  if (line) lines.push(line);
+  const shown = lines.slice(0, 3);
+  shown.forEach((l, i) => ctx.fillText(l, x, y + (i - (shown.length - 1) / 2) * lineHeight));
+}
