@@ -1,6 +1,6 @@
 //! The one doorway: `run(Request) -> Result<Response, ApiError>`.
 //!
-//! The JSON contract is public and documented in README.md. Complex numbers
+//! The JSON contract is public and documented in docs/contract.md. Complex numbers
 //! are `[re, im]`. Fields may be added later; none may change meaning.
 
 use crate::contour::Contour;
