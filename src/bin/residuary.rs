@@ -33,8 +33,8 @@ EXAMPLES
   residuary plot --f 'wn^2/(s^2+2*zeta*wn*s+wn^2)' --var s --param wn=2 --param zeta=0.3 \\
       --view -4,2,-3,3 --size 600x600 --modulus-lines -o lowpass.png
 
-The JSON requests and responses are described in README.md. Errors come back as
-{\"error\":{\"message\":...,\"span\":[start,end]|null}} with exit status 2.
+The JSON requests and responses are described in docs/contract.md. Errors come back as
+{\"error\":{\"code\":...,\"message\":...,\"span\":[start,end]|null}} with exit status 2.
 ";
 
 fn fail(message: &str) -> ! {
