@@ -16,7 +16,9 @@ pub mod quad;
 pub mod series;
 pub mod singular;
 pub mod special;
+pub mod text;
 pub mod transforms;
+pub mod ways;
 
 #[cfg(target_arch = "wasm32")]
 pub mod wasm;

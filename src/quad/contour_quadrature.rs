@@ -6,26 +6,11 @@
 //! values and their error estimates are summed.
 
 use super::{gauss_kronrod, trapezoid_periodic, QuadError, QuadResult, Tolerance};
+use crate::text;
 use crate::error::Failure;
 use crate::budget::Budget;
 use crate::contour::{Contour, Piece};
 use crate::C;
-
-/// Format a complex number briefly for messages.
-fn show(z: C) -> String {
-    let sign = if z.im < 0.0 { '−' } else { '+' };
-    format!("{} {} {}i", short(z.re), sign, short(z.im.abs()))
-}
-
-fn short(x: f64) -> String {
-    let s = format!("{:.6}", x);
-    let s = s.trim_end_matches('0').trim_end_matches('.');
-    if s == "-0" {
-        "0".into()
-    } else {
-        s.to_string()
-    }
-}
 
 /// ∮_contour f(z) dz with an error estimate (sum of the pieces' estimates).
 ///
@@ -65,7 +50,7 @@ pub fn on_piece_error(piece: &Piece, e: QuadError) -> Failure {
     match e {
         QuadError::NotFinite { at } => Failure::on_contour(format!(
             "f is not finite at {} on the contour: a singularity lies on it; move the contour",
-            show(piece.point(at))
+            text::place(piece.point(at))
         ))
         .at(piece.point(at)),
         e => e.into(),

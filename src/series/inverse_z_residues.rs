@@ -18,7 +18,8 @@
 //! rounding (8 + 4m)ε|c| C |a|^m, m = n − k, with δa, δc the error estimates of
 //! the pole location and principal-part coefficient.
 
-use crate::singular::rational_poles::{format_real, RationalAnalysis};
+use crate::singular::rational_poles::RationalAnalysis;
+use crate::text;
 use crate::error::Failure;
 use crate::C;
 
@@ -195,7 +196,7 @@ impl ResidueForm {
                     used[j] = true;
                     let cos: Vec<f64> = q.iter().map(|b| 2.0 * b.re).collect();
                     let sin: Vec<f64> = q.iter().map(|b| -2.0 * b.im).collect();
-                    let theta = format_real(a.arg().abs());
+                    let theta = text::real(a.arg().abs());
                     let mut parts = Vec::new();
                     let s = if a.arg() < 0.0 { -1.0 } else { 1.0 };
                     if let Some(p) = poly_text(&cos, tol) {
@@ -218,7 +219,7 @@ impl ResidueForm {
                     if (r - 1.0).abs() <= 1e-14 {
                         terms.push(body);
                     } else {
-                        let r = format_real(r);
+                        let r = text::real(r);
                         terms.push(match body.strip_prefix('-') {
                             Some(rest) => format!("-{r}^n*{rest}"),
                             None => format!("{r}^n*{body}"),
@@ -283,19 +284,19 @@ fn polynomial_in_n(pole: &PoleTerm) -> Vec<C> {
 /// "0.5", "(-0.5)".
 fn base_text(x: f64) -> String {
     if x < 0.0 {
-        format!("({})", format_real(x))
+        format!("({})", text::real(x))
     } else {
-        format_real(x)
+        text::real(x)
     }
 }
 
 fn complex_text(z: C) -> String {
-    crate::singular::rational_poles::format_complex(z, 0.0)
+    crate::text::complex(z, 0.0)
 }
 
 fn number_text(z: C, real: bool) -> String {
     if real || z.im == 0.0 {
-        format_real(z.re)
+        text::real(z.re)
     } else {
         format!("({})", complex_text(z))
     }
@@ -317,9 +318,9 @@ fn poly_text(coeffs: &[f64], tol: f64) -> Option<String> {
         .enumerate()
         .filter(|(_, c)| c.abs() > tol)
         .map(|(d, &c)| match d {
-            0 => format_real(c),
-            1 => times(&format_real(c), "n"),
-            _ => times(&format_real(c), &format!("n^{d}")),
+            0 => text::real(c),
+            1 => times(&text::real(c), "n"),
+            _ => times(&text::real(c), &format!("n^{d}")),
         })
         .collect();
     match parts.len() {

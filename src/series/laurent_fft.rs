@@ -25,6 +25,7 @@
 //! |z| = ρ is sampling g on |w| = 1/ρ, so the same circles serve both.
 
 use crate::budget::Budget;
+use crate::text;
 use crate::error::Failure;
 use crate::C;
 use rustfft::FftPlanner;
@@ -316,7 +317,7 @@ fn combine(
                     let ring = ring_text(req.center, center);
                     return Err(Failure::unresolved(format!(
                         "the coefficient c_{n} computed on {ring} = {} and on {ring} = {} disagree ({} vs {}): f probably has a singularity (or branch cut) with {} < {ring} < {} inside the requested annulus, so it has no single Laurent series there; narrow the annulus to avoid it",
-                        short(lo), short(hi), show(a.values[i]), show(b.values[i]), short(lo), short(hi)
+                        text::place_real(lo), text::place_real(hi), text::place(a.values[i]), text::place(b.values[i]), text::place_real(lo), text::place_real(hi)
                     )));
                 }
             }
@@ -418,13 +419,13 @@ fn check_singularities(
     if req.center == Center::Infinity {
         return Err(Failure::invalid(format!(
             "the region {ring} > {} around infinity contains a singularity at {}{more}; choose r1 > {}",
-            short(inner), show(first), round_up(d_max)
+            text::place_real(inner), text::place(first), round_up(d_max)
         )));
     }
     let region = if outer.is_finite() {
-        format!("{} < {ring} < {}", short(inner), short(outer))
+        format!("{} < {ring} < {}", text::place_real(inner), text::place_real(outer))
     } else {
-        format!("{ring} > {}", short(inner))
+        format!("{ring} > {}", text::place_real(inner))
     };
     let mut advice = format!("choose r2 < {}", round_down(d_min));
     if d_max < outer {
@@ -432,16 +433,16 @@ fn check_singularities(
     }
     Err(Failure::invalid(format!(
         "the annulus {region} contains a singularity at {}{more}; {advice}",
-        show(first)
+        text::place(first)
     )))
 }
 
 fn not_finite_message(z: C, center: C, rho: f64) -> String {
     format!(
         "f is not finite at {} on the sampling circle |z − ({})| = {}; the annulus seems to contain a singularity; narrow the annulus to avoid it",
-        show(z),
-        show(center),
-        short(rho)
+        text::place(z),
+        text::place(center),
+        text::place_real(rho)
     )
 }
 
@@ -451,35 +452,12 @@ fn ring_text(center: Center, a: C) -> String {
         "|z|".into()
     } else if a.im == 0.0 {
         if a.re > 0.0 {
-            format!("|z − {}|", short(a.re))
+            format!("|z − {}|", text::place_real(a.re))
         } else {
-            format!("|z + {}|", short(-a.re))
+            format!("|z + {}|", text::place_real(-a.re))
         }
     } else {
-        format!("|z − ({})|", show(a))
-    }
-}
-
-/// A complex number for messages: "2 + 0i", "1.5 − 0.25i".
-fn show(z: C) -> String {
-    let sign = if z.im < 0.0 { '−' } else { '+' };
-    format!("{} {} {}i", short(z.re), sign, short(z.im.abs()))
-}
-
-/// A number for messages: 6 decimals at most, trailing zeros dropped.
-fn short(x: f64) -> String {
-    if x.is_infinite() {
-        return "∞".into();
-    }
-    if x != 0.0 && (x.abs() < 1e-4 || x.abs() >= 1e9) {
-        return format!("{x:.6e}");
-    }
-    let s = format!("{x:.6}");
-    let s = s.trim_end_matches('0').trim_end_matches('.');
-    if s == "-0" {
-        "0".into()
-    } else {
-        s.to_string()
+        format!("|z − ({})|", text::place(a))
     }
 }
 

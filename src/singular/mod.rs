@@ -120,22 +120,4 @@ pub(crate) fn is_finite(z: C) -> bool {
     z.re.is_finite() && z.im.is_finite()
 }
 
-/// Short display of a complex number for messages.
-pub(crate) fn show(z: C) -> String {
-    let fmt = |x: f64| {
-        let s = format!("{:.6}", x);
-        let s = s.trim_end_matches('0').trim_end_matches('.').to_string();
-        if s == "-0" {
-            "0".to_string()
-        } else {
-            s
-        }
-    };
-    if z.im == 0.0 {
-        fmt(z.re)
-    } else if z.im < 0.0 {
-        format!("{}-{}i", fmt(z.re), fmt(-z.im))
-    } else {
-        format!("{}+{}i", fmt(z.re), fmt(z.im))
-    }
-}
+pub(crate) use crate::text::place as show;

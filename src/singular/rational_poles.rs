@@ -13,6 +13,7 @@
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
 use crate::poly::multiplicity::{distinct_roots, RootCluster};
+use crate::text;
 use crate::error::Failure;
 use crate::poly::partial_fractions::local_expansion;
 use crate::poly::{divrem, trim, UNIT_ROUNDOFF, ZERO_C};
@@ -81,7 +82,7 @@ fn check_finite(p: &[C], what: &str) -> Result<(), Failure> {
 }
 
 fn describe(z: C) -> String {
-    format_complex(z, 0.0)
+    text::complex(z, 0.0)
 }
 
 fn cluster_warning(c: &RootCluster, what: &str) -> Option<String> {
@@ -493,35 +494,6 @@ fn residue_at_point_with(num: &[C], den: &[C], a: C, as_typed: Option<AsTyped>) 
     Ok(out)
 }
 
-/// Compact decimal text of a real number (12 significant digits, no trailing zeros).
-pub fn format_real(x: f64) -> String {
-    if !x.is_finite() {
-        return format!("{x}");
-    }
-    let r: f64 = format!("{x:.11e}").parse().unwrap_or(x);
-    if r == 0.0 {
-        "0".into()
-    } else if (1e-5..1e15).contains(&r.abs()) {
-        format!("{r}")
-    } else {
-        format!("{r:e}")
-    }
-}
-
-/// Text of a complex number; parts with magnitude ≤ `err` are dropped.
-pub fn format_complex(z: C, err: f64) -> String {
-    let re = if z.re.abs() <= err { 0.0 } else { z.re };
-    let im = if z.im.abs() <= err { 0.0 } else { z.im };
-    match (re == 0.0, im == 0.0) {
-        (_, true) => format_real(re),
-        (true, false) => format!("{}i", format_real(im)),
-        (false, false) => {
-            let sign = if im < 0.0 { "-" } else { "+" };
-            format!("{} {sign} {}i", format_real(re), format_real(im.abs()))
-        }
-    }
-}
-
 /// Sign and magnitude text of a coefficient: (" + ", "2") or (" - ", "(0.25 + 1i)").
 fn signed_coefficient(z: C, err: f64) -> (bool, String, bool) {
     let re = if z.re.abs() <= err { 0.0 } else { z.re };
@@ -532,7 +504,7 @@ fn signed_coefficient(z: C, err: f64) -> (bool, String, bool) {
     } else {
         C::new(re, im)
     };
-    let text = format_complex(w, 0.0);
+    let text = text::complex(w, 0.0);
     let compound = re != 0.0 && im != 0.0;
     (
         negative,

@@ -10,7 +10,8 @@
 //! The closed form combines conjugate pole pairs of a real F into damped
 //! sinusoids e^{αt}(A(t) cos βt + B(t) sin βt).
 
-use crate::singular::rational_poles::{format_complex, format_real, PoleInfo, RationalAnalysis};
+use crate::singular::rational_poles::{PoleInfo, RationalAnalysis};
+use crate::text;
 use crate::C;
 
 /// f(t) for t > 0 with an error estimate (coefficient and location errors
@@ -144,7 +145,7 @@ fn t_polynomial(p: &PoleInfo, part: impl Fn(C) -> f64) -> Vec<f64> {
 }
 
 fn signed_real(x: f64) -> (bool, String) {
-    (x < 0.0, format_real(x.abs()))
+    (x < 0.0, text::real(x.abs()))
 }
 
 fn signed_complex(z: C) -> (bool, String) {
@@ -152,9 +153,9 @@ fn signed_complex(z: C) -> (bool, String) {
         return signed_real(z.re);
     }
     if z.re == 0.0 {
-        return (z.im < 0.0, format!("{}i", format_real(z.im.abs())));
+        return (z.im < 0.0, format!("{}i", text::real(z.im.abs())));
     }
-    (false, format!("({})", format_complex(z, 0.0)))
+    (false, format!("({})", text::complex(z, 0.0)))
 }
 
 /// `a*b`, dropping a factor "1" (and an empty factor).
@@ -169,7 +170,7 @@ fn product(a: &str, b: &str) -> String {
 
 /// `exp(a*t)` text; empty for a = 0.
 fn exp_text(a: f64) -> String {
-    match format_real(a).as_str() {
+    match text::real(a).as_str() {
         "0" => String::new(),
         "1" => "exp(t)".into(),
         "-1" => "exp(-t)".into(),
@@ -217,7 +218,7 @@ fn real_pole_term(alpha: f64, tol: f64, coeffs: &[f64]) -> Option<(bool, String)
 
 fn pair_term(at: C, tol: f64, cos_part: &[f64], sin_part: &[f64]) -> Vec<(bool, String)> {
     let alpha = if at.re.abs() <= tol { 0.0 } else { at.re };
-    let beta = format_real(at.im.abs());
+    let beta = text::real(at.im.abs());
     let damping = exp_text(alpha);
     let argument = if beta == "1" {
         "t".to_string()
@@ -257,7 +258,7 @@ fn complex_pole_terms(p: &PoleInfo, tol: f64) -> Vec<(bool, String)> {
     } else if a.im == 0.0 {
         exp_text(a.re)
     } else {
-        format!("exp(({})*t)", format_complex(a, 0.0))
+        format!("exp(({})*t)", text::complex(a, 0.0))
     };
     let mut factorial = 1.0;
     let mut out = Vec::new();

@@ -11,7 +11,7 @@
 //! `singular::find_singularities`, reported only when their weighted sum
 //! reconciles with the argument-principle count.
 
-use crate::api::tasks::contour_integral::{covering_regions, search_cover, show};
+use crate::api::tasks::contour_integral::{covering_regions, search_cover};
 use crate::api::input::{budget, checked_contour, compile};
 use crate::api::wire::{pair, ContourRequest};
 use crate::contour::Contour;
@@ -138,7 +138,7 @@ fn rational_points(
             None => {
                 warnings.push(format!(
                     "a {kind} at {} lies on the contour; move the contour",
-                    show(at)
+                    crate::text::value(at)
                 ));
                 return Ok(None);
             }
@@ -182,7 +182,7 @@ fn general_points(
     {
         warnings.push(format!(
             "an essential singularity or branch point lies inside at {}: zeros and poles are not counted separately there, and the argument-principle count is only the winding of f around 0",
-            show(*z)
+            crate::text::value(*z)
         ));
         return None;
     }

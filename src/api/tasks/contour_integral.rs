@@ -24,6 +24,7 @@
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
 use crate::api::input::{budget, checked_contour, compile, hints};
+use crate::text;
 use crate::api::wire::{pair, ContourRequest};
 use crate::budget::Budget;
 use crate::contour::Contour;
@@ -33,7 +34,7 @@ use crate::quad::contour_quadrature::{contour_integral, on_piece_error};
 use crate::quad::Tolerance;
 use crate::quad::{gauss_kronrod, QuadResult};
 use crate::singular::cut_crossing::{cut_crossings, Crossing};
-use crate::singular::rational_poles::{analyse_rational_polished, format_complex};
+use crate::singular::rational_poles::analyse_rational_polished;
 use crate::singular::{classify_point, find_singularities, Kind, RegionResult};
 use crate::error::Failure;
 use crate::C;
@@ -301,30 +302,25 @@ fn check_on_and_near(
             if p.kind == Kind::BranchPoint {
                 warnings.push(format!(
                     "f has a branch point at {} on the contour; the integral exists only if f is integrable there",
-                    show(p.at)
+                    text::value(p.at)
                 ));
                 continue;
             }
             return Err(ApiError::new(ErrorCode::OnContour, format!(
                 "f has {what} at {} on the contour; move the contour",
-                show(p.at)
+                text::value(p.at)
             )));
         }
         let d = contour.distance_to_boundary(p.at);
         if d < NEAR_FRACTION * size {
             warnings.push(format!(
                 "{what} at {} lies only {d:.1e} from the contour ({:.1e} of its size): the quadrature converges slowly and a small change of the contour would change which side it is on",
-                show(p.at),
+                text::value(p.at),
                 d / size
             ));
         }
     }
     Ok(())
-}
-
-/// A point for messages, tiny rounding-level parts dropped.
-pub(crate) fn show(z: C) -> String {
-    format_complex(z, 1e-12 * (1.0 + z.norm()))
 }
 
 /// ∮ f dz with every piece split where f jumps, each part by adaptive
@@ -565,7 +561,7 @@ fn general_ways(
     if hints.uses_branch_functions {
         match cut_crossings(&eval, contour, budget) {
             Ok(x) if !x.is_empty() => {
-                let at: Vec<String> = x.iter().take(4).map(|c| show(c.at)).collect();
+                let at: Vec<String> = x.iter().take(4).map(|c| text::value(c.at)).collect();
                 crossings = x;
                 blocked = Some(format!(
                     "f jumps across a branch cut where the cut crosses the contour (near {}): f is not analytic inside, so the residue theorem does not apply; the quadrature integrates the principal branch as written",
@@ -621,7 +617,7 @@ fn general_ways(
         if residue.is_none() && matches!(winding, Some(w) if w != 0) {
             blocked.get_or_insert(format!(
                 "the residue of the essential singularity at {} could not be computed, so the inside-residue sum is not available",
-                show(z)
+                text::value(z)
             ));
         }
         points.push(Singular {
@@ -637,7 +633,7 @@ fn general_ways(
         if matches!(winding, Some(w) if w != 0) {
             blocked.get_or_insert(format!(
                 "a branch point of f lies inside the contour at {}: f is not single-valued there, so the residue theorem does not apply",
-                show(z)
+                text::value(z)
             ));
         }
         points.push(Singular {

@@ -16,10 +16,11 @@
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
 use crate::api::input::{budget, compile_text, hints};
+use crate::text;
 use crate::api::wire::{FunctionInput, Number};
 use crate::api::error::{ApiError, ErrorCode};
 use crate::expr::Function;
-use crate::singular::rational_poles::{analyse_rational_polished, format_real};
+use crate::singular::rational_poles::analyse_rational_polished;
 use crate::transforms::delay_estimate::{estimate_delay, left_growth_rate};
 use crate::transforms::fixed_talbot::{invert, plan, TalbotError, TalbotValue, NODES};
 use crate::transforms::laplace_residues::{closed_form, has_real_coefficients, residue_sum};
@@ -135,14 +136,14 @@ fn validate_times(t: &[f64]) -> Result<Vec<f64>, ApiError> {
             return Err(ApiError::invalid(format!(
                 "t[{i}] = {} is beyond {MAX_TIME:e}: at such times no digit of f survives in double precision; \
                  rescale time (e.g. work in ms or s)",
-                format_real(x)
+                text::real(x)
             )));
         }
         if x <= 0.0 {
             return Err(ApiError::invalid(format!(
                 "t[{i}] = {} is not positive; f at t = 0 is the limit from the right and f = 0 for t < 0 \
                  (causal): pass t > 0",
-                format_real(x)
+                text::real(x)
             )));
         }
     }
@@ -213,15 +214,15 @@ fn rational(
             "the residue sum and the contour inversion disagree beyond their error estimates at {} of the times \
              (worst {} at t = {}); the error estimates include the disagreement",
             disagreements.len(),
-            format_real(d),
-            format_real(t)
+            text::real(d),
+            text::real(t)
         ));
     }
     if let Some(&t) = contour_failures.first() {
         warnings.push(format!(
             "the contour inversion overflowed at {} of the times (first t = {}); only the residue sum is given there",
             contour_failures.len(),
-            format_real(t)
+            text::real(t)
         ));
     }
     let f_imag = imaginary_parts(&residue_values, &error_estimates, &mut warnings);
@@ -296,7 +297,7 @@ fn general(
     let delay = estimate_delay(&mut with_derivative);
     budget.spend(6).map_err(budget_error)?;
     if let Some(tau) = delay {
-        let magnitude = match format_real(tau.abs()).as_str() {
+        let magnitude = match text::real(tau.abs()).as_str() {
             "1" => String::new(),
             text => format!("{text}*"),
         };
@@ -313,7 +314,7 @@ fn general(
         warnings.push(format!(
             "F contains {kind} {factor}: f jumps or bends at t = {}; f is computed as g(t − τ) with \
              g = L⁻¹[F·e^(τs)], and f = 0 for t < τ; values within a few error estimates of the jump are unreliable",
-            format_real(tau)
+            text::real(tau)
         ));
     }
     let mut plain = |s: C| f.eval(s);
@@ -331,8 +332,8 @@ fn general(
             "F grows like e^({}·|s|) to the left: it contains delays up to about τ ≈ {} (e.g. 1 − e^(-s)), so f may \
              jump at each delay; the contour inversion is meaningless for t below about 1.2·τ, and there the \
              error estimates are set to at least the largest |f|",
-            format_real(kappa),
-            format_real(kappa)
+            text::real(kappa),
+            text::real(kappa)
         ));
     }
     let mut values = Vec::with_capacity(times.len());
@@ -378,8 +379,8 @@ fn general(
                     "F is not finite at s = {} on the inversion contour for t = {}: F has a singularity there that \
                      the expression analysis did not locate, or overflows; the contour inversion needs every \
                      singularity of F to the left of the contour",
-                    crate::singular::rational_poles::format_complex(at, 0.0),
-                    format_real(t)
+                    crate::text::complex(at, 0.0),
+                    text::real(t)
                 )))
             }
         };
@@ -410,7 +411,7 @@ fn general(
             "the contour inversion is not accurate at {} of the times (first t = {}): the two rules disagree; {hint}. \
              The error estimates show by how much",
             unreliable.len(),
-            format_real(t)
+            text::real(t)
         ));
     }
     if let Some(&t) = fallbacks.first() {
@@ -418,7 +419,7 @@ fn general(
             "at {} of the times just after the delay (first t = {}), F·e^(τs) could not be evaluated on the contour \
              and F was inverted directly; these values are unreliable (error estimate at least max(|f|, 1))",
             fallbacks.len(),
-            format_real(t)
+            text::real(t)
         ));
     }
     let f_imag = imaginary_parts(&values, &errors, &mut warnings);

@@ -18,6 +18,7 @@
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
 use crate::api::input::{budget, compile_text};
+use crate::text;
 use crate::api::wire::{FunctionInput, Number};
 use crate::contour::Contour;
 use crate::api::error::{ApiError, ErrorCode};
@@ -26,7 +27,7 @@ use crate::series::inverse_z_long_division::{causal_sequence, deflate};
 use crate::series::inverse_z_residues::ResidueForm;
 use crate::series::inverse_z_trapezoid::{inverse_z_trapezoid, ContourResult};
 use crate::singular::find_singularities;
-use crate::singular::rational_poles::{analyse_rational_polished, format_real};
+use crate::singular::rational_poles::analyse_rational_polished;
 use crate::C;
 use serde::{Deserialize, Serialize};
 use std::collections::BTreeMap;
@@ -123,7 +124,7 @@ pub fn run(req: &InverseZRequest) -> Result<InverseZResponse, ApiError> {
     if r0 > 1.0 + 1e-12 {
         warnings.push(format!(
             "a singularity lies outside the unit circle (|z| = {}): the sequence grows without bound (an unstable system). {}",
-            format_real(r0),
+            text::real(r0),
             crate::api::input::CAUTION
         ));
     } else if r0 >= 1.0 - 1e-12 {
@@ -316,9 +317,9 @@ fn general(
     if !(contour.positive_power_ratio <= POSITIVE_POWER_LIMIT) {
         return Err(ApiError::new(ErrorCode::NotApplicable, format!(
             "on |z| = {} X has positive powers of z (relative size {:.1e}): either X grows as |z| → ∞ (then it is not the transform of a causal sequence) or X has a singularity farther out than |z| = {}; give \"singular_radius\" at least as large as every singularity's modulus",
-            format_real(contour.largest_radius),
+            text::real(contour.largest_radius),
             contour.positive_power_ratio,
-            format_real(r0)
+            text::real(r0)
         )));
     }
     let values = contour_list(Some(&contour), ns.len());

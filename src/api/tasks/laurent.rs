@@ -64,7 +64,7 @@ pub fn run(req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
         if let Some(b) = h.branch_candidates.iter().find(|b| (**b - a).norm() <= 1e-12 * a.norm().max(1.0)) {
             return Err(ApiError::new(ErrorCode::NotApplicable, format!(
                 "f has a branch point at the centre {} (sqrt, log or a non-integer power), so it has no Laurent series there",
-                crate::singular::rational_poles::format_complex(*b + 0.0, 0.0)
+                crate::text::complex(*b + 0.0, 0.0)
             )));
         }
     }

@@ -2,7 +2,7 @@
 
 use crate::api::input::compile;
 
-use crate::api::wire::{FunctionInput};
+use crate::api::wire::FunctionInput;
 use crate::api::error::ApiError;
 use crate::plot::colour_wheel::Wheel;
 use crate::plot::phase_plot::{render_rows, PlotOptions, View};

@@ -33,6 +33,7 @@
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
 use crate::api::input::{budget, compile, hints};
+use crate::text;
 use crate::api::wire::{pair, FunctionInput, Number};
 use crate::budget::Budget;
 use crate::contour::Contour;
@@ -42,7 +43,7 @@ use crate::quad::gauss_kronrod::{integrate, integrate_infinite};
 use crate::quad::trapezoid_periodic::integrate_periodic;
 use crate::quad::{QuadError, QuadResult, Tolerance};
 use crate::singular::product_residue::{exp_taylor, power_taylor, product_residue};
-use crate::singular::rational_poles::{analyse_rational_polished, format_complex, PoleInfo};
+use crate::singular::rational_poles::{analyse_rational_polished, PoleInfo};
 use crate::singular::{classify_point, find_singularities, Hints, Kind};
 use crate::error::Failure;
 use crate::C;
@@ -125,10 +126,6 @@ struct ResidueSide {
 
 fn i_times(x: f64) -> C {
     C::new(0.0, x)
-}
-
-fn show(z: C) -> String {
-    format_complex(z, 1e-12 * (1.0 + z.norm()))
 }
 
 pub fn run(req: &RealIntegralRequest) -> Result<RealIntegralResponse, ApiError> {
@@ -374,7 +371,7 @@ fn line_rational(
                 return Err(ApiError::new(ErrorCode::Divergent, format!(
                     "f has a pole of order {} at x = {} on the real axis: the integral diverges, even as a principal value; move the pole off the axis (e.g. add a small damping)",
                     p.order,
-                    show(C::new(p.at.re, 0.0))
+                    text::value(C::new(p.at.re, 0.0))
                 )));
             }
             real_poles.push((p.at.re, res));
@@ -397,7 +394,7 @@ fn line_rational(
         if !on_real_axis(p, pole_scale) && p.at.im.abs() < 1e-3 * (1.0 + p.at.norm()) {
             warnings.push(format!(
                 "a pole at {} lies very close to the real axis: the integrand has a sharp peak there and the quadrature converges slowly",
-                show(p.at)
+                text::value(p.at)
             ));
         }
         sum += weight * res;
@@ -659,14 +656,14 @@ fn general_residue_sum(
     if let Some(b) = found.branch_points.iter().find(|b| b.im * sigma > 0.0) {
         warnings.push(format!(
             "f has a branch point at {}, in the half-plane the contour closes in: the residue theorem does not apply",
-            show(*b)
+            text::value(*b)
         ));
         return Ok(None);
     }
     if let Some(e) = found.essential.iter().find(|e| e.im * sigma > 0.0) {
         warnings.push(format!(
             "f has an essential singularity at {}: its residue with the factor e^(iωz) is not computed, so the residue side is not available",
-            show(*e)
+            text::value(*e)
         ));
         return Ok(None);
     }
@@ -676,7 +673,7 @@ fn general_residue_sum(
         if p.at.im.abs() <= 1e-6 * (1.0 + p.at.norm()) {
             return Err(ApiError::new(ErrorCode::Divergent, format!(
                 "f has a pole at about x = {} on the real axis: the integral diverges (principal values are computed for rational f only)",
-                show(C::new(p.at.re, 0.0))
+                text::value(C::new(p.at.re, 0.0))
             )));
         }
         if p.at.im * sigma <= 0.0 {
@@ -685,7 +682,7 @@ fn general_residue_sum(
         if p.principal_part.len() < p.order as usize {
             warnings.push(format!(
                 "the principal part of the pole at {} is not known, so the residue side is not available",
-                show(p.at)
+                text::value(p.at)
             ));
             return Ok(None);
         }
@@ -789,7 +786,7 @@ fn trig(
             if let Some(b) = found.branch_points.first() {
                 warnings.push(format!(
                     "g has a branch point at {} inside the unit circle: the residue theorem does not apply",
-                    show(*b)
+                    text::value(*b)
                 ));
                 ok = false;
             }
@@ -809,7 +806,7 @@ fn trig(
                 let Some(res) = res else {
                     warnings.push(format!(
                         "the residue of g at {} could not be computed, so the residue side is not available",
-                        show(at)
+                        text::value(at)
                     ));
                     ok = false;
                     continue;
@@ -894,7 +891,7 @@ fn mellin(
         if p.at.re > 0.0 && on_real_axis(p, scale) {
             return Err(ApiError::new(ErrorCode::Divergent, format!(
                 "f has a pole at x = {} on the positive real axis: the Mellin integral diverges there",
-                show(C::new(p.at.re, 0.0))
+                text::value(C::new(p.at.re, 0.0))
             )));
         }
         let taylor = power_taylor(alpha - 1.0, p.at, p.order as usize);

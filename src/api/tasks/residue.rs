@@ -4,11 +4,12 @@
 //! trapezoidal rule on small circles with classification of the point.
 
 use crate::api::input::{budget, compile, hints, point};
+use crate::text;
 use crate::api::wire::{pair, FunctionInput, Point};
 use crate::api::error::ApiError;
 use crate::expr::Function;
 use crate::singular::rational_check::check_residues;
-use crate::singular::rational_poles::{analyse_rational, analyse_rational_polished, format_complex, residue_at_point_polished};
+use crate::singular::rational_poles::{analyse_rational, analyse_rational_polished, residue_at_point_polished};
 use crate::singular::{classify_infinity, classify_point, PointResult};
 use crate::C;
 use serde::{Deserialize, Serialize};
@@ -69,7 +70,7 @@ fn rational_at(f: &Function, num: &[C], den: &[C], a: C) -> Result<ResidueRespon
             if d < 1e-3 * p.norm().max(1.0) {
                 warnings.push(format!(
                     "a pole lies {d:.3e} away, at {}; ask for the residue there to get its residue",
-                    format_complex(p, 0.0)
+                    text::complex(p, 0.0)
                 ));
             }
         }

@@ -2,12 +2,13 @@
 //! singularities and branch points inside a region, plus the residue at infinity.
 
 use crate::api::input::{budget, checked_contour, compile, hints};
+use crate::text;
 use crate::api::wire::{pair, FunctionInput};
 use crate::contour::Contour;
 use crate::api::error::ApiError;
 use crate::expr::Function;
 use crate::singular::rational_check::check_residues;
-use crate::singular::rational_poles::{analyse_rational_polished, format_complex};
+use crate::singular::rational_poles::analyse_rational_polished;
 use crate::singular::{classify_infinity, classify_point, find_singularities, Kind};
 use crate::C;
 use serde::{Deserialize, Serialize};
@@ -87,7 +88,7 @@ fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<Sing
     let mut on_boundary = |what: &str, z: C| {
         boundary.push(format!(
             "a {what} at {} lies on the region's boundary; it is left out: move the boundary",
-            format_complex(z, 0.0)
+            text::complex(z, 0.0)
         ))
     };
     let mut poles = Vec::new();
@@ -232,7 +233,7 @@ fn removable_points(
             Ok(r) if r.kind == Kind::Pole || r.kind == Kind::Essential => warnings.push(format!(
                 "the search missed a {} at {} that the expression's denominator points to; check it with \"residue\"",
                 r.kind.name(),
-                format_complex(z, 0.0)
+                text::complex(z, 0.0)
             )),
             _ => {}
         }
