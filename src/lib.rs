@@ -9,10 +9,13 @@ pub mod budget;
 pub mod contour;
 pub mod error;
 pub mod expr;
+pub mod integrals;
 pub mod linalg;
 pub mod plot;
 pub mod poly;
 pub mod quad;
+#[cfg(test)]
+pub(crate) mod reference;
 pub mod series;
 pub mod singular;
 pub mod special;

@@ -7,6 +7,8 @@
 //! a rectangle runs counter-clockwise from its lower-left corner, a polygon
 //! runs through its vertices in the order given.
 
+pub mod covering;
+
 use crate::C;
 use crate::error::Failure;
 use serde::{Deserialize, Serialize};

@@ -5,6 +5,8 @@
 
 pub mod contour_quadrature;
 pub mod gauss_kronrod;
+pub mod real_line;
+pub mod split_at_cuts;
 pub mod trapezoid_periodic;
 
 use crate::budget::BudgetExceeded;

@@ -9,11 +9,13 @@ pub mod argument_principle;
 pub mod branch_jump;
 pub mod classify;
 pub mod cut_crossing;
+pub mod decay;
 pub mod meromorphic;
 pub mod newton_refine;
 pub mod product_residue;
 pub mod rational_check;
 pub mod rational_poles;
+pub mod region_search;
 pub mod residue_trapezoid;
 
 pub use argument_principle::count_by_argument_principle;

@@ -1,0 +1,1 @@
+//! (placeholder: this method is being moved here from its task file)
