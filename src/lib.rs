@@ -6,6 +6,7 @@
 
 pub mod api;
 pub mod budget;
+pub mod cauchy;
 pub mod contour;
 pub mod error;
 pub mod expr;

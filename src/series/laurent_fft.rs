@@ -28,8 +28,7 @@ use crate::budget::Budget;
 use crate::text;
 use crate::error::Failure;
 use crate::C;
-use rustfft::FftPlanner;
-use std::f64::consts::PI;
+use crate::cauchy::circle::CircleSamples;
 
 /// Most coefficients one request may ask for.
 pub const MAX_COEFFICIENTS: i64 = 4096;
@@ -87,20 +86,10 @@ pub fn coefficients_on_circle(
     if samples == 0 || !(radius.is_finite() && radius > 0.0) || from > to {
         return Err(Failure::invalid("need samples > 0, a positive finite radius and from ≤ to"));
     }
-    budget.spend(samples as u64)?;
-    let mut values = Vec::with_capacity(samples);
-    for k in 0..samples {
-        let z = center + C::from_polar(radius, 2.0 * PI * k as f64 / samples as f64);
-        let v = f(z);
-        if !finite(v) {
-            return Err(Failure::not_finite(not_finite_message(z, center, radius)).at(z));
-        }
-        values.push(v);
+    match CircleSamples::take_finite(f, center, radius, 0.0, samples, budget)? {
+        Ok(s) => Ok(s.coefficients(from, to)),
+        Err(z) => Err(Failure::not_finite(not_finite_message(z, center, radius)).at(z)),
     }
-    let spectrum = fft(&values);
-    Ok((from..=to)
-        .map(|n| scaled(&spectrum, n, radius).0)
-        .collect())
 }
 
 /// Laurent coefficients of f; see the module doc for the method.
@@ -141,40 +130,15 @@ struct CircleFit {
     errors: Vec<f64>,
 }
 
+fn finite(z: C) -> bool {
+    z.re.is_finite() && z.im.is_finite()
+}
+
 enum CircleFailure {
     NotFinite(C),
     Budget(Failure),
 }
 
-fn finite(z: C) -> bool {
-    z.re.is_finite() && z.im.is_finite()
-}
-
-fn fft(values: &[C]) -> Vec<C> {
-    let mut buffer = values.to_vec();
-    FftPlanner::<f64>::new()
-        .plan_fft_forward(buffer.len())
-        .process(&mut buffer);
-    buffer
-}
-
-/// c_n from the spectrum of N samples on radius ρ, and the factor ρ^{−n}.
-fn scaled(spectrum: &[C], n: i64, radius: f64) -> (C, f64) {
-    let len = spectrum.len();
-    let b = spectrum[n.rem_euclid(len as i64) as usize] / len as f64;
-    let factor = (-(n as f64) * radius.ln()).exp();
-    let c = if b == C::new(0.0, 0.0) { b } else { b * factor };
-    (c, factor)
-}
-
-fn sample(f: &mut dyn FnMut(C) -> C, z: C) -> Result<C, CircleFailure> {
-    let v = f(z);
-    if finite(v) {
-        Ok(v)
-    } else {
-        Err(CircleFailure::NotFinite(z))
-    }
-}
 
 /// Sample on |z − a| = ρ with N doubling until the coefficients settle.
 fn fit_on_circle(
@@ -188,35 +152,18 @@ fn fit_on_circle(
     let count = (to - from + 1) as usize;
     let mut n = (2 * count).next_power_of_two().max(64);
     let cap = MAX_SAMPLES_PER_CIRCLE.max(4 * n);
-    budget
-        .spend(n as u64)
-        .map_err(|e| CircleFailure::Budget(e.into()))?;
-    let mut samples = Vec::with_capacity(n);
-    for k in 0..n {
-        samples.push(sample(
-            f,
-            center + C::from_polar(rho, 2.0 * PI * k as f64 / n as f64),
-        )?);
-    }
-    let coarse_spectrum = fft(&samples);
-    let mut previous: Vec<C> = (from..=to)
-        .map(|m| scaled(&coarse_spectrum, m, rho).0)
-        .collect();
+    let mut samples = CircleSamples::take_finite(f, center, rho, 0.0, n, budget)
+        .map_err(CircleFailure::Budget)?
+        .map_err(CircleFailure::NotFinite)?;
+    let mut previous: Vec<C> = samples.coefficients(from, to);
     let mut previous_worst = f64::INFINITY;
     loop {
-        budget
-            .spend(n as u64)
-            .map_err(|e| CircleFailure::Budget(e.into()))?;
-        let mut finer = Vec::with_capacity(2 * n);
-        for (k, &old) in samples.iter().enumerate() {
-            finer.push(old);
-            let angle = 2.0 * PI * (2 * k + 1) as f64 / (2 * n) as f64;
-            finer.push(sample(f, center + C::from_polar(rho, angle))?);
+        if let Some(z) = samples.double(f, budget).map_err(CircleFailure::Budget)? {
+            return Err(CircleFailure::NotFinite(z));
         }
-        samples = finer;
         n *= 2;
-        let spectrum = fft(&samples);
-        let max_f = samples.iter().map(|v| v.norm()).fold(0.0, f64::max);
+        let spectrum = samples.spectrum();
+        let max_f = samples.max_abs();
         let eps = f64::EPSILON;
         let mut values = Vec::with_capacity(count);
         let mut errors = Vec::with_capacity(count);
@@ -224,7 +171,7 @@ fn fit_on_circle(
         // Largest change, measured in units of max|f| (the scale of the samples).
         let mut worst = 0.0f64;
         for (i, m) in (from..=to).enumerate() {
-            let (c, factor) = scaled(&spectrum, m, rho);
+            let (c, factor) = samples.coefficient_from(&spectrum, m);
             let diff = (c - previous[i]).norm();
             let floor = eps * max_f * factor * (4.0 + (n as f64).log2())
                 + 4.0 * eps * (m.unsigned_abs() as f64 + 1.0) * c.norm();

@@ -10,6 +10,7 @@
 //! disagreement beyond both error estimates is reported, never hidden.
 
 use crate::budget::Budget;
+use crate::cauchy::circle::CircleSamples;
 use crate::C;
 
 /// The outcome for one pole.
@@ -63,25 +64,10 @@ pub fn check_residues(
 const SAMPLES: usize = 32;
 
 /// c₋₁ = (1/N) Σ f(a + r ω^k) r ω^k, with the difference from the N/2-point
-/// rule (every other sample) as its error estimate.
+/// rule (every other sample) as its error estimate (`cauchy::circle`).
 fn trapezoid_residue(f: &dyn Fn(C) -> C, a: C, r: f64, budget: &mut Budget) -> Option<(C, f64)> {
-    budget.spend(SAMPLES as u64).ok()?;
-    let (mut all, mut even, mut magnitude) = (C::new(0.0, 0.0), C::new(0.0, 0.0), 0.0);
-    for k in 0..SAMPLES {
-        let w = C::from_polar(r, 2.0 * std::f64::consts::PI * k as f64 / SAMPLES as f64);
-        let term = f(a + w) * w;
-        if !(term.re.is_finite() && term.im.is_finite()) {
-            return None;
-        }
-        all += term;
-        magnitude += term.norm();
-        if k % 2 == 0 {
-            even += term;
-        }
-    }
-    let full = all / SAMPLES as f64;
-    let half = even / (SAMPLES / 2) as f64;
-    Some((full, (full - half).norm() + 64.0 * f64::EPSILON * magnitude / SAMPLES as f64))
+    let samples = CircleSamples::take_finite(&mut |z| f(z), a, r, 0.0, SAMPLES, budget).ok()?.ok()?;
+    Some(samples.residue_with_half_rule())
 }
 
 #[cfg(test)]

@@ -7,11 +7,11 @@
 //! around the circle: L. N. Trefethen & J. A. C. Weideman, "The exponentially
 //! convergent trapezoidal rule", SIAM Review 56 (2014) 385–458, §§3, 10.
 
-use super::{eval, is_finite};
+use super::is_finite;
+use crate::cauchy::circle::CircleSamples;
 use crate::error::Failure;
 use crate::budget::Budget;
 use crate::C;
-use std::f64::consts::PI;
 
 /// Angle offset of the first sample (keeps samples off the real axis, where
 /// principal-branch cuts usually lie).
@@ -57,18 +57,6 @@ impl CircleLaurent {
     }
 }
 
-fn sample(
-    f: &dyn Fn(C) -> C,
-    a: C,
-    r: f64,
-    n: usize,
-    j: usize,
-    budget: &mut Budget,
-) -> Result<C, Failure> {
-    let th = OFFSET + 2.0 * PI * j as f64 / n as f64;
-    eval(f, a + C::from_polar(r, th), budget)
-}
-
 /// Laurent coefficients c_{−k_max..k_max} of f on |z − a| = r. Returns
 /// `Ok(None)` if f is not finite at some sample (a singularity on or near the
 /// circle, or overflow), and `Err` only when the budget runs out.
@@ -80,19 +68,20 @@ pub fn laurent_on_circle(
     n_max: usize,
     budget: &mut Budget,
 ) -> Result<Option<CircleLaurent>, Failure> {
-    let mut n = (4 * k_max).max(64).next_power_of_two();
-    let n_max = n_max.max(n);
-    let mut samples: Vec<C> = Vec::with_capacity(n);
-    for j in 0..n {
-        samples.push(sample(f, a, r, n, j, budget)?);
-    }
+    let n0 = (4 * k_max).max(64).next_power_of_two();
+    let n_max = n_max.max(n0);
+    let mut g = |z: C| f(z);
+    let mut samples = CircleSamples::take(&mut g, a, r, OFFSET, n0, budget)?;
     let mut prev: Option<Vec<C>> = None;
     loop {
-        if samples.iter().any(|v| !is_finite(*v)) {
+        if samples.first_non_finite().is_some() {
             return Ok(None);
         }
-        let coeffs = normalized_coefficients(&samples, k_max);
-        let max_abs = samples.iter().map(|v| v.norm()).fold(0.0, f64::max);
+        let n = samples.len();
+        let spectrum = samples.spectrum();
+        let kk = k_max as i64;
+        let coeffs: Vec<C> = (-kk..=kk).map(|k| samples.normalized_from(&spectrum, k)).collect();
+        let max_abs = samples.max_abs();
         let change: Vec<f64> = match &prev {
             Some(p) => coeffs.iter().zip(p).map(|(x, y)| (x - y).norm()).collect(),
             None => vec![f64::INFINITY; coeffs.len()],
@@ -100,7 +89,6 @@ pub fn laurent_on_circle(
         let worst = change.iter().cloned().fold(0.0, f64::max);
         let converged = worst <= 1e-13 * max_abs.max(f64::MIN_POSITIVE);
         if converged || 2 * n > n_max {
-            let winding = winding_from_samples(&samples);
             return Ok(Some(CircleLaurent {
                 center: a,
                 radius: r,
@@ -110,57 +98,15 @@ pub fn laurent_on_circle(
                 change,
                 max_abs,
                 converged,
-                winding,
+                winding: samples.winding(),
             }));
         }
-        // Double: interleave the new midpoints.
-        let mut next = Vec::with_capacity(2 * n);
-        for (j, v) in samples.iter().enumerate() {
-            next.push(*v);
-            next.push(sample(f, a, r, 2 * n, 2 * j + 1, budget)?);
+        // Double: the new nodes are the midpoints.
+        if samples.double(&mut g, budget)?.is_some() {
+            return Ok(None);
         }
         prev = Some(coeffs);
-        samples = next;
-        n *= 2;
     }
-}
-
-/// ĉ_k = (1/N) Σ f_j e^{−ik θ_j}, k = −K..K, θ_j = OFFSET + 2πj/N.
-fn normalized_coefficients(samples: &[C], k_max: usize) -> Vec<C> {
-    let n = samples.len();
-    let kk = k_max as i64;
-    let mut out = vec![C::new(0.0, 0.0); 2 * k_max + 1];
-    for (j, v) in samples.iter().enumerate() {
-        let th = OFFSET + 2.0 * PI * j as f64 / n as f64;
-        let step = C::from_polar(1.0, -th);
-        let mut rot = C::from_polar(1.0, kk as f64 * th); // e^{−i(−K)θ}
-        for slot in out.iter_mut() {
-            *slot += v * rot;
-            rot *= step;
-        }
-    }
-    for c in out.iter_mut() {
-        *c /= n as f64;
-    }
-    out
-}
-
-/// Winding number from phase increments, if every increment is below π/2.
-fn winding_from_samples(samples: &[C]) -> Option<i64> {
-    let n = samples.len();
-    let mut total = 0.0;
-    for j in 0..n {
-        let (p, q) = (samples[j], samples[(j + 1) % n]);
-        if p == C::new(0.0, 0.0) || q == C::new(0.0, 0.0) {
-            return None;
-        }
-        let d = (q / p).arg();
-        if d.abs() > PI / 2.0 {
-            return None;
-        }
-        total += d;
-    }
-    Some((total / (2.0 * PI)).round() as i64)
 }
 
 /// Residue of f at a by the trapezoidal rule on |z − a| = r, with an error
