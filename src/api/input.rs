@@ -96,6 +96,19 @@ pub fn hints(f: &Function) -> Hints {
     hints
 }
 
+/// Where the expression's rational denominators vanish: candidates for
+/// removable points (and poles) that sampling cannot see.
+pub fn pole_candidates(f: &Function) -> Vec<C> {
+    let a = f.analysis();
+    let mut out = a.pole_candidates.clone();
+    for p in &a.pole_candidate_polys {
+        if let Ok((clusters, _)) = crate::poly::multiplicity::distinct_roots(p) {
+            out.extend(clusters.into_iter().map(|c| c.center));
+        }
+    }
+    out
+}
+
 /// `[re, im]` list of points.
 pub fn pairs(zs: &[C]) -> Vec<[f64; 2]> {
     zs.iter().map(|z| [z.re, z.im]).collect()

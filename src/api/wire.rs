@@ -61,3 +61,37 @@ pub struct ContourRequest {
     #[serde(default)]
     pub max_evaluations: Option<u64>,
 }
+
+/// The kind of a point on the wire: `"pole"`, `"removable"`, `"regular"`,
+/// `"essential"` or `"branch_point"`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum PointKind {
+    Pole,
+    Removable,
+    Regular,
+    Essential,
+    BranchPoint,
+}
+
+impl From<crate::singular::Kind> for PointKind {
+    fn from(k: crate::singular::Kind) -> Self {
+        use crate::singular::Kind;
+        match k {
+            Kind::Pole => PointKind::Pole,
+            Kind::Removable => PointKind::Removable,
+            Kind::Regular => PointKind::Regular,
+            Kind::Essential => PointKind::Essential,
+            Kind::BranchPoint => PointKind::BranchPoint,
+        }
+    }
+}
+
+/// How singular points were found: `"rational"` (exact polynomial algebra) or
+/// `"numerical"` (sampling methods).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Method {
+    Rational,
+    Numerical,
+}

@@ -437,3 +437,18 @@ fn agree(outer: &CircleLaurent, inner: &CircleLaurent) -> bool {
 fn poles_inside_annulus(outer: &CircleLaurent, inner: &CircleLaurent) -> bool {
     matches!((outer.winding, inner.winding), (Some(wo), Some(wi)) if wi > wo)
 }
+
+/// The residue c₋₁ at each of `points` that classifies as essential (with its
+/// error estimate); `None` where it is not essential or could not be computed.
+pub fn essential_residues(f: &dyn Fn(C) -> C, points: &[C], hints: &Hints, budget: &mut Budget) -> Vec<Option<(C, f64)>> {
+    points
+        .iter()
+        .map(|&z| {
+            classify_point(f, z, hints, budget)
+                .ok()
+                .filter(|r| r.kind == Kind::Essential)
+                .and_then(|r| r.residue.map(|c| (c, r.error_estimate)))
+        })
+        .collect()
+}
+

@@ -14,8 +14,10 @@ pub mod meromorphic;
 pub mod newton_refine;
 pub mod product_residue;
 pub mod rational_check;
+pub mod rational_in_region;
 pub mod rational_poles;
 pub mod region_search;
+pub mod removable;
 pub mod residue_trapezoid;
 
 pub use argument_principle::count_by_argument_principle;
@@ -25,7 +27,6 @@ pub use meromorphic::find_singularities;
 use crate::budget::Budget;
 use crate::error::Failure;
 use crate::C;
-use serde::Serialize;
 
 /// What symbolic analysis of the expression knows in advance (may be empty).
 #[derive(Debug, Clone, Default)]
@@ -42,8 +43,7 @@ pub struct Hints {
 }
 
 /// The kind of a point.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
-#[serde(rename_all = "snake_case")]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Kind {
     Pole,
     Removable,

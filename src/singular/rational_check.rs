@@ -11,6 +11,7 @@
 
 use crate::budget::Budget;
 use crate::cauchy::circle::CircleSamples;
+use crate::ways::{consistent, Way, WayName};
 use crate::C;
 
 /// The outcome for one pole.
@@ -50,12 +51,40 @@ pub fn check_residues(
             let r = if nearest.is_finite() { 0.15 * nearest } else { 0.15 * at.norm().max(1.0) };
             let (sampled, sampled_error) = trapezoid_residue(f, at, r, budget)?;
             let difference = (sampled - exact).norm();
-            let allowed = 10.0 * (exact_error + sampled_error) + 1e-12 * exact.norm().max(sampled.norm());
-            Some(Check { sampled, sampled_error, difference, agrees: difference <= allowed })
+            let agrees = consistent(
+                &Way::new(WayName::Residues, exact, exact_error),
+                &Way::new(WayName::TrapezoidalRule, sampled, sampled_error),
+            );
+            Some(Check { sampled, sampled_error, difference, agrees })
         })
         .chain(std::iter::repeat(None))
         .take(poles.len())
         .collect()
+}
+
+/// The checks of many poles summed up: a bound per pole, and how many disagree.
+#[derive(Debug, Clone, PartialEq)]
+pub struct CrossCheck {
+    /// Per pole: the exact value is claimed no better than its difference from
+    /// the sampled one plus the sampled value's own error (`None`: not checked).
+    pub bounds: Vec<Option<f64>>,
+    /// Poles whose two values are not consistent under the one agreement rule (`ways`).
+    pub disagreeing: usize,
+    /// The largest difference among those.
+    pub worst: f64,
+}
+
+/// [`check_residues`] reduced to what a caller widens and warns with.
+pub fn cross_check(f: &dyn Fn(C) -> C, poles: &[(C, C, f64)], all_poles: &[C], budget: &mut Budget) -> CrossCheck {
+    let mut out = CrossCheck { bounds: Vec::with_capacity(poles.len()), disagreeing: 0, worst: 0.0 };
+    for check in check_residues(f, poles, all_poles, budget) {
+        out.bounds.push(check.as_ref().map(|c| c.difference + c.sampled_error));
+        if let Some(c) = check.filter(|c| !c.agrees) {
+            out.disagreeing += 1;
+            out.worst = out.worst.max(c.difference);
+        }
+    }
+    out
 }
 
 /// Samples per circle. The circle's radius is 0.15 of the distance to the

@@ -5,11 +5,11 @@
 
 use crate::api::input::{budget, compile, hints, point};
 use crate::text;
-use crate::api::wire::{pair, FunctionInput, Point};
+use crate::api::wire::{pair, FunctionInput, Point, PointKind};
 use crate::api::error::ApiError;
 use crate::expr::Function;
-use crate::singular::rational_check::check_residues;
-use crate::singular::rational_poles::{analyse_rational, analyse_rational_polished, residue_at_point_polished};
+use crate::singular::rational_check::cross_check;
+use crate::singular::rational_poles::{analyse_rational, analyse_rational_polished, residue_at_point_polished, PointKind as RationalKind};
 use crate::singular::{classify_infinity, classify_point, PointResult};
 use crate::C;
 use serde::{Deserialize, Serialize};
@@ -27,7 +27,7 @@ pub struct ResidueResponse {
     /// `null` where no residue exists (a branch point, or infinity not isolated).
     pub residue: Option<[f64; 2]>,
     /// `"pole"`, `"removable"`, `"regular"`, `"essential"` or `"branch_point"`.
-    pub kind: String,
+    pub kind: PointKind,
     pub order: Option<u32>,
     pub error_estimate: Option<f64>,
     /// Principal-part coefficients `c_{-1}, c_{-2}, …` where known.
@@ -45,27 +45,27 @@ pub fn run(req: &ResidueRequest) -> Result<ResidueResponse, ApiError> {
 }
 
 fn rational_at(f: &Function, num: &[C], den: &[C], a: C) -> Result<ResidueResponse, ApiError> {
+    // Method 1: exact algebra at the point, polished on the expression as typed.
     let r = residue_at_point_polished(num, den, a, &|z| f.eval_d(z))?;
     let mut warnings = Vec::new();
     let mut error_estimate = r.error_estimate;
-    if r.kind.as_str() == "pole" {
-        // The same independent check as in `singularities`: sample the expression as typed.
+    if r.kind == RationalKind::Pole {
+        // Method 2, the same independent check as in `singularities`: sample the expression as typed.
         let all: Vec<C> = analyse_rational_polished(num, den, &|z| f.eval_d(z))
             .map(|x| x.poles.iter().map(|p| p.at).collect())
             .unwrap_or_default();
-        let eval = |z: C| f.eval(z);
-        if let Some(Some(c)) = check_residues(&eval, &[(r.at, r.residue, r.error_estimate)], &all, &mut budget(None)).pop() {
-            error_estimate = error_estimate.max(c.difference + c.sampled_error);
-            if !c.agrees {
-                warnings.push(format!(
-                    "the residue from the expanded polynomials disagrees with the trapezoidal rule on the expression \
-                     as typed by {:.2e}; the expanded coefficients are sensitive to rounding, so this residue is uncertain",
-                    c.difference
-                ));
-            }
+        let check = cross_check(&|z| f.eval(z), &[(r.at, r.residue, r.error_estimate)], &all, &mut budget(None));
+        if let Some(Some(bound)) = check.bounds.first() {
+            error_estimate = error_estimate.max(*bound);
         }
-    }
-    if r.kind.as_str() != "pole" {
+        if check.disagreeing > 0 {
+            warnings.push(format!(
+                "the residue from the expanded polynomials disagrees with the trapezoidal rule on the expression \
+                 as typed by {:.2e}; the expanded coefficients are sensitive to rounding, so this residue is uncertain",
+                check.worst
+            ));
+        }
+    } else {
         if let (Some(p), Some(d)) = (r.nearest_pole, r.distance_to_nearest_pole) {
             if d < 1e-3 * p.norm().max(1.0) {
                 warnings.push(format!(
@@ -77,7 +77,11 @@ fn rational_at(f: &Function, num: &[C], den: &[C], a: C) -> Result<ResidueRespon
     }
     Ok(ResidueResponse {
         residue: Some(pair(r.residue)),
-        kind: r.kind.as_str().into(),
+        kind: match r.kind {
+            RationalKind::Pole => PointKind::Pole,
+            RationalKind::Removable => PointKind::Removable,
+            RationalKind::Regular => PointKind::Regular,
+        },
         order: r.order,
         error_estimate: Some(error_estimate),
         principal_part: r.principal_part.iter().map(|&c| pair(c)).collect(),
@@ -87,10 +91,11 @@ fn rational_at(f: &Function, num: &[C], den: &[C], a: C) -> Result<ResidueRespon
 
 fn rational_at_infinity(num: &[C], den: &[C]) -> Result<ResidueResponse, ApiError> {
     let a = analyse_rational(num, den)?;
-    let (kind, order) = if a.infinity_order > 0 { ("pole", Some(a.infinity_order as u32)) } else { ("regular", None) };
+    let (kind, order) =
+        if a.infinity_order > 0 { (PointKind::Pole, Some(a.infinity_order as u32)) } else { (PointKind::Regular, None) };
     Ok(ResidueResponse {
         residue: Some(pair(a.residue_at_infinity)),
-        kind: kind.into(),
+        kind,
         order,
         error_estimate: Some(a.residue_sum_tolerance.max(f64::EPSILON * a.residue_at_infinity.norm())),
         principal_part: Vec::new(),
@@ -110,7 +115,7 @@ fn general(f: &Function, at: Option<C>) -> Result<ResidueResponse, ApiError> {
     let principal_part = if at.is_some() { r.principal_part.iter().map(|&c| pair(c)).collect() } else { Vec::new() };
     Ok(ResidueResponse {
         residue: r.residue.map(pair),
-        kind: r.kind.name().into(),
+        kind: r.kind.into(),
         order: r.order,
         error_estimate: r.residue.map(|_| r.error_estimate),
         principal_part,

@@ -1,15 +1,18 @@
 //! `singularities`: poles (with orders and residues), zeros, essential
 //! singularities and branch points inside a region, plus the residue at infinity.
 
-use crate::api::input::{budget, checked_contour, compile, hints};
-use crate::text;
-use crate::api::wire::{pair, FunctionInput};
-use crate::contour::Contour;
 use crate::api::error::ApiError;
+use crate::api::input::{budget, checked_contour, compile, hints, pole_candidates};
+use crate::api::wire::{pair, FunctionInput, Method};
+use crate::contour::Contour;
 use crate::expr::Function;
-use crate::singular::rational_check::check_residues;
+use crate::singular::classify::essential_residues;
+use crate::singular::rational_check::cross_check;
+use crate::singular::rational_in_region::in_region;
 use crate::singular::rational_poles::analyse_rational_polished;
-use crate::singular::{classify_infinity, classify_point, find_singularities, Kind};
+use crate::singular::removable::removable_points;
+use crate::singular::{classify_infinity, find_singularities};
+use crate::text;
 use crate::C;
 use serde::{Deserialize, Serialize};
 
@@ -63,10 +66,12 @@ pub struct SingularitiesResponse {
     /// Zeros minus poles inside the region by the argument principle, where counted.
     pub zeros_minus_poles: Option<i64>,
     /// `"rational"` (exact polynomial algebra) or `"numerical"` (sampling methods).
-    pub method: String,
+    pub method: Method,
     pub warnings: Vec<String>,
 }
 
+/// The plan: rational f by exact algebra, cross-checked by sampling the
+/// expression as typed; any other f by the sampling search of the region.
 pub fn run(req: &SingularitiesRequest) -> Result<SingularitiesResponse, ApiError> {
     let f = compile(&req.function)?;
     checked_contour(&req.region, "region")?;
@@ -76,65 +81,40 @@ pub fn run(req: &SingularitiesRequest) -> Result<SingularitiesResponse, ApiError
     }
 }
 
-/// Which side of the region's boundary a point is on; `None` on the boundary.
-fn inside(region: &Contour, z: C) -> Option<bool> {
-    region.winding_number(z).map(|w| w != 0)
-}
+/// Said where a pole of order m > 1 is reported.
+const MULTIPLE_POLE_CAUTION: &str = "a pole of order m > 1 could also be m separate poles closer together than double precision \
+can tell apart (about 1e-8 relative for m = 2), which would have large residues of opposite \
+sign; this matters when coefficients were rounded";
 
 fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<SingularitiesResponse, ApiError> {
+    // Method 1: exact algebra on the coefficients, polished on the expression as typed.
     let a = analyse_rational_polished(num, den, &|z| f.eval_d(z))?;
+    let part = in_region(&a, region);
     let mut warnings = a.warnings.clone();
-    let mut boundary = Vec::new();
-    let mut on_boundary = |what: &str, z: C| {
-        boundary.push(format!(
-            "a {what} at {} lies on the region's boundary; it is left out: move the boundary",
-            text::complex(z, 0.0)
-        ))
-    };
-    let mut poles = Vec::new();
-    let mut balance: i64 = 0;
-    for p in &a.poles {
-        match inside(region, p.at) {
-            Some(true) => {
-                balance -= p.order as i64;
-                poles.push(PoleOut {
-                    at: pair(p.at),
-                    order: p.order,
-                    residue: Some(pair(p.residue)),
-                    error_estimate: Some(p.error_estimate),
-                    principal_part: p.principal_part.iter().map(|&c| pair(c)).collect(),
-                })
-            }
-            Some(false) => {}
-            None => on_boundary("pole", p.at),
+    warnings.extend(part.on_boundary.iter().map(|(what, z)| {
+        format!("a {what} at {} lies on the region's boundary; it is left out: move the boundary", text::complex(*z, 0.0))
+    }));
+    let mut poles: Vec<PoleOut> = part.poles.iter().map(|p| pole_out(p.at, p.order, Some((p.residue, p.error_estimate)), &p.principal_part)).collect();
+
+    // Method 2: the trapezoidal rule on the expression as typed, one circle per pole.
+    let claims: Vec<(C, C, f64)> = part.poles.iter().map(|p| (p.at, p.residue, p.error_estimate)).collect();
+    let all: Vec<C> = a.poles.iter().map(|p| p.at).collect();
+    let check = cross_check(&|z| f.eval(z), &claims, &all, &mut budget(None));
+    for (pole, bound) in poles.iter_mut().zip(&check.bounds) {
+        if let Some(b) = bound {
+            pole.error_estimate = Some(pole.error_estimate.unwrap_or(0.0).max(*b));
         }
     }
-    let mut zeros = Vec::new();
-    for z in &a.zeros {
-        match inside(region, z.at) {
-            Some(true) => {
-                balance += z.order as i64;
-                zeros.push(ZeroOut { at: pair(z.at), order: z.order })
-            }
-            Some(false) => {}
-            None => on_boundary("zero", z.at),
-        }
+    if check.disagreeing > 0 {
+        warnings.push(format!(
+            "{} residue(s) from the expanded polynomials disagree with the trapezoidal rule on the \
+             expression as typed (by up to {:.2e}); the expanded coefficients are sensitive to rounding, so \
+             these poles and residues are uncertain — their error estimates now include the disagreement",
+            check.disagreeing, check.worst
+        ));
     }
-    warnings.append(&mut boundary);
-    cross_check(f, &mut poles, &a.poles.iter().map(|p| p.at).collect::<Vec<_>>(), &mut warnings);
-    let removable = a
-        .removable
-        .iter()
-        .filter(|r| inside(region, r.at) == Some(true))
-        .map(|r| PointOut { at: pair(r.at), residue: Some([0.0, 0.0]), error_estimate: None })
-        .collect();
-    if poles.iter().any(|p| p.order > 1) {
-        warnings.push(
-            "a pole of order m > 1 could also be m separate poles closer together than double precision \
-             can tell apart (about 1e-8 relative for m = 2), which would have large residues of opposite \
-             sign; this matters when coefficients were rounded"
-                .into(),
-        );
+    if part.poles.iter().any(|p| p.order > 1) {
+        warnings.push(MULTIPLE_POLE_CAUTION.into());
     }
     if a.residue_sum_defect > a.residue_sum_tolerance.max(1e-300) * 10.0 {
         warnings.push(format!(
@@ -144,71 +124,28 @@ fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<Sing
     }
     Ok(SingularitiesResponse {
         poles,
-        zeros,
+        zeros: part.zeros.iter().map(|z| ZeroOut { at: pair(z.at), order: z.order }).collect(),
         essential: Vec::new(),
         branch_points: Vec::new(),
-        removable,
+        removable: part.removable.iter().map(|&z| point_out(z, Some((C::new(0.0, 0.0), None)))).collect(),
         residue_at_infinity: Some(pair(a.residue_at_infinity)),
         residue_sum_defect: Some(a.residue_sum_defect),
-        zeros_minus_poles: Some(balance),
-        method: "rational".into(),
+        zeros_minus_poles: Some(part.zeros_minus_poles),
+        method: Method::Rational,
         warnings,
     })
 }
 
-/// Compare each exact residue with the trapezoidal rule on the expression as
-/// typed; where they disagree, say so and widen the error estimate to cover it.
-fn cross_check(f: &Function, poles: &mut [PoleOut], all: &[C], warnings: &mut Vec<String>) {
-    let claims: Vec<(C, C, f64)> = poles
-        .iter()
-        .map(|p| {
-            let r = p.residue.unwrap_or([0.0, 0.0]);
-            (C::new(p.at[0], p.at[1]), C::new(r[0], r[1]), p.error_estimate.unwrap_or(0.0))
-        })
-        .collect();
+fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Result<SingularitiesResponse, ApiError> {
+    let hints = hints(f);
+    let mut budget = budget(max_evaluations);
     let eval = |z: C| f.eval(z);
-    let checks = check_residues(&eval, &claims, all, &mut budget(None));
-    let mut disagreeing = 0;
-    let mut worst: f64 = 0.0;
-    for (pole, check) in poles.iter_mut().zip(checks) {
-        let Some(check) = check else { continue };
-        // Two independent values: the exact one is claimed no better than their
-        // difference plus the sampled value's own error.
-        let bound = check.difference + check.sampled_error;
-        pole.error_estimate = Some(pole.error_estimate.unwrap_or(0.0).max(bound));
-        if !check.agrees {
-            disagreeing += 1;
-            worst = worst.max(check.difference);
-        }
-    }
-    if disagreeing > 0 {
-        warnings.push(format!(
-            "{disagreeing} residue(s) from the expanded polynomials disagree with the trapezoidal rule on the \
-             expression as typed (by up to {worst:.2e}); the expanded coefficients are sensitive to rounding, so \
-             these poles and residues are uncertain — their error estimates now include the disagreement"
-        ));
-    }
-}
-
-/// Zeros of rational denominators inside the region that turned out to be
-/// neither poles nor zeros: classify them, and keep the removable ones
-/// (sin(z)/z at 0). The sampling search cannot see these: f is finite there.
-fn removable_points(
-    f: &Function,
-    region: &Contour,
-    found: &crate::singular::RegionResult,
-    hints: &crate::singular::Hints,
-    budget: &mut crate::budget::Budget,
-    warnings: &mut Vec<String>,
-) -> Vec<PointOut> {
-    let a = f.analysis();
-    let mut candidates = a.pole_candidates.clone();
-    for p in &a.pole_candidate_polys {
-        if let Ok((clusters, _)) = crate::poly::multiplicity::distinct_roots(p) {
-            candidates.extend(clusters.into_iter().map(|c| c.center));
-        }
-    }
-    let scale = region.size().max(f64::MIN_POSITIVE);
+    // Method 1: the region search (argument principle, AAA, Newton, classification).
+    let found = find_singularities(&eval, &|z| f.eval_d(z), region, &hints, &mut budget)?;
+    let mut warnings = found.warnings.clone();
+    // Method 2: residues at the essential points from Laurent coefficients on circles.
+    let essential_res = essential_residues(&eval, &found.essential, &hints, &mut budget);
+    // Method 3: the expression's own denominators point at removable points.
     let known: Vec<C> = found
         .poles
         .iter()
@@ -217,50 +154,15 @@ fn removable_points(
         .chain(found.essential.iter().copied())
         .chain(found.branch_points.iter().copied())
         .collect();
-    let mut out: Vec<PointOut> = Vec::new();
-    for z in candidates {
-        if inside(region, z) != Some(true) || known.iter().any(|k| (k - z).norm() <= 1e-8 * scale) {
-            continue;
-        }
-        if out.iter().any(|o| (C::new(o.at[0], o.at[1]) - z).norm() <= 1e-8 * scale) {
-            continue;
-        }
-        let eval = |w: C| f.eval(w);
-        match classify_point(&eval, z, hints, budget) {
-            Ok(r) if r.kind == Kind::Removable => {
-                out.push(PointOut { at: pair(z + C::new(0.0, 0.0)), residue: Some([0.0, 0.0]), error_estimate: None })
-            }
-            Ok(r) if r.kind == Kind::Pole || r.kind == Kind::Essential => warnings.push(format!(
-                "the search missed a {} at {} that the expression's denominator points to; check it with \"residue\"",
-                r.kind.name(),
-                text::complex(z, 0.0)
-            )),
-            _ => {}
-        }
-    }
-    out
-}
-
-fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Result<SingularitiesResponse, ApiError> {
-    let hints = hints(f);
-    let mut budget = budget(max_evaluations);
-    let eval = |z: C| f.eval(z);
-    let eval_d = |z: C| f.eval_d(z);
-    let found = find_singularities(&eval, &eval_d, region, &hints, &mut budget)?;
-    let mut warnings = found.warnings.clone();
-    let mut essential = Vec::new();
-    for &z in &found.essential {
-        let residue = classify_point(&eval, z, &hints, &mut budget)
-            .ok()
-            .filter(|r| r.kind == Kind::Essential)
-            .and_then(|r| r.residue.map(|c| (c, r.error_estimate)));
-        essential.push(PointOut {
-            at: pair(z),
-            residue: residue.map(|(c, _)| pair(c)),
-            error_estimate: residue.map(|(_, e)| e),
-        });
-    }
-    let removable = removable_points(f, region, &found, &hints, &mut budget, &mut warnings);
+    let removable = removable_points(&eval, &pole_candidates(f), region, &known, &hints, &mut budget);
+    warnings.extend(removable.missed.iter().map(|(kind, z)| {
+        format!(
+            "the search missed a {} at {} that the expression's denominator points to; check it with \"residue\"",
+            kind.name(),
+            text::complex(*z, 0.0)
+        )
+    }));
+    // Method 4: the point at infinity.
     let residue_at_infinity = match classify_infinity(&eval, &hints, &mut budget) {
         Ok(r) => {
             warnings.extend(r.warnings.into_iter().map(|w| format!("at infinity: {w}")));
@@ -272,26 +174,30 @@ fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Resu
         }
     };
     Ok(SingularitiesResponse {
-        poles: found
-            .poles
-            .iter()
-            .map(|p| PoleOut {
-                at: pair(p.at),
-                order: p.order,
-                residue: p.residue.map(pair),
-                error_estimate: p.residue.map(|_| p.error_estimate),
-                principal_part: p.principal_part.iter().map(|&c| pair(c)).collect(),
-            })
-            .collect(),
+        poles: found.poles.iter().map(|p| pole_out(p.at, p.order, p.residue.map(|r| (r, p.error_estimate)), &p.principal_part)).collect(),
         zeros: found.zeros.iter().map(|z| ZeroOut { at: pair(z.at), order: z.order }).collect(),
-        essential,
-        branch_points: found.branch_points.iter().map(|&z| PointOut { at: pair(z), residue: None, error_estimate: None }).collect(),
-        removable,
+        essential: found.essential.iter().zip(essential_res).map(|(&z, r)| point_out(z, r.map(|(c, e)| (c, Some(e))))).collect(),
+        branch_points: found.branch_points.iter().map(|&z| point_out(z, None)).collect(),
+        removable: removable.points.iter().map(|&z| point_out(z, Some((C::new(0.0, 0.0), None)))).collect(),
         residue_at_infinity,
         residue_sum_defect: None,
         // null where a branch cut crossing the boundary made the count impossible
         zeros_minus_poles: found.boundary_count,
-        method: "numerical".into(),
+        method: Method::Numerical,
         warnings,
     })
+}
+
+fn pole_out(at: C, order: u32, residue: Option<(C, f64)>, principal_part: &[C]) -> PoleOut {
+    PoleOut {
+        at: pair(at),
+        order,
+        residue: residue.map(|(r, _)| pair(r)),
+        error_estimate: residue.map(|(_, e)| e),
+        principal_part: principal_part.iter().map(|&c| pair(c)).collect(),
+    }
+}
+
+fn point_out(at: C, residue: Option<(C, Option<f64>)>) -> PointOut {
+    PointOut { at: pair(at), residue: residue.map(|(r, _)| pair(r)), error_estimate: residue.and_then(|(_, e)| e) }
 }
