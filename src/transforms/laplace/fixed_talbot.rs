@@ -160,3 +160,22 @@ pub fn invert(
         plan,
     })
 }
+
+/// f(t) at every time in `times` with the contour enclosing `singular`; `None`
+/// where F was not finite on the contour (overflow or an unseen singularity).
+/// Running out of budget stops the whole series.
+pub fn invert_each(
+    f: &mut dyn FnMut(C) -> C,
+    times: &[f64],
+    singular: &[C],
+    budget: &mut Budget,
+) -> Result<Vec<Option<TalbotValue>>, BudgetExceeded> {
+    times
+        .iter()
+        .map(|&t| match invert(f, t, plan(t, singular, NODES), budget) {
+            Ok(v) => Ok(Some(v)),
+            Err(TalbotError::NotFinite { .. }) => Ok(None),
+            Err(TalbotError::Budget(e)) => Err(e),
+        })
+        .collect()
+}

@@ -50,6 +50,47 @@ pub fn residue_sum(analysis: &RationalAnalysis, t: f64) -> (C, f64) {
     (value, if error.is_finite() { error } else { f64::MAX })
 }
 
+/// The residue sum at every time, in order: (value, error estimate) per t.
+///
+/// ```
+/// use residuary::singular::rational_poles::analyse_rational;
+/// use residuary::transforms::laplace::residues::residue_series;
+/// use residuary::C;
+/// // 1/(s + 2) ↔ e^{−2t} (Laplace transform table).
+/// let (num, den) = ([C::new(1.0, 0.0)], [C::new(2.0, 0.0), C::new(1.0, 0.0)]);
+/// let a = analyse_rational(&num, &den).unwrap();
+/// let f = residue_series(&a, &[0.5]);
+/// assert!((f[0].0.re - (-1.0f64).exp()).abs() <= f[0].1 + 1e-15);
+/// ```
+pub fn residue_series(analysis: &RationalAnalysis, times: &[f64]) -> Vec<(C, f64)> {
+    times.iter().map(|&t| residue_sum(analysis, t)).collect()
+}
+
+/// Where the poles put the system, with rounding at the poles' scale.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Stability {
+    /// Every pole has Re s < 0 (or there is none).
+    Stable,
+    /// The rightmost pole lies on the imaginary axis.
+    Marginal,
+    /// A pole with Re s > 0, the largest such real part.
+    Unstable(f64),
+}
+
+/// The stability the poles show (Re a < 0 for all a: common practice).
+pub fn stability(poles: &[C]) -> Stability {
+    let scale = poles.iter().map(|p| p.norm()).fold(1.0, f64::max);
+    let rightmost = poles.iter().map(|p| p.re).fold(f64::NEG_INFINITY, f64::max);
+    let rounding = crate::ways::ROUNDING * scale;
+    if rightmost > rounding {
+        Stability::Unstable(rightmost)
+    } else if rightmost >= -rounding {
+        Stability::Marginal
+    } else {
+        Stability::Stable
+    }
+}
+
 /// True when every coefficient of num and den is real (to rounding): then f is real.
 pub fn has_real_coefficients(num: &[C], den: &[C]) -> bool {
     let real = |p: &[C]| {

@@ -1,0 +1,7 @@
+//! The causal inverse z-transform x[n], n ≥ 0 (region of convergence outside
+//! every singularity): long division and residues for rational X, the
+//! trapezoidal rule on circles for any X.
+
+pub mod long_division;
+pub mod residues;
+pub mod trapezoid;
