@@ -86,6 +86,16 @@ impl ResidueForm {
         })
     }
 
+    /// The largest pole modulus: X is analytic for |z| greater than this.
+    pub fn singular_radius(&self) -> f64 {
+        self.poles.iter().map(|p| p.at.norm()).fold(0.0, f64::max)
+    }
+
+    /// x[n] and its error bound at each n of `ns`, in order.
+    pub fn values(&self, ns: &[u64]) -> Vec<(C, f64)> {
+        ns.iter().map(|&n| self.value(n)).collect()
+    }
+
     /// x[n] and a bound on its error.
     pub fn value(&self, n: u64) -> (C, f64) {
         if n == 0 {
