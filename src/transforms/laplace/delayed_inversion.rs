@@ -247,18 +247,15 @@ fn undelay(f: &Function, s: C, tau: f64, t_shifted: f64, dropped: &Cell<f64>) ->
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::reference::{check_method, simpson};
+    use crate::reference::check_method;
 
     fn compile(text: &str) -> Function {
         Function::compile(text, "s", &[]).unwrap()
     }
 
-    /// Slow reference: the Bromwich integral f(t) = (1/2π) ∫ e^{(c+iy)t} F(c+iy) dy
-    /// by Simpson's rule on |y| ≤ 4000 (F must decay fast along the line).
+    /// The slow reference on Re s = 1, |Im s| ≤ 4000 (F must decay like |s|^{−3}).
     fn bromwich(f: &Function, t: f64) -> C {
-        let c = 1.0;
-        let i = simpson(|y| (C::new(c, y) * t).exp() * f.eval(C::new(c, y)), -4000.0, 4000.0, 800_000);
-        i / (2.0 * std::f64::consts::PI)
+        crate::reference::bromwich(|s| f.eval(s), 1.0, t, 4000.0, 800_000)
     }
 
     #[test]

@@ -330,3 +330,43 @@ fn complex_pole_terms(p: &PoleInfo, tol: f64) -> Vec<(bool, String)> {
 fn join(terms: &[(bool, String)]) -> String {
     crate::singular::rational_poles::join_signed(terms)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::{bromwich, check_method};
+    use crate::singular::rational_poles::analyse_rational;
+
+    fn c(x: f64) -> C {
+        C::new(x, 0.0)
+    }
+
+    #[test]
+    fn the_residue_sum_matches_the_bromwich_integral() {
+        // 1/((s + 1)(s + 2)^2) ↔ e^{−t} − e^{−2t} − t e^{−2t} (partial fractions and the
+        // Laplace transform table, from memory); the slow reference is the line integral.
+        let num = [c(1.0)];
+        let den = crate::poly::mul(&[c(1.0), c(1.0)], &crate::poly::mul(&[c(2.0), c(1.0)], &[c(2.0), c(1.0)]));
+        let a = analyse_rational(&num, &den).unwrap();
+        let f = |s: C| 1.0 / ((s + 1.0) * (s + 2.0) * (s + 2.0));
+        let cases = [("t = 0.2", 0.2), ("t = 1", 1.0), ("t = 5", 5.0)];
+        check_method(&cases, |&t| {
+            let (v, e) = residue_sum(&a, t);
+            (v, Some(e))
+        }, |&t| bromwich(f, 0.5, t, 4000.0, 800_000), 1e-6);
+        let exact = |t: f64| (-t).exp() - (-2.0 * t).exp() - t * (-2.0 * t).exp();
+        for (v, &t) in residue_series(&a, &[0.2, 1.0, 5.0]).iter().zip(&[0.2, 1.0, 5.0]) {
+            crate::reference::assert_estimate_bounds(v.0, v.1.max(1e-16), c(exact(t)), "against the table");
+        }
+        assert_eq!(closed_form(&a, true), "(-1 - t)*exp(-2*t) + exp(-t)");
+    }
+
+    #[test]
+    fn stability_follows_the_rightmost_pole() {
+        // Common practice: Re a < 0 for every pole is stability; Re a = 0 marginal.
+        assert_eq!(stability(&[c(-1.0), C::new(-0.5, 2.0)]), Stability::Stable);
+        assert_eq!(stability(&[c(-1.0), C::new(1e-14, 2.0)]), Stability::Marginal);
+        assert_eq!(stability(&[c(-1.0), c(0.25)]), Stability::Unstable(0.25));
+        assert_eq!(stability(&[]), Stability::Stable);
+    }
+}
