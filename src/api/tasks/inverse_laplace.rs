@@ -94,11 +94,8 @@ pub struct InverseLaplaceResponse {
 
 pub fn run(req: &InverseLaplaceRequest) -> Result<InverseLaplaceResponse, ApiError> {
     let times = validate_times(&req.t)?;
-    let input = FunctionInput {
-        f: String::new(),
-        var: Some(req.var.clone().unwrap_or_else(|| "s".into())),
-        params: req.params.clone(),
-    };
+    let var = Some(req.var.clone().unwrap_or_else(|| "s".into()));
+    let input = FunctionInput { f: String::new(), var, params: req.params.clone() };
     let f = compile_text(&req.f, &input, "F")?;
     let mut budget = budget(req.max_evaluations);
     match f.rational() {

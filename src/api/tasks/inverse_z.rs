@@ -198,22 +198,24 @@ fn rational(f: &Function, num: &[C], den: &[C], ns: &[u64], budget: &mut Budget)
         c.radii
     });
     let real = num.iter().chain(den).all(|c| c.im == 0.0);
-    Ok(build(
-        Ways {
-            x: verdicts.iter().map(|v| v.value).collect(),
-            errors: verdicts.iter().map(|v| v.error).collect(),
-            by_residues: Some(by_residues.iter().map(|v| v.0.re).collect()),
-            by_long_division: by_division.map(|d| d.iter().map(|v| v.re).collect()),
-            contour: by_contour,
-            max_discrepancy: verdicts.iter().map(|v| v.max_discrepancy).fold(0.0, f64::max),
-        },
-        Some(form.closed_form(real)),
-        r0,
-        analysis.poles.iter().map(|p| PoleAt { at: [p.at.re, p.at.im], order: p.order }).collect(),
-        Method::Rational,
-        radii.unwrap_or_default(),
+    let x: Vec<C> = verdicts.iter().map(|v| v.value).collect();
+    let response = InverseZResponse {
+        x: x.iter().map(|v| v.re).collect(),
+        x_imag: None,
+        closed_form: Some(form.closed_form(real)),
+        error_estimates: verdicts.iter().map(|v| v.error).collect(),
+        roc: Roc { outer_radius_greater_than: r0 },
+        by_residues: Some(by_residues.iter().map(|v| v.0.re).collect()),
+        by_long_division: by_division.map(|d| d.iter().map(|v| v.re).collect()),
+        by_contour: by_contour.iter().map(|v| v.map(|v| v.0.re)).collect(),
+        contour_error_estimates: by_contour.iter().map(|v| v.map(|v| v.1)).collect(),
+        max_discrepancy: verdicts.iter().map(|v| v.max_discrepancy).fold(0.0, f64::max),
+        poles: analysis.poles.iter().map(|p| PoleAt { at: [p.at.re, p.at.im], order: p.order }).collect(),
+        method: Method::Rational,
+        contour_radii: radii.unwrap_or_default(),
         warnings,
-    ))
+    };
+    Ok(finish(response, &x))
 }
 
 fn contour_list(contour: Option<&ContourResult>, len: usize) -> Vec<Option<(C, f64)>> {
@@ -244,67 +246,36 @@ fn general(f: &Function, singular_radius: Option<f64>, ns: &[u64], budget: &mut 
         )));
     }
     warnings.extend(contour.warnings.iter().cloned());
-    Ok(build(
-        Ways {
-            x: values.iter().map(|v| v.map(|v| v.0).unwrap_or_default()).collect(),
-            errors: values.iter().map(|v| v.map(|v| v.1).unwrap_or(f64::INFINITY)).collect(),
-            by_residues: None,
-            by_long_division: None,
-            contour: values,
-            max_discrepancy: contour.radius_discrepancy,
-        },
-        None,
-        r0,
-        poles,
-        Method::Contour,
-        contour.radii,
-        warnings,
-    ))
-}
-
-/// The values and the ways they came from, per n.
-struct Ways {
-    x: Vec<C>,
-    errors: Vec<f64>,
-    by_residues: Option<Vec<f64>>,
-    by_long_division: Option<Vec<f64>>,
-    contour: Vec<Option<(C, f64)>>,
-    max_discrepancy: f64,
-}
-
-fn build(
-    w: Ways,
-    closed_form: Option<String>,
-    r0: f64,
-    poles: Vec<PoleAt>,
-    method: Method,
-    contour_radii: Vec<f64>,
-    mut warnings: Vec<String>,
-) -> InverseZResponse {
-    let scale = w.x.iter().map(|v| v.norm()).filter(|v| v.is_finite()).fold(0.0, f64::max);
-    // An imaginary part is significant beyond its estimate and rounding at the sequence's scale.
-    let significant = w.x.iter().zip(&w.errors).any(|(v, e)| v.im.abs() > e + ROUNDING * scale);
-    let x_imag = significant.then(|| {
-        warnings.push("x[n] is complex (X has complex coefficients): \"x\" holds the real parts, \"x_imag\" the imaginary parts".into());
-        w.x.iter().map(|v| v.im).collect()
-    });
-    if w.x.iter().any(|v| !(v.re.is_finite())) {
-        warnings.push("some x[n] overflow double precision (shown as null)".into());
-    }
-    InverseZResponse {
-        x: w.x.iter().map(|v| v.re).collect(),
-        x_imag,
-        closed_form,
-        error_estimates: w.errors,
+    let x: Vec<C> = values.iter().map(|v| v.map(|v| v.0).unwrap_or_default()).collect();
+    let response = InverseZResponse {
+        x: x.iter().map(|v| v.re).collect(),
+        x_imag: None,
+        closed_form: None,
+        error_estimates: values.iter().map(|v| v.map(|v| v.1).unwrap_or(f64::INFINITY)).collect(),
         roc: Roc { outer_radius_greater_than: r0 },
-        by_residues: w.by_residues,
-        by_long_division: w.by_long_division,
-        by_contour: w.contour.iter().map(|v| v.map(|v| v.0.re)).collect(),
-        contour_error_estimates: w.contour.iter().map(|v| v.map(|v| v.1)).collect(),
-        max_discrepancy: w.max_discrepancy,
+        by_residues: None,
+        by_long_division: None,
+        by_contour: values.iter().map(|v| v.map(|v| v.0.re)).collect(),
+        contour_error_estimates: values.iter().map(|v| v.map(|v| v.1)).collect(),
+        max_discrepancy: contour.radius_discrepancy,
         poles,
-        method,
-        contour_radii,
+        method: Method::Contour,
+        contour_radii: contour.radii,
         warnings,
+    };
+    Ok(finish(response, &x))
+}
+
+/// The imaginary parts (when significant) and the overflow warning, from the complex x.
+fn finish(mut r: InverseZResponse, x: &[C]) -> InverseZResponse {
+    let scale = x.iter().map(|v| v.norm()).filter(|v| v.is_finite()).fold(0.0, f64::max);
+    // An imaginary part is significant beyond its estimate and rounding at the sequence's scale.
+    if x.iter().zip(&r.error_estimates).any(|(v, e)| v.im.abs() > e + ROUNDING * scale) {
+        r.warnings.push("x[n] is complex (X has complex coefficients): \"x\" holds the real parts, \"x_imag\" the imaginary parts".into());
+        r.x_imag = Some(x.iter().map(|v| v.im).collect());
     }
+    if x.iter().any(|v| !v.re.is_finite()) {
+        r.warnings.push("some x[n] overflow double precision (shown as null)".into());
+    }
+    r
 }
