@@ -103,7 +103,7 @@ impl ResidueForm {
     ///     poles: vec![PoleTerm { at: C::new(0.5, 0.0), at_error: 0.0, coefficients: vec![C::new(0.5, 0.0)], coefficient_errors: vec![0.0] }],
     /// };
     /// let x = form.values(&[0, 1, 4]);
-    /// assert_eq!(x[2].0, C::new(0.0625, 0.0));
+    /// assert!((x[2].0 - C::new(0.0625, 0.0)).norm() <= x[2].1);
     /// assert_eq!(form.singular_radius(), 0.5);
     /// ```
     pub fn values(&self, ns: &[u64]) -> Vec<(C, f64)> {
