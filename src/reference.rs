@@ -117,6 +117,14 @@ pub fn check_method<T>(
     }
 }
 
+/// The inverse Laplace transform by the Bromwich integral taken as it is written,
+/// f(t) = (1/2π) ∫ e^{(c+iy)t} F(c+iy) dy on |y| ≤ `half_height`, by Simpson with
+/// `n` panels: F must be analytic for Re s ≥ c and decay fast along the line.
+pub fn bromwich(f: impl Fn(C) -> C, c: f64, t: f64, half_height: f64, n: usize) -> C {
+    let i = simpson(|y| (C::new(c, y) * t).exp() * f(C::new(c, y)), -half_height, half_height, n);
+    i / (2.0 * PI)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -1,7 +1,7 @@
 //! Integral transforms inverted through complex analysis: the inverse Laplace
-//! transform by residues (rational F) and by a numerical Bromwich contour
-//! (any F), and the detection of a pure delay e^{−τs}.
+//! transform (residues for rational F, the fixed Talbot contour for any F, a
+//! pure delay e^{−τs} detected and shifted out) and the causal inverse
+//! z-transform (long division, residues, the trapezoidal rule on circles).
 
-pub mod delay_estimate;
-pub mod fixed_talbot;
-pub mod laplace_residues;
+pub mod laplace;
+pub mod z;

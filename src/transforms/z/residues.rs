@@ -86,6 +86,30 @@ impl ResidueForm {
         })
     }
 
+    /// The largest pole modulus: X is analytic for |z| greater than this.
+    pub fn singular_radius(&self) -> f64 {
+        self.poles.iter().map(|p| p.at.norm()).fold(0.0, f64::max)
+    }
+
+    /// x[n] and its error bound at each n of `ns`, in order.
+    ///
+    /// ```
+    /// use residuary::transforms::z::residues::{PoleTerm, ResidueForm};
+    /// use residuary::C;
+    /// // z/(z − 0.5) = 1 + 0.5/(z − 0.5) ↔ 0.5^n (z-transform table).
+    /// let form = ResidueForm {
+    ///     constant: C::new(1.0, 0.0),
+    ///     constant_error: 0.0,
+    ///     poles: vec![PoleTerm { at: C::new(0.5, 0.0), at_error: 0.0, coefficients: vec![C::new(0.5, 0.0)], coefficient_errors: vec![0.0] }],
+    /// };
+    /// let x = form.values(&[0, 1, 4]);
+    /// assert!((x[2].0 - C::new(0.0625, 0.0)).norm() <= x[2].1);
+    /// assert_eq!(form.singular_radius(), 0.5);
+    /// ```
+    pub fn values(&self, ns: &[u64]) -> Vec<(C, f64)> {
+        ns.iter().map(|&n| self.value(n)).collect()
+    }
+
     /// x[n] and a bound on its error.
     pub fn value(&self, n: u64) -> (C, f64) {
         if n == 0 {

@@ -13,6 +13,7 @@
 use crate::poly::taylor::div_trunc;
 use crate::error::Failure;
 use crate::poly::{divrem, trim};
+use crate::singular::rational_poles::RemovableInfo;
 use crate::C;
 
 /// x[0..count) of the causal inverse of num/den (ascending coefficients).
@@ -39,6 +40,39 @@ pub fn causal_sequence(num: &[C], den: &[C], count: usize) -> Result<Vec<C>, Fai
     let mut x = vec![zero; count.min(shift)];
     x.extend(t);
     Ok(x)
+}
+
+/// Most coefficient operations one division may take.
+pub const WORK_LIMIT: usize = 50_000_000;
+
+/// x[n] for each n in `ns` of the reduced X: the factors common to numerator
+/// and denominator (`common`, from the exact analysis) are divided out first.
+/// `None` when the division would take more than `WORK_LIMIT` operations.
+///
+/// ```
+/// use residuary::transforms::z::long_division::values_at;
+/// use residuary::C;
+/// // z/(z − 0.5) ↔ 0.5^n (z-transform table).
+/// let x = values_at(&[C::new(0.0, 0.0), C::new(1.0, 0.0)], &[C::new(-0.5, 0.0), C::new(1.0, 0.0)], &[], &[3]).unwrap().unwrap();
+/// assert_eq!(x[0], C::new(0.125, 0.0));
+/// ```
+pub fn values_at(
+    num: &[C],
+    den: &[C],
+    common: &[RemovableInfo],
+    ns: &[u64],
+) -> Result<Option<Vec<C>>, Failure> {
+    let (mut rn, mut rd) = (num.to_vec(), den.to_vec());
+    for r in common {
+        rn = deflate(&rn, r.at, r.cancelled_order);
+        rd = deflate(&rd, r.at, r.cancelled_order);
+    }
+    let n_max = ns.iter().copied().max().unwrap_or(0) as usize;
+    if (n_max + 1).saturating_mul(rn.len() + rd.len()) > WORK_LIMIT {
+        return Ok(None);
+    }
+    let seq = causal_sequence(&rn, &rd, n_max + 1)?;
+    Ok(Some(ns.iter().map(|&n| seq[n as usize]).collect()))
 }
 
 /// Divide `p` by (z − a)^k, dropping the (rounding-level) remainder: removes a
@@ -87,6 +121,26 @@ mod tests {
         let x = causal_sequence(&[c(1.0)], &[c(-0.5), c(1.0)], 4).unwrap();
         assert_eq!(x[0], c(0.0));
         assert!((x[3].re - 0.25).abs() < 1e-15);
+    }
+
+    #[test]
+    fn a_common_factor_is_divided_out_before_the_division() {
+        // (z − 2)z/((z − 2)(z − 0.5)) = z/(z − 0.5) ↔ 0.5^n (z-transform table, from memory);
+        // checked against the slow reference: the naive DFT coefficient of X(1/w) at w = 0.
+        let num = crate::poly::mul(&[c(-2.0), c(1.0)], &[c(0.0), c(1.0)]);
+        let den = crate::poly::mul(&[c(-2.0), c(1.0)], &[c(-0.5), c(1.0)]);
+        let common = [RemovableInfo { at: c(2.0), value: c(0.0), cancelled_order: 1 }];
+        let ns = [0u64, 1, 7, 30];
+        let x = values_at(&num, &den, &common, &ns).unwrap().unwrap();
+        let reduced = |w: C| 1.0 / (1.0 - 0.5 * w);
+        let cases: Vec<(String, usize)> = ns.iter().enumerate().map(|(i, n)| (format!("n = {n}"), i)).collect();
+        let cases: Vec<(&str, usize)> = cases.iter().map(|(s, i)| (s.as_str(), *i)).collect();
+        crate::reference::check_method(
+            &cases,
+            |&i| (x[i], None),
+            |&i| crate::reference::naive_circle_coefficient(reduced, c(0.0), 1.0, 256, ns[i] as i64),
+            1e-13,
+        );
     }
 
     #[test]

@@ -128,6 +128,15 @@ pub fn talbot_sum(
 
 /// f(t) by fixed Talbot on `plan`, with the coarse rule (same contour shape,
 /// fewer nodes in proportion) for the error estimate.
+///
+/// ```
+/// use residuary::budget::Budget;
+/// use residuary::transforms::laplace::fixed_talbot::{invert, plan, NODES};
+/// use residuary::C;
+/// // 1/(s + 1) ↔ e^{−t} (Laplace transform table).
+/// let v = invert(&mut |s: C| 1.0 / (s + 1.0), 2.0, plan(2.0, &[C::new(-1.0, 0.0)], NODES), &mut Budget::default()).unwrap();
+/// assert!((v.value.re - (-2.0f64).exp()).abs() <= v.error_estimate);
+/// ```
 pub fn invert(
     f: &mut dyn FnMut(C) -> C,
     t: f64,
@@ -159,4 +168,69 @@ pub fn invert(
         rounding,
         plan,
     })
+}
+
+/// f(t) at every time in `times` with the contour enclosing `singular`; `None`
+/// where F was not finite on the contour (overflow or an unseen singularity).
+/// Running out of budget stops the whole series.
+pub fn invert_each(
+    f: &mut dyn FnMut(C) -> C,
+    times: &[f64],
+    singular: &[C],
+    budget: &mut Budget,
+) -> Result<Vec<Option<TalbotValue>>, BudgetExceeded> {
+    times
+        .iter()
+        .map(|&t| match invert(f, t, plan(t, singular, NODES), budget) {
+            Ok(v) => Ok(Some(v)),
+            Err(TalbotError::NotFinite { .. }) => Ok(None),
+            Err(TalbotError::Budget(e)) => Err(e),
+        })
+        .collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::{bromwich, check_method};
+
+    #[test]
+    fn talbot_matches_the_bromwich_integral_and_its_estimate_bounds_the_error() {
+        // 1/(s + 1)^3 ↔ t² e^{−t}/2 (Laplace transform table, from memory); the slow
+        // reference is the Bromwich line integral itself, on Re s = 0.5.
+        let f = |s: C| 1.0 / ((s + 1.0) * (s + 1.0) * (s + 1.0));
+        let poles = [C::new(-1.0, 0.0)];
+        let cases = [("t = 0.1", 0.1), ("t = 1", 1.0), ("t = 4", 4.0), ("t = 10", 10.0)];
+        check_method(
+            &cases,
+            |&t| {
+                let v = invert(&mut |s| f(s), t, plan(t, &poles, NODES), &mut Budget::default()).unwrap();
+                (v.value, Some(v.error_estimate))
+            },
+            |&t| bromwich(f, 0.5, t, 4000.0, 800_000),
+            1e-6,
+        );
+    }
+
+    #[test]
+    fn high_poles_widen_the_contour_and_stay_inside() {
+        // ω/(s² + ω²) ↔ sin ωt (Laplace transform table), ω = 30: the nominal contour
+        // would leave the poles ±30i outside.
+        let w = 30.0;
+        let poles = [C::new(0.0, w), C::new(0.0, -w)];
+        let p = plan(1.0, &poles, NODES);
+        assert!(p.r >= w / THETA_MAX && p.nodes > NODES, "{p:?}");
+        let v = invert(&mut |s: C| w / (s * s + w * w), 1.0, p, &mut Budget::default()).unwrap();
+        crate::reference::assert_estimate_bounds(v.value, v.error_estimate, C::new(w.sin(), 0.0), "sin 30t at t = 1");
+        // Four digits at least (rounding of the e^{rt}-sized terms limits it).
+        assert!(v.error_estimate < 1e-4, "{}", v.error_estimate);
+    }
+
+    #[test]
+    fn a_singularity_on_the_contour_is_not_finite() {
+        // 1/s sampled on a contour that passes through s = 0.8 (its r·θ·cot θ at θ = 0).
+        let p = TalbotPlan { nodes: 24, r: 0.8, shift: 0.0 };
+        let r = talbot_sum(&mut |s: C| 1.0 / (s - 0.8), 1.0, p, &mut Budget::default());
+        assert!(matches!(r, Err(TalbotError::NotFinite { .. })), "{r:?}");
+    }
 }

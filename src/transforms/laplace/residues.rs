@@ -50,6 +50,47 @@ pub fn residue_sum(analysis: &RationalAnalysis, t: f64) -> (C, f64) {
     (value, if error.is_finite() { error } else { f64::MAX })
 }
 
+/// The residue sum at every time, in order: (value, error estimate) per t.
+///
+/// ```
+/// use residuary::singular::rational_poles::analyse_rational;
+/// use residuary::transforms::laplace::residues::residue_series;
+/// use residuary::C;
+/// // 1/(s + 2) ↔ e^{−2t} (Laplace transform table).
+/// let (num, den) = ([C::new(1.0, 0.0)], [C::new(2.0, 0.0), C::new(1.0, 0.0)]);
+/// let a = analyse_rational(&num, &den).unwrap();
+/// let f = residue_series(&a, &[0.5]);
+/// assert!((f[0].0.re - (-1.0f64).exp()).abs() <= f[0].1 + 1e-15);
+/// ```
+pub fn residue_series(analysis: &RationalAnalysis, times: &[f64]) -> Vec<(C, f64)> {
+    times.iter().map(|&t| residue_sum(analysis, t)).collect()
+}
+
+/// Where the poles put the system, with rounding at the poles' scale.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Stability {
+    /// Every pole has Re s < 0 (or there is none).
+    Stable,
+    /// The rightmost pole lies on the imaginary axis.
+    Marginal,
+    /// A pole with Re s > 0, the largest such real part.
+    Unstable(f64),
+}
+
+/// The stability the poles show (Re a < 0 for all a: common practice).
+pub fn stability(poles: &[C]) -> Stability {
+    let scale = poles.iter().map(|p| p.norm()).fold(1.0, f64::max);
+    let rightmost = poles.iter().map(|p| p.re).fold(f64::NEG_INFINITY, f64::max);
+    let rounding = crate::ways::ROUNDING * scale;
+    if rightmost > rounding {
+        Stability::Unstable(rightmost)
+    } else if rightmost >= -rounding {
+        Stability::Marginal
+    } else {
+        Stability::Stable
+    }
+}
+
 /// True when every coefficient of num and den is real (to rounding): then f is real.
 pub fn has_real_coefficients(num: &[C], den: &[C]) -> bool {
     let real = |p: &[C]| {
@@ -288,4 +329,44 @@ fn complex_pole_terms(p: &PoleInfo, tol: f64) -> Vec<(bool, String)> {
 /// Signed terms joined: `a - b + c`; "0" when empty.
 fn join(terms: &[(bool, String)]) -> String {
     crate::singular::rational_poles::join_signed(terms)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::{bromwich, check_method};
+    use crate::singular::rational_poles::analyse_rational;
+
+    fn c(x: f64) -> C {
+        C::new(x, 0.0)
+    }
+
+    #[test]
+    fn the_residue_sum_matches_the_bromwich_integral() {
+        // 1/((s + 1)(s + 2)^2) ↔ e^{−t} − e^{−2t} − t e^{−2t} (partial fractions and the
+        // Laplace transform table, from memory); the slow reference is the line integral.
+        let num = [c(1.0)];
+        let den = crate::poly::mul(&[c(1.0), c(1.0)], &crate::poly::mul(&[c(2.0), c(1.0)], &[c(2.0), c(1.0)]));
+        let a = analyse_rational(&num, &den).unwrap();
+        let f = |s: C| 1.0 / ((s + 1.0) * (s + 2.0) * (s + 2.0));
+        let cases = [("t = 0.2", 0.2), ("t = 1", 1.0), ("t = 5", 5.0)];
+        check_method(&cases, |&t| {
+            let (v, e) = residue_sum(&a, t);
+            (v, Some(e))
+        }, |&t| bromwich(f, 0.5, t, 4000.0, 800_000), 1e-6);
+        let exact = |t: f64| (-t).exp() - (-2.0 * t).exp() - t * (-2.0 * t).exp();
+        for (v, &t) in residue_series(&a, &[0.2, 1.0, 5.0]).iter().zip(&[0.2, 1.0, 5.0]) {
+            crate::reference::assert_estimate_bounds(v.0, v.1.max(1e-16), c(exact(t)), "against the table");
+        }
+        assert_eq!(closed_form(&a, true), "(-1 - t)*exp(-2*t) + exp(-t)");
+    }
+
+    #[test]
+    fn stability_follows_the_rightmost_pole() {
+        // Common practice: Re a < 0 for every pole is stability; Re a = 0 marginal.
+        assert_eq!(stability(&[c(-1.0), C::new(-0.5, 2.0)]), Stability::Stable);
+        assert_eq!(stability(&[c(-1.0), C::new(1e-14, 2.0)]), Stability::Marginal);
+        assert_eq!(stability(&[c(-1.0), c(0.25)]), Stability::Unstable(0.25));
+        assert_eq!(stability(&[]), Stability::Stable);
+    }
 }

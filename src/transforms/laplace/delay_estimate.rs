@@ -30,6 +30,17 @@ fn slope(f: &mut dyn FnMut(C) -> (C, C), y: f64) -> Option<C> {
 }
 
 /// τ when F (value and derivative) behaves like e^{−τs} × algebraic growth, else None.
+///
+/// ```
+/// use residuary::transforms::laplace::delay_estimate::estimate_delay;
+/// use residuary::C;
+/// // F = e^{−2s}/(s + 1) and F′ = −F·(2 + 1/(s + 1)).
+/// let tau = estimate_delay(&mut |s: C| {
+///     let f = (-2.0 * s).exp() / (s + 1.0);
+///     (f, -f * (2.0 + 1.0 / (s + 1.0)))
+/// });
+/// assert!((tau.unwrap() - 2.0).abs() < 1e-6);
+/// ```
 pub fn estimate_delay(f: &mut dyn FnMut(C) -> (C, C)) -> Option<f64> {
     let near = slope(f, 1e5)?;
     let far = slope(f, 1e6)?;
@@ -63,4 +74,40 @@ pub fn left_growth_rate(f: &mut dyn FnMut(C) -> C) -> f64 {
         rate = rate.max(k);
     }
     rate
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // The slow reference here is the definition: F = e^{−τs}G with G algebraic has τ as its
+    // delay (the shift theorem, common practice); F and F′ are written out by hand.
+    fn delayed(tau: f64) -> impl FnMut(C) -> (C, C) {
+        move |s: C| {
+            let g = 1.0 / (s * s + 2.0 * s + 5.0);
+            let dg = -(2.0 * s + 2.0) * g * g;
+            let e = (-tau * s).exp();
+            (e * g, e * (dg - tau * g))
+        }
+    }
+
+    #[test]
+    fn a_single_delay_is_read_from_the_phase() {
+        for tau in [0.25, 1.0, 3.5] {
+            let got = estimate_delay(&mut delayed(tau)).expect("a delay");
+            assert!((got - tau).abs() < 1e-6 * tau, "τ = {tau}: got {got}");
+        }
+        assert_eq!(estimate_delay(&mut delayed(0.0)), None, "no delay");
+    }
+
+    #[test]
+    fn two_delays_are_not_one_but_grow_to_the_left() {
+        // (1 − e^{−s})/s: the unit pulse, jumps at t = 0 and t = 1 (shift theorem).
+        let mut pulse = |s: C| ((1.0 - (-s).exp()) / s, ((-s).exp() * s - (1.0 - (-s).exp())) / (s * s));
+        assert_eq!(estimate_delay(&mut pulse), None);
+        let kappa = left_growth_rate(&mut |s: C| (1.0 - (-s).exp()) / s);
+        // |F| ~ e^{R}/R far left: the rate is 1 less a logarithmic term (ln 2/40 ≈ 0.017).
+        assert!((kappa - 1.0).abs() < 0.05, "{kappa}");
+        assert_eq!(left_growth_rate(&mut |s: C| 1.0 / (s + 1.0)), 0.0, "algebraic decay is no growth");
+    }
 }
