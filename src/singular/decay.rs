@@ -149,13 +149,13 @@ mod tests {
     fn arc_maxima_match_dense_sampling() {
         let lorentz = |z: C| 1.0 / (z * z + 1.0);
         let shifted = |z: C| 1.0 / (z - C::new(0.5, 2.0));
-        let growing = |z: C| (-(z * z)).exp();
+        let growing = |z: C| (C::new(0.0, 1.0) * z).exp() / z;
         type F<'a> = &'a dyn Fn(C) -> C;
         let cases: [(&str, (F, f64, f64)); 4] = [
             ("1/(z²+1), upper, ρ = 4", (&lorentz, 4.0, 1.0)),
             ("1/(z²+1), lower, ρ = 16", (&lorentz, 16.0, -1.0)),
             ("1/(z − 0.5 − 2i), upper, ρ = 8", (&shifted, 8.0, 1.0)),
-            ("e^{−z²}, upper, ρ = 3", (&growing, 3.0, 1.0)),
+            ("e^{iz}/z, lower, ρ = 0.5 (grows like e^{ρ sin φ})", (&growing, 0.5, -1.0)),
         ];
         // 48 angles miss the true maximum by O((π/96)²) of the curvature: 1e-3 relative.
         check_method(
