@@ -14,6 +14,9 @@
 //! from f's principal part and the Taylor series of z^{α−1} on that branch
 //! (`integrals::product_residue::power_taylor`).
 
+// `!(a <= b)` is deliberate: a NaN must take the cautious branch.
+#![allow(clippy::neg_cmp_op_on_partial_ord)]
+
 use super::product_residue::{power_taylor, product_residue, ResidueSum, Role, Term};
 use super::real_line::on_real_axis;
 use crate::error::Failure;

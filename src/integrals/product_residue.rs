@@ -32,6 +32,22 @@ pub enum Role {
     KeyholePole { order: u32 },
 }
 
+impl Role {
+    /// The point and its weight in words (the `note` of the real-integral response).
+    pub fn note(self) -> String {
+        match self {
+            Role::HalfPlanePole { order, upper } => {
+                format!("pole of order {order} in the {} half-plane", if upper { "upper" } else { "lower" })
+            }
+            Role::RealAxisPole => "simple pole on the real axis: principal value, half weight".into(),
+            Role::LocatedPole { order } => format!("pole of order {order} (located numerically)"),
+            Role::DiskPole { order } => format!("pole of order {order} inside |z| = 1"),
+            Role::DiskEssential => "essential singularity inside |z| = 1".into(),
+            Role::KeyholePole { order } => format!("pole of order {order}; residue of z^(α−1) f with arg z in (0, 2π)"),
+        }
+    }
+}
+
 /// One term w · Res of a residue sum.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Term {

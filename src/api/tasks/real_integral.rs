@@ -18,7 +18,7 @@ use crate::api::input::{budget, compile, hints};
 use crate::api::wire::{pair, FunctionInput, Number};
 use crate::budget::Budget;
 use crate::expr::Function;
-use crate::integrals::product_residue::{ResidueSum, Role};
+use crate::integrals::product_residue::ResidueSum;
 use crate::integrals::{keyhole, real_line, unit_circle};
 use crate::quad::real_line::{line_integral, log_substituted_integral, periodic_integral};
 use crate::quad::QuadResult;
@@ -120,20 +120,14 @@ pub fn run(req: &RealIntegralRequest) -> Result<RealIntegralResponse, ApiError> 
     let mut budget = budget(req.max_evaluations);
     let mut warnings = Vec::new();
     let kind = req.kind.trim().to_ascii_lowercase();
-    let real_param = |n: Option<Number>, name: &str| -> Result<f64, ApiError> {
-        let Some(n) = n else {
-            return Err(ApiError::invalid(format!("kind \"{kind}\" needs \"{name}\" (a real number)")));
-        };
-        let z = n.to_c();
-        if !(z.re.is_finite() && z.im == 0.0) {
-            return Err(ApiError::invalid(format!("\"{name}\" must be a finite real number")));
-        }
-        Ok(z.re)
-    };
     let (side, quadrature) = match kind.as_str() {
         "line" => line(&f, 0.0, &mut budget, &mut warnings)?,
         "fourier" => {
-            let omega = real_param(req.omega, "omega")?;
+            let omega = match req.omega.map(Number::to_c) {
+                None => return Err(ApiError::invalid(format!("kind \"{kind}\" needs \"omega\" (a real number)"))),
+                Some(w) if !(w.re.is_finite() && w.im == 0.0) => return Err(ApiError::invalid("\"omega\" must be a finite real number")),
+                Some(w) => w.re,
+            };
             if omega == 0.0 {
                 warnings.push("ω = 0: the Fourier integral is the line integral ∫ f(x) dx".into());
             }
@@ -149,11 +143,7 @@ pub fn run(req: &RealIntegralRequest) -> Result<RealIntegralResponse, ApiError> 
             let alpha = crate::api::input::finite(alpha, "alpha")?;
             mellin(&f, alpha, &mut budget, &mut warnings)?
         }
-        other => {
-            return Err(ApiError::invalid(format!(
-                "unknown kind \"{other}\"; use \"line\", \"fourier\", \"trig\" or \"mellin\""
-            )))
-        }
+        other => return Err(ApiError::invalid(format!("unknown kind \"{other}\"; use \"line\", \"fourier\", \"trig\" or \"mellin\""))),
     };
     Ok(assemble(side, quadrature, warnings))
 }
@@ -211,20 +201,6 @@ fn mellin(f: &Function, alpha: crate::C, budget: &mut Budget, warnings: &mut Vec
     Ok((ResidueSide { sum: Some(sum), method: Method::Rational, formula, principal_value: false }, q))
 }
 
-/// The note on the wire for a residue's role.
-fn note(role: Role) -> String {
-    match role {
-        Role::HalfPlanePole { order, upper } => {
-            format!("pole of order {order} in the {} half-plane", if upper { "upper" } else { "lower" })
-        }
-        Role::RealAxisPole => "simple pole on the real axis: principal value, half weight".into(),
-        Role::LocatedPole { order } => format!("pole of order {order} (located numerically)"),
-        Role::DiskPole { order } => format!("pole of order {order} inside |z| = 1"),
-        Role::DiskEssential => "essential singularity inside |z| = 1".into(),
-        Role::KeyholePole { order } => format!("pole of order {order}; residue of z^(α−1) f with arg z in (0, 2π)"),
-    }
-}
-
 /// Reconcile the two ways (residues preferred for rational f) and write the response.
 fn assemble(side: ResidueSide, q: QuadResult, mut warnings: Vec<String>) -> RealIntegralResponse {
     if !q.converged {
@@ -250,15 +226,8 @@ fn assemble(side: ResidueSide, q: QuadResult, mut warnings: Vec<String>) -> Real
         value: pair(verdict.value),
         by_quadrature: pair(quad.value),
         by_residues: residues.map(|w| pair(w.value)),
-        residues_used: terms
-            .into_iter()
-            .map(|t| ResidueUsed {
-                at: pair(t.at),
-                residue: pair(t.residue),
-                weight: pair(t.weight),
-                note: note(t.role),
-                error_estimate: t.error,
-            })
+        residues_used: (terms.into_iter())
+            .map(|t| ResidueUsed { at: pair(t.at), residue: pair(t.residue), weight: pair(t.weight), note: t.role.note(), error_estimate: t.error })
             .collect(),
         max_discrepancy: verdict.max_discrepancy,
         error_estimate: verdict.error,
