@@ -136,9 +136,7 @@ pub fn run(req: &RealIntegralRequest) -> Result<RealIntegralResponse, ApiError> 
         "trig" => trig(&f, &mut budget, &mut warnings)?,
         "mellin" => {
             let Some(alpha) = req.alpha else {
-                return Err(ApiError::invalid(
-                    "kind \"mellin\" needs \"alpha\" (a number or [re, im]): the integral is ∫_0^∞ x^(alpha−1) f(x) dx",
-                ));
+                return Err(ApiError::invalid("kind \"mellin\" needs \"alpha\" (a number or [re, im]): the integral is ∫_0^∞ x^(alpha−1) f(x) dx"));
             };
             let alpha = crate::api::input::finite(alpha, "alpha")?;
             mellin(&f, alpha, &mut budget, &mut warnings)?
@@ -187,9 +185,7 @@ fn trig(f: &Function, budget: &mut Budget, warnings: &mut Vec<String>) -> Result
 /// `mellin`: the keyhole sum for rational f; quadrature in u = ln x.
 fn mellin(f: &Function, alpha: crate::C, budget: &mut Budget, warnings: &mut Vec<String>) -> Result<Sides, ApiError> {
     let Some(r) = f.rational() else {
-        return Err(ApiError::invalid(
-            "kind \"mellin\" needs f rational in the variable (a ratio of polynomials) with no poles on (0, ∞); for other f use kind \"line\" after the substitution x = e^u",
-        ));
+        return Err(ApiError::invalid("kind \"mellin\" needs f rational in the variable (a ratio of polynomials) with no poles on (0, ∞); for other f use kind \"line\" after the substitution x = e^u"));
     };
     let (num, den) = (crate::poly::trim(&r.num), crate::poly::trim(&r.den));
     keyhole::check_alpha(&num, &den, alpha)?;
@@ -204,10 +200,8 @@ fn mellin(f: &Function, alpha: crate::C, budget: &mut Budget, warnings: &mut Vec
 /// Reconcile the two ways (residues preferred for rational f) and write the response.
 fn assemble(side: ResidueSide, q: QuadResult, mut warnings: Vec<String>) -> RealIntegralResponse {
     if !q.converged {
-        warnings.push(format!(
-            "the quadrature did not reach its tolerance (error estimate {:.1e}); f may vary sharply or decay slowly",
-            q.error_estimate
-        ));
+        let e = q.error_estimate;
+        warnings.push(format!("the quadrature did not reach its tolerance (error estimate {e:.1e}); f may vary sharply or decay slowly"));
     }
     let residues = side.sum.as_ref().map(|s| Way::new(WayName::Residues, s.value, s.error));
     let quad = Way::new(WayName::Quadrature, q.value, q.error_estimate);
