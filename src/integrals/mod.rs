@@ -4,5 +4,6 @@
 
 pub mod contour_residues;
 pub mod keyhole;
+pub mod product_residue;
 pub mod real_line;
 pub mod unit_circle;

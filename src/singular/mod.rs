@@ -12,7 +12,6 @@ pub mod cut_crossing;
 pub mod decay;
 pub mod meromorphic;
 pub mod newton_refine;
-pub mod product_residue;
 pub mod rational_check;
 pub mod rational_in_region;
 pub mod rational_poles;

@@ -8,12 +8,79 @@
 //! two entire or branch factors the real-integral task needs are given here:
 //! e^{iωz} (Fourier integrals) and z^β on the branch arg z ∈ [0, 2π) (Mellin
 //! integrals on a keyhole contour).
+//!
+//! Also here: [`Term`] and [`ResidueSum`], the weighted sum Σ wₖ Res(aₖ) that
+//! each residue method for real integrals (`real_line`, `unit_circle`,
+//! `keyhole`) returns.
 
 use crate::C;
+
+/// Why a point is in a residue sum, and so why it has its weight.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Role {
+    /// A pole of the given order in the half-plane the contour closes in (upper or lower).
+    HalfPlanePole { order: u32, upper: bool },
+    /// A simple pole on the real axis: principal value, half weight.
+    RealAxisPole,
+    /// A pole of a non-rational f, located numerically.
+    LocatedPole { order: u32 },
+    /// A pole of g(z) = f(−i log z)/(iz) inside |z| = 1.
+    DiskPole { order: u32 },
+    /// An essential singularity of g inside |z| = 1.
+    DiskEssential,
+    /// A pole of f off the cut; the residue is that of z^(α−1) f with arg z in (0, 2π).
+    KeyholePole { order: u32 },
+}
+
+impl Role {
+    /// The point and its weight in words (the `note` of the real-integral response).
+    pub fn note(self) -> String {
+        match self {
+            Role::HalfPlanePole { order, upper } => {
+                format!("pole of order {order} in the {} half-plane", if upper { "upper" } else { "lower" })
+            }
+            Role::RealAxisPole => "simple pole on the real axis: principal value, half weight".into(),
+            Role::LocatedPole { order } => format!("pole of order {order} (located numerically)"),
+            Role::DiskPole { order } => format!("pole of order {order} inside |z| = 1"),
+            Role::DiskEssential => "essential singularity inside |z| = 1".into(),
+            Role::KeyholePole { order } => format!("pole of order {order}; residue of z^(α−1) f with arg z in (0, 2π)"),
+        }
+    }
+}
+
+/// One term w · Res of a residue sum.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Term {
+    pub at: C,
+    /// The residue of the whole integrand at `at`.
+    pub residue: C,
+    pub weight: C,
+    /// Bound on the residue's error.
+    pub error: f64,
+    pub role: Role,
+}
+
+/// A residue sum: its terms, the value Σ weight · residue and a bound on its error.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ResidueSum {
+    pub terms: Vec<Term>,
+    pub value: C,
+    pub error: f64,
+}
 
 /// Res[f·g, a] from f's principal part `c₋₁, c₋₂, …` (in that order) and g's
 /// Taylor coefficients `g^{(j)}(a)/j!`, j = 0, 1, …; with an error bound from
 /// the principal-part error bounds `errors` (same order; missing entries count as 0).
+///
+/// ```
+/// use residuary::integrals::product_residue::{exp_taylor, product_residue};
+/// use residuary::C;
+/// // Res[e^{iz}/(z − i)², i] = i e^{i·i} = i/e (the derivative of e^{iz} at i).
+/// let a = C::new(0.0, 1.0);
+/// let pp = [C::new(0.0, 0.0), C::new(1.0, 0.0)]; // c₋₁ = 0, c₋₂ = 1
+/// let (r, err) = product_residue(&pp, &[0.0; 2], &exp_taylor(1.0, a, 2));
+/// assert!((r - C::new(0.0, (-1f64).exp())).norm() <= err + 1e-15);
+/// ```
 pub fn product_residue(principal_part: &[C], errors: &[f64], taylor: &[C]) -> (C, f64) {
     let mut sum = C::new(0.0, 0.0);
     let mut err = 0.0;
@@ -74,15 +141,9 @@ pub fn power_taylor(beta: C, a: C, n: usize) -> Vec<C> {
 mod tests {
     use super::*;
 
-    /// Slow reference: the residue as the trapezoidal mean of (z − a) f g on a small circle.
+    /// Slow reference: the residue as the naive DFT coefficient c₋₁ on a small circle.
     fn residue_by_circle(h: &dyn Fn(C) -> C, a: C, r: f64) -> C {
-        let n = 256;
-        let mut s = C::new(0.0, 0.0);
-        for k in 0..n {
-            let w = C::from_polar(r, 2.0 * std::f64::consts::PI * k as f64 / n as f64);
-            s += h(a + w) * w;
-        }
-        s / n as f64
+        crate::reference::naive_circle_coefficient(h, a, r, 256, -1)
     }
 
     #[test]
