@@ -194,7 +194,6 @@ pub fn inside_sum(points: &[Singular]) -> Option<Way> {
 /// assert!((ways.inside.unwrap().value - want).norm() < 1e-9);
 /// assert!(ways.outside.is_none());
 /// ```
-#[allow(clippy::too_many_arguments)]
 pub fn general_residue_ways(
     f: &dyn Fn(C) -> C,
     fd: &dyn Fn(C) -> (C, C),

@@ -65,10 +65,7 @@ pub fn run(req: &ArgumentCountRequest) -> Result<ArgumentCountResponse, ApiError
     let count = count_by_argument_principle(&eval, contour, &mut budget)?;
     let (wound, method) = match f.rational() {
         Some(r) => (rational_wound_points(&r.num, &r.den, &eval_d, contour)?, Method::Rational),
-        None => {
-            let regions = contour_as_regions(contour);
-            (general_wound_points(&eval, &eval_d, &hints(&f), contour, &regions, &mut budget), Method::Numerical)
-        }
+        None => (general_wound_points(&eval, &eval_d, &hints(&f), contour, &contour_as_regions(contour), &mut budget), Method::Numerical),
     };
     let mut warnings = wound.warnings.clone();
     let (mut zeros, mut poles) = (None, None);
@@ -92,11 +89,8 @@ pub fn run(req: &ArgumentCountRequest) -> Result<ArgumentCountResponse, ApiError
     if wound.any_clockwise() {
         warnings.push("the contour runs clockwise around some points: each zero and pole is counted with its winding number, so counts there are negative".into());
     }
-    let points = wound.points.iter().flatten().map(|p| CountedPoint {
-        at: pair(p.at),
-        kind: if p.kind == ZeroOrPole::Zero { CountedKind::Zero } else { CountedKind::Pole },
-        order: p.order,
-        winding: p.winding,
-    });
+    let kind = |k| if k == ZeroOrPole::Zero { CountedKind::Zero } else { CountedKind::Pole };
+    let points = wound.points.iter().flatten();
+    let points = points.map(|p| CountedPoint { at: pair(p.at), kind: kind(p.kind), order: p.order, winding: p.winding });
     Ok(ArgumentCountResponse { zeros, poles, zeros_minus_poles: count, points: points.collect(), method, warnings })
 }
