@@ -163,6 +163,27 @@ impl Contour {
         }
     }
 
+    /// +1 for a counter-clockwise contour, −1 for a clockwise one.
+    ///
+    /// Circles, ellipses and rectangles run counter-clockwise (see the module
+    /// doc); a polygon's orientation is the sign of its signed area by the
+    /// shoelace formula, A = ½ Σ (x_k y_{k+1} − x_{k+1} y_k) (common practice).
+    /// A self-intersecting polygon gets the sign of its net area.
+    ///
+    /// ```
+    /// use residuary::contour::Contour;
+    /// let clockwise = Contour::Polygon { vertices: vec![[0.0, 0.0], [0.0, 1.0], [1.0, 1.0], [1.0, 0.0]] };
+    /// assert_eq!(clockwise.orientation(), -1);
+    /// assert_eq!(Contour::Circle { center: [0.0, 0.0], radius: 1.0 }.orientation(), 1);
+    /// ```
+    pub fn orientation(&self) -> i32 {
+        if self.signed_area() < 0.0 {
+            -1
+        } else {
+            1
+        }
+    }
+
     fn signed_area(&self) -> f64 {
         let v = self.vertices();
         let n = v.len();
@@ -377,5 +398,19 @@ mod tests {
     fn json_shape_round_trips() {
         let s: Contour = serde_json::from_str(r#"{"shape":"ellipse","center":[1,2],"semi_axes":[3,1]}"#).unwrap();
         assert_eq!(s, Contour::Ellipse { center: [1.0, 2.0], semi_axes: [3.0, 1.0], angle: 0.0 });
+    }
+
+    #[test]
+    fn orientation_is_the_winding_about_an_inside_point() {
+        // For a simple closed curve the winding number about any inside point is
+        // +1 counter-clockwise and −1 clockwise (Jordan curve theorem, common
+        // practice); the slow reference sums the argument change along the curve.
+        let inside = [C::new(0.5, -0.25), C::new(0.0, 1.0), C::new(0.0, -0.5), C::new(1.0, 0.25), C::new(0.5, 0.5)];
+        for (s, p) in shapes().iter().zip(inside) {
+            let w = winding_by_sampling(s, p);
+            assert_eq!(w.abs(), 1, "{s:?}: {p} must be inside");
+            assert_eq!(s.orientation(), w, "{s:?}");
+        }
+        assert_eq!(shapes()[4].orientation(), -1, "the last shape runs clockwise");
     }
 }
