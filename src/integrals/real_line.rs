@@ -26,14 +26,7 @@ use crate::text;
 use crate::C;
 use std::f64::consts::PI;
 
-/// Sign of the half-plane the residue side closes in: +1 upper (ω ≥ 0), −1 lower.
-pub fn half_plane(omega: f64) -> f64 {
-    if omega < 0.0 {
-        -1.0
-    } else {
-        1.0
-    }
-}
+pub use crate::singular::decay::half_plane;
 
 /// The residue formula applied, in words.
 pub fn formula(omega: f64, principal_value: bool) -> String {

@@ -24,6 +24,17 @@ use crate::C;
 use std::f64::consts::PI;
 use std::ops::RangeInclusive;
 
+
+/// Sign of the half-plane where e^{iωz} decays, the one a residue sum closes in:
+/// +1 upper (ω ≥ 0), −1 lower (Jordan's lemma).
+pub fn half_plane(omega: f64) -> f64 {
+    if omega < 0.0 {
+        -1.0
+    } else {
+        1.0
+    }
+}
+
 /// The degree-difference rule: `Ok` when the residue formula applies to the
 /// rational f = num/den whose order at infinity is `infinity_order`
 /// (deg num − deg den), for ∫ f dx (ω = 0) or ∫ f e^{iωx} dx (ω ≠ 0).
@@ -123,7 +134,7 @@ pub fn line_decay(f: &dyn Fn(C) -> C, omega: f64) -> Result<LineDecay, Failure> 
         .map(|k| 2f64.powi(k))
         .find(|&x| samples.iter().filter(|s| s.0 >= x).all(|s| s.1 <= 1e-2 * peak))
         .unwrap_or(256.0);
-    let sigma = crate::integrals::real_line::half_plane(omega);
+    let sigma = half_plane(omega);
     let arcs_decay = match (arc_max(f, 2.0 * r, sigma), arc_max(f, 4.0 * r, sigma)) {
         (Some(m2), Some(m4)) if omega == 0.0 => 4.0 * r * m4 <= 0.75 * 2.0 * r * m2 + tiny,
         (Some(m2), Some(m4)) => m4 <= 0.75 * m2 + tiny,
