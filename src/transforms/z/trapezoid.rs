@@ -19,12 +19,22 @@
 //! Two radii that disagree by more than their estimates widen the estimate to
 //! the disagreement. Positive powers c_1, c_2, c_3 (read from the same FFT) must
 //! vanish: if not, X grows at infinity or has a singularity outside the circle.
+//! The samples and the FFT are the one circle kernel's (`cauchy::circle`).
+//!
+//! ```
+//! use residuary::budget::Budget;
+//! use residuary::transforms::z::trapezoid::inverse_z_trapezoid;
+//! use residuary::C;
+//! // z/(z − 0.5) ↔ 0.5^n (z-transform table, e.g. Oppenheim & Schafer, Table 3.1 — from memory).
+//! let r = inverse_z_trapezoid(&mut |z: C| z / (z - 0.5), 0.5, &[3], 1 << 16, &mut Budget::default()).unwrap();
+//! let x3 = r.values[0].unwrap();
+//! assert!((x3.value.re - 0.125).abs() <= x3.error && x3.error < 1e-13);
+//! ```
 
 use crate::budget::Budget;
 use crate::error::Failure;
 use crate::C;
-use rustfft::FftPlanner;
-use std::f64::consts::PI;
+use crate::cauchy::circle::CircleSamples;
 
 /// One value with its error estimate and the radius it came from.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -78,16 +88,16 @@ pub fn inverse_z_trapezoid(
     let mut circles = Vec::new();
     let mut warnings = Vec::new();
     for (radius, samples) in ladder(singular_radius, n_max, max_samples) {
-        if budget.spend(samples as u64).is_err() {
+        let Ok(taken) = CircleSamples::take_finite(f, C::new(0.0, 0.0), radius, 0.0, samples, budget) else {
             warnings.push(format!(
                 "the work budget ran out after {} circles; values for the largest n may be missing or less accurate",
                 circles.len()
             ));
             break;
-        }
+        };
         // A circle where X overflows or is not finite is skipped; the others carry the values.
-        if let Some(c) = fit_circle(f, radius, samples, ns) {
-            circles.push(c);
+        if let Ok(samples) = taken {
+            circles.push(fit_circle(&samples, ns));
         }
     }
     if circles.is_empty() {
@@ -168,50 +178,22 @@ fn ladder(r0: f64, n_max: u64, max_samples: usize) -> Vec<(f64, usize)> {
     out
 }
 
-fn fft(values: &mut [C]) {
-    FftPlanner::<f64>::new()
-        .plan_fft_forward(values.len())
-        .process(values);
-}
-
-fn fit_circle(
-    f: &mut dyn FnMut(C) -> C,
-    radius: f64,
-    samples: usize,
-    ns: &[u64],
-) -> Option<Circle> {
-    let mut fine = Vec::with_capacity(samples);
-    for k in 0..samples {
-        let v = f(C::from_polar(radius, 2.0 * PI * k as f64 / samples as f64));
-        if !(v.re.is_finite() && v.im.is_finite()) {
-            return None;
-        }
-        fine.push(v);
-    }
-    let max_f = fine.iter().map(|v| v.norm()).fold(0.0, f64::max);
-    let mut coarse: Vec<C> = fine.iter().step_by(2).copied().collect();
-    fft(&mut fine);
-    fft(&mut coarse);
-    let (nf, nc) = (samples, samples / 2);
-    let ln_r = radius.ln();
-    let log2n = (samples as f64).log2();
+/// Every requested x[n] on one circle, from its samples and the N/2 rule's (every other sample).
+fn fit_circle(samples: &CircleSamples, ns: &[u64]) -> Circle {
+    let max_f = samples.max_abs();
+    let coarse = samples.every_other();
+    let (fine_spectrum, coarse_spectrum) = (samples.spectrum(), coarse.spectrum());
+    let nc = coarse.len();
+    let log2n = (samples.len() as f64).log2();
     let fits = ns
         .iter()
         .map(|&n| {
             if (nc as u64) < n + 1 {
                 return None;
             }
-            let factor = (n as f64 * ln_r).exp();
-            let at = |spec: &[C], len: usize| {
-                let b = spec[(len - (n as usize % len)) % len] / len as f64;
-                if b == C::new(0.0, 0.0) {
-                    b
-                } else {
-                    b * factor
-                }
-            };
-            let v = at(&fine, nf);
-            let w = at(&coarse, nc);
+            // x̃[n] = ρ^n b_{−n}: the coefficient of z^{−n}.
+            let (v, factor) = samples.coefficient_from(&fine_spectrum, -(n as i64));
+            let (w, _) = coarse.coefficient_from(&coarse_spectrum, -(n as i64));
             let floor = f64::EPSILON * max_f * factor * (4.0 + log2n)
                 + 4.0 * f64::EPSILON * (n as f64 + 1.0) * v.norm();
             let e = 10.0 * (v - w).norm() + floor;
@@ -219,17 +201,11 @@ fn fit_circle(
         })
         .collect();
     let positive_power_ratio = if max_f > 0.0 {
-        (1..=3)
-            .map(|m| fine[m].norm() / nf as f64 / max_f)
-            .fold(0.0, f64::max)
+        (1..=3).map(|m| fine_spectrum[m].norm() / max_f).fold(0.0, f64::max)
     } else {
         0.0
     };
-    Some(Circle {
-        radius,
-        fits,
-        positive_power_ratio,
-    })
+    Circle { radius: samples.radius, fits, positive_power_ratio }
 }
 
 #[cfg(test)]
