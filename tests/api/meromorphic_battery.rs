@@ -14,7 +14,7 @@ use residuary::api::run_json_text;
 use serde_json::{json, Value};
 
 fn fixtures() -> Value {
-    serde_json::from_str(include_str!("fixtures/battery.json")).expect("fixture JSON")
+    serde_json::from_str(include_str!("../fixtures/battery.json")).expect("fixture JSON")
 }
 
 fn ask(req: &Value) -> (Value, bool) {

@@ -1,7 +1,6 @@
 //! Gauss–Kronrod, periodic trapezoid and contour integrals against closed forms
 //! and mpmath 1.3.0 (40 digits) fixtures in tests/fixtures/laurent.json.
 
-mod common;
 
 use residuary::budget::Budget;
 use residuary::contour::Contour;
@@ -18,7 +17,7 @@ use std::f64::consts::{E, PI};
 const I: C = C { re: 0.0, im: 1.0 };
 
 fn fixtures() -> Value {
-    common::fixture("laurent")
+    crate::common::fixture("laurent")
 }
 
 fn tight() -> Tolerance {

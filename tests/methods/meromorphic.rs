@@ -13,7 +13,7 @@ use serde_json::Value;
 use std::f64::consts::PI;
 
 fn fixtures() -> Value {
-    serde_json::from_str(include_str!("fixtures/meromorphic.json")).expect("fixture JSON")
+    serde_json::from_str(include_str!("../fixtures/meromorphic.json")).expect("fixture JSON")
 }
 
 fn c(v: &Value) -> C {

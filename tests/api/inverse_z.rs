@@ -2,9 +2,8 @@
 //! tables, handbook series, a direct recursion of the difference equation, and
 //! mpmath fixtures (tests/fixtures/gen_inverse_z.py).
 
-mod common;
 
-use common::{ok_response as ok, error_message as err, floats};
+use crate::common::{ok_response as ok, error_message as err, floats};
 use residuary::api::run_json_text;
 use serde_json::{json, Value};
 
@@ -176,7 +175,7 @@ fn exp_of_inverse_z_gives_inverse_factorials() {
 
 #[test]
 fn mpmath_fixtures() {
-    let fx = common::fixture("inverse_z");
+    let fx = crate::common::fixture("inverse_z");
     for case in fx["cases"].as_array().unwrap() {
         let name = case["name"].as_str().unwrap();
         let ns: Vec<u64> = case["n"]
@@ -193,7 +192,7 @@ fn mpmath_fixtures() {
                 if v.is_null() {
                     None
                 } else {
-                    Some(common::real(v))
+                    Some(crate::common::real(v))
                 }
             })
             .collect();

@@ -1,14 +1,13 @@
 //! Poles, residues, partial fractions and the residue at infinity of rational
 //! functions, against mpmath fixtures and closed forms.
 
-mod common;
 
 use residuary::poly::from_roots;
 use residuary::singular::rational_poles::{
     analyse_rational, partial_fractions_string, residue_at_point, PointKind, RationalAnalysis,
 };
 use residuary::C;
-use common::{list, num};
+use crate::common::{list, num};
 use serde_json::Value;
 
 fn c(re: f64, im: f64) -> C {
@@ -16,7 +15,7 @@ fn c(re: f64, im: f64) -> C {
 }
 
 fn fixtures() -> Value {
-    common::fixture("rational")
+    crate::common::fixture("rational")
 }
 
 

@@ -18,7 +18,7 @@ const REL: f64 = 1e-9;
 /// Absolute floor stated in docs/contract.md, so an expected 0 accepts rounding noise.
 const ABS: f64 = 1e-12;
 
-const DOC: &str = include_str!("../docs/contract.md");
+const DOC: &str = include_str!("../../docs/contract.md");
 
 /// One example: the request text, the expected response, and where they start in the document.
 struct Example {

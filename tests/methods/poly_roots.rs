@@ -1,12 +1,11 @@
 //! Aberth–Ehrlich roots and multiplicities against outside references.
 
-mod common;
 
 use residuary::poly::aberth_ehrlich::{roots, MAX_DEGREE};
 use residuary::poly::multiplicity::distinct_roots;
 use residuary::poly::{abs_eval, eval, from_roots};
 use residuary::C;
-use common::list;
+use crate::common::list;
 use serde_json::Value;
 
 fn c(re: f64, im: f64) -> C {
@@ -14,7 +13,7 @@ fn c(re: f64, im: f64) -> C {
 }
 
 fn fixtures() -> Value {
-    common::fixture("rational")
+    crate::common::fixture("rational")
 }
 
 

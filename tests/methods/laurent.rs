@@ -1,7 +1,6 @@
 //! Laurent series by FFT: against handbook identities and mpmath 1.3.0 (40
 //! digits) fixtures in tests/fixtures/laurent.json (generator gen_laurent.py).
 
-mod common;
 
 use residuary::budget::Budget;
 use residuary::series::laurent_fft::{
@@ -12,7 +11,7 @@ use serde_json::Value;
 use std::f64::consts::PI;
 
 fn fixtures() -> Value {
-    common::fixture("laurent")
+    crate::common::fixture("laurent")
 }
 
 fn case(name: &str) -> Value {

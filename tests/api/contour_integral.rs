@@ -29,7 +29,7 @@ fn dist(a: Cx, b: Cx) -> f64 {
 }
 
 fn fixtures() -> Value {
-    serde_json::from_str(include_str!("fixtures/contour.json")).expect("fixture JSON")
+    serde_json::from_str(include_str!("../fixtures/contour.json")).expect("fixture JSON")
 }
 
 fn fixture_value(name: &str) -> Cx {

@@ -2,9 +2,8 @@
 //! transform table pairs, mpmath fixtures, and a slow Bromwich-integral
 //! reference for the fixed Talbot contour.
 
-mod common;
 
-use common::{ok_response as run, error_message as run_error, floats};
+use crate::common::{ok_response as run, error_message as run_error, floats};
 use residuary::budget::Budget;
 use residuary::quad::{gauss_kronrod::integrate, Tolerance};
 use residuary::C;
@@ -251,7 +250,7 @@ fn pulse_with_two_edges_is_flagged() {
 #[test]
 fn mpmath_fixtures() {
     // mpmath 1.3.0, 30 digits (tests/fixtures/gen_inverse_laplace.py); sources per case in the JSON.
-    let fx = common::fixture("inverse_laplace");
+    let fx = crate::common::fixture("inverse_laplace");
     let mut checked = 0;
     for case in fx["cases"].as_array().unwrap() {
         let name = case["name"].as_str().unwrap();
@@ -259,13 +258,13 @@ fn mpmath_fixtures() {
             .as_array()
             .unwrap()
             .iter()
-            .map(common::real)
+            .map(crate::common::real)
             .collect();
         let want: Vec<f64> = case["f"]
             .as_array()
             .unwrap()
             .iter()
-            .map(common::real)
+            .map(crate::common::real)
             .collect();
         let r = run(json!({"task": "inverse_laplace", "F": case["F"], "t": ts}));
         let f = floats(&r["f"]);

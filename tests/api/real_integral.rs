@@ -4,7 +4,6 @@
 //! directly on the real line with no residues. Every error estimate is checked
 //! to bound the true error.
 
-mod common;
 
 use residuary::api::run_json_value;
 use residuary::C;
@@ -201,12 +200,12 @@ fn mellin_of_one_over_one_plus_x_squared() {
 
 #[test]
 fn mpmath_fixtures() {
-    let fx = common::fixture("real_integral");
+    let fx = crate::common::fixture("real_integral");
     let cases = fx["cases"].as_array().unwrap();
     assert!(cases.len() >= 10);
     for case in cases {
         // mpmath 1.3.0, 30 digits (direct quadrature)
-        let exact = common::num(&case["value"]);
+        let exact = crate::common::num(&case["value"]);
         let rel = if case["name"].as_str().unwrap().contains("branch") {
             1e-10
         } else {

@@ -1,0 +1,13 @@
+//! Tests through the doorway (`residuary::api`), one module per task or contract topic.
+//! Every check names its outside source beside it.
+
+#[path = "../common/mod.rs"]
+mod common;
+
+mod api_contract;
+mod contour_integral;
+mod contract_doc;
+mod inverse_laplace;
+mod inverse_z;
+mod meromorphic_battery;
+mod real_integral;
