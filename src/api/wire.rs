@@ -95,3 +95,38 @@ pub enum Method {
     Rational,
     Numerical,
 }
+
+/// How independent ways relate (the one rule, `crate::ways`): `"single"`,
+/// `"agree"`, `"covered"` (consistent only because an error estimate is
+/// large) or `"disagree"`. Callers branch on this, never on the sentence.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Verdict {
+    Single,
+    Agree,
+    Covered,
+    Disagree,
+}
+
+impl From<crate::ways::Agreement> for Verdict {
+    fn from(a: crate::ways::Agreement) -> Self {
+        use crate::ways::Agreement;
+        match a {
+            Agreement::Single => Verdict::Single,
+            Agreement::Agree => Verdict::Agree,
+            Agreement::Covered => Verdict::Covered,
+            Agreement::Disagree => Verdict::Disagree,
+        }
+    }
+}
+
+/// A stability reading from the poles (common practice: every pole in the
+/// open left half-plane, or inside the unit circle for sequences):
+/// `"stable"`, `"marginally_stable"` or `"unstable"`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Stability {
+    Stable,
+    MarginallyStable,
+    Unstable,
+}

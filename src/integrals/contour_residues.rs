@@ -74,6 +74,8 @@ pub struct ResidueWays {
     pub points: Vec<Singular>,
     pub inside: Option<Way>,
     pub outside: Option<Way>,
+    /// Why a way is missing, for each way that is (also among `warnings`).
+    pub unavailable: Vec<(WayName, String)>,
     pub warnings: Vec<String>,
 }
 
@@ -120,17 +122,20 @@ pub fn rational_residue_ways(num: &[C], den: &[C], as_typed: AsTyped, contour: &
         .collect();
     if points.iter().any(|p| p.winding.is_none()) {
         // `check_on_and_near` turns this into the error.
-        return Ok(ResidueWays { points, inside: None, outside: None, warnings });
+        return Ok(ResidueWays { points, inside: None, outside: None, unavailable: Vec::new(), warnings });
     }
     let inside = inside_sum(&points);
+    let mut unavailable = Vec::new();
     let mut windings: Vec<i32> = points.iter().filter_map(|p| p.winding).filter(|&w| w != 0).collect();
     windings.sort();
     windings.dedup();
     let outside = if windings.len() > 1 {
-        warnings.push(format!(
+        let reason = format!(
             "the contour winds around f's poles with different winding numbers ({}), so the outside-residue form of the residue theorem does not isolate the outside poles; it is not computed",
             windings.iter().map(|w| w.to_string()).collect::<Vec<_>>().join(", ")
-        ));
+        );
+        warnings.push(reason.clone());
+        unavailable.push((WayName::OutsideResidues, reason));
         None
     } else {
         let k = windings.first().copied().unwrap_or_else(|| contour.orientation());
@@ -139,7 +144,7 @@ pub fn rational_residue_ways(num: &[C], den: &[C], as_typed: AsTyped, contour: &
         let infinity_error = 8.0 * (num.len() + den.len()) as f64 * f64::EPSILON * (a.residue_at_infinity.norm() + scale);
         Some(outside_sum(&points, k, a.residue_at_infinity, infinity_error))
     };
-    Ok(ResidueWays { points, inside, outside, warnings })
+    Ok(ResidueWays { points, inside, outside, unavailable, warnings })
 }
 
 /// −2πi k (Σ_{w=0} Res_a + Res∞), with its error estimate.
@@ -215,9 +220,11 @@ pub fn general_residue_ways(
     let found = match search_cover(f, fd, regions, hints, budget) {
         Ok(found) => found,
         Err(e) => {
-            warnings.push(blocked.unwrap_or_else(|| format!("the singularities could not be located, so the residue side is not computed: {e}")));
+            let reason = blocked.unwrap_or_else(|| format!("the singularities could not be located, so the residue side is not computed: {e}"));
+            warnings.push(reason.clone());
             warnings.push(outside_reason());
-            return Ok(ResidueWays { points: Vec::new(), inside: None, outside: None, warnings });
+            let unavailable = vec![(WayName::InsideResidues, reason), (WayName::OutsideResidues, outside_reason())];
+            return Ok(ResidueWays { points: Vec::new(), inside: None, outside: None, unavailable, warnings });
         }
     };
     warnings.extend(found.warnings.iter().map(|w| format!("singularity search: {w}")));
@@ -265,15 +272,18 @@ pub fn general_residue_ways(
     if points.iter().any(|p| p.kind == PointKind::Pole && p.residue.is_none() && nonzero(p.winding)) {
         blocked.get_or_insert("a pole's residue could not be computed, so the inside-residue sum is not available".into());
     }
+    let mut unavailable = Vec::new();
     let inside = match blocked {
         Some(reason) => {
-            warnings.push(reason);
+            warnings.push(reason.clone());
+            unavailable.push((WayName::InsideResidues, reason));
             None
         }
         None => inside_sum(&points),
     };
     warnings.push(outside_reason());
-    Ok(ResidueWays { points, inside, outside: None, warnings })
+    unavailable.push((WayName::OutsideResidues, outside_reason()));
+    Ok(ResidueWays { points, inside, outside: None, unavailable, warnings })
 }
 
 fn outside_reason() -> String {

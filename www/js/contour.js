@@ -15,13 +15,6 @@ const WAYS = [
   { key: 'quadrature', name: 'Quadrature along the contour', how: 'the integral summed numerically along the path' },
 ];
 
-/** Which warning explains why a way is missing (the core's own words). */
-const REASON_PATTERNS = {
-  inside_residues: [/residue theorem does not apply/i, /inside residues/i, /inside/i],
-  outside_residues: [/outside residues/i, /outside-residue/i, /outside/i],
-  quadrature: [/quadrature/i],
-};
-
 /** The contour in words: its shape, where it lies and its direction. */
 export function contourWords(variable, contour, isView) {
   const v = variable;
@@ -104,9 +97,8 @@ export function showContourIntegral(parts, variable, contour, isView, resp) {
       tr.append(cell,
         el('td', { class: 'num', text: estimateText(e) }));
     } else {
-      const patterns = REASON_PATTERNS[way.key] || [];
-      let reason = '';
-      for (const p of patterns) { reason = warnings.find((w) => p.test(w)) || ''; if (reason) break; }
+      // The core says why a way is missing, keyed by the way's wire name.
+      const reason = (resp.not_available && typeof resp.not_available[way.key] === 'string') ? resp.not_available[way.key] : '';
       tr.classList.add('missing');
       tr.append(el('td', { colspan: 2, class: 'ci-missing', text: '—, not available: ' + (reason || 'see the warnings below') }));
     }
@@ -117,8 +109,8 @@ export function showContourIntegral(parts, variable, contour, isView, resp) {
   const maxD = Number(resp.max_discrepancy);
   const sumErr = available.reduce((s, a) => s + (Number.isFinite(a.e) ? a.e : Infinity), 0);
   const agreement = typeof resp.agreement === 'string' ? resp.agreement : '';
-  const saysDiffer = /differ|disagree/i.test(agreement);
-  const disagree = available.length >= 2 && (!(maxD <= sumErr) || saysDiffer);
+  const flagged = resp.verdict === 'disagree' || resp.verdict === 'covered';
+  const disagree = available.length >= 2 && (!(maxD <= sumErr) || flagged);
   const lines = [];
   if (available.length >= 2) {
     lines.push(`Largest difference between the ${available.length} ways: ${estimateText(maxD)}` +

@@ -51,11 +51,6 @@ export function inverseStatus(parts, text, look) {
   parts.box.dataset.state = look;
 }
 
-/** A warning that says the system is unstable or marginally stable gets the prominent look. */
-function isStabilityWarning(text) {
-  return /unstable|marginally stable|grows without bound|does not decay/i.test(text);
-}
-
 /** Fill the block from the response (or error object) of `inverseRequest`. */
 export function showInverse(parts, request, resp) {
   const isS = request.task === 'inverse_laplace';
@@ -83,8 +78,10 @@ export function showInverse(parts, request, resp) {
     : `Stem plot of x[n] for n = 0 to ${xs[xs.length - 1]}`);
   drawInverseChart(parts.chart);
 
-  for (const w of Array.isArray(resp.warnings) ? resp.warnings.map(String) : []) {
-    const strong = isStabilityWarning(w);
+  // The core marks which warning is its stability reading (unstable or marginally stable).
+  const warningList = Array.isArray(resp.warnings) ? resp.warnings.map(String) : [];
+  for (const [i, w] of warningList.entries()) {
+    const strong = Number.isInteger(resp.stability_warning) && i === resp.stability_warning;
     parts.warnings.append(el('li', { class: strong ? 'inv-alarm' : '', text: w.charAt(0).toUpperCase() + w.slice(1) }));
   }
   const lhs = isS ? 'f(t)' : 'x[n]';

@@ -12,7 +12,8 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, checked_contour, compile, hints};
-use crate::api::wire::{pair, ContourRequest};
+use crate::api::wire::{pair, ContourRequest, Verdict};
+use std::collections::BTreeMap;
 use crate::contour::covering::covering_regions;
 use crate::integrals::contour_residues::{any_near_contour, check_on_and_near, general_residue_ways, rational_residue_ways, PointKind};
 use crate::quad::contour_quadrature::contour_integral;
@@ -79,6 +80,10 @@ pub struct ContourIntegralResponse {
     pub outside_residues_error_estimate: Option<f64>,
     /// One sentence: do the ways agree, and to what.
     pub agreement: String,
+    /// The same as a machine word: `"single"`, `"agree"`, `"covered"` or `"disagree"`.
+    pub verdict: Verdict,
+    /// Why a way is missing, by its wire name (`"inside_residues"`, `"outside_residues"`).
+    pub not_available: BTreeMap<String, String>,
     pub method: Method,
     pub warnings: Vec<String>,
 }
@@ -173,6 +178,8 @@ pub fn run(req: &ContourIntegralRequest) -> Result<ContourIntegralResponse, ApiE
         inside_residues_error_estimate: residues.inside.map(|w| w.error),
         outside_residues_error_estimate: residues.outside.map(|w| w.error),
         agreement,
+        verdict: verdict.agreement.into(),
+        not_available: residues.unavailable.iter().map(|(w, why)| (w.wire().to_string(), why.clone())).collect(),
         method,
         warnings,
     })

@@ -14,7 +14,7 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, compile_text, hints, CAUTION};
-use crate::api::wire::{FunctionInput, Number};
+use crate::api::wire::{FunctionInput, Number, Stability as StabilityOut};
 use crate::budget::Budget;
 use crate::expr::Function;
 use crate::singular::rational_poles::analyse_rational_polished;
@@ -90,6 +90,10 @@ pub struct InverseLaplaceResponse {
     /// Singular points the contour was placed to enclose (general F).
     pub singular_points_enclosed: Vec<[f64; 2]>,
     pub warnings: Vec<String>,
+    /// The stability reading, where the poles were found exactly (rational F); else `null`.
+    pub stability: Option<StabilityOut>,
+    /// The index in `warnings` of the stability reading and its caution, when it is not stable.
+    pub stability_warning: Option<usize>,
 }
 
 pub fn run(req: &InverseLaplaceRequest) -> Result<InverseLaplaceResponse, ApiError> {
@@ -189,7 +193,9 @@ fn rational(f: &Function, num: &[C], den: &[C], times: &[f64], budget: &mut Budg
     let values: Vec<C> = verdicts.iter().map(|v| v.value).collect();
     let error_estimates: Vec<f64> = verdicts.iter().map(|v| v.error).collect();
     let f_imag = imaginary_parts(&values, &error_estimates, &mut warnings);
-    match stability(&poles) {
+    let reading = stability(&poles);
+    let stability_warning = (reading != Stability::Stable).then_some(warnings.len());
+    match reading {
         Stability::Unstable(rightmost) => warnings.push(format!(
             "a pole lies in the right half-plane (Re s = {rightmost:.6}): f grows without bound (an unstable system). {CAUTION}"
         )),
@@ -213,6 +219,12 @@ fn rational(f: &Function, num: &[C], den: &[C], times: &[f64], budget: &mut Budg
         delay: None,
         singular_points_enclosed: Vec::new(),
         warnings,
+        stability: Some(match reading {
+            Stability::Stable => StabilityOut::Stable,
+            Stability::Marginal => StabilityOut::MarginallyStable,
+            Stability::Unstable(_) => StabilityOut::Unstable,
+        }),
+        stability_warning,
     })
 }
 
@@ -237,6 +249,8 @@ fn general(f: &Function, times: &[f64], budget: &mut Budget) -> Result<InverseLa
         delay: r.delay,
         singular_points_enclosed: r.enclosed.iter().map(|z| [z.re + 0.0, z.im + 0.0]).collect(),
         warnings,
+        stability: None,
+        stability_warning: None,
     })
 }
 

@@ -19,7 +19,7 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, compile_text, hints, CAUTION};
-use crate::api::wire::{FunctionInput, Number};
+use crate::api::wire::{FunctionInput, Number, Stability as StabilityOut};
 use crate::budget::Budget;
 use crate::expr::Function;
 use crate::singular::rational_poles::analyse_rational_polished;
@@ -109,6 +109,10 @@ pub struct InverseZResponse {
     /// Radii of the contour circles used.
     pub contour_radii: Vec<f64>,
     pub warnings: Vec<String>,
+    /// The stability reading from the region of convergence |z| > r₀.
+    pub stability: Option<StabilityOut>,
+    /// The index in `warnings` of the stability reading and its caution, when it is not stable.
+    pub stability_warning: Option<usize>,
 }
 
 pub fn run(req: &InverseZRequest) -> Result<InverseZResponse, ApiError> {
@@ -120,7 +124,18 @@ pub fn run(req: &InverseZRequest) -> Result<InverseZResponse, ApiError> {
         Some(r) => rational(&f, &r.num, &r.den, &ns, &mut budget)?,
         None => general(&f, req.singular_radius, &ns, &mut budget)?,
     };
+    // The stability reading from the region of convergence |z| > r0 (common practice).
     let r0 = response.roc.outer_radius_greater_than;
+    response.stability = Some(if r0 > 1.0 + ROUNDING {
+        StabilityOut::Unstable
+    } else if r0 >= 1.0 - ROUNDING {
+        StabilityOut::MarginallyStable
+    } else {
+        StabilityOut::Stable
+    });
+    if response.stability != Some(StabilityOut::Stable) {
+        response.stability_warning = Some(response.warnings.len());
+    }
     if r0 > 1.0 + ROUNDING {
         response.warnings.push(format!(
             "a singularity lies outside the unit circle (|z| = {}): the sequence grows without bound (an unstable system). {CAUTION}",
@@ -214,6 +229,8 @@ fn rational(f: &Function, num: &[C], den: &[C], ns: &[u64], budget: &mut Budget)
         method: Method::Rational,
         contour_radii: radii.unwrap_or_default(),
         warnings,
+        stability: None,
+        stability_warning: None,
     };
     Ok(finish(response, &x))
 }
@@ -262,6 +279,8 @@ fn general(f: &Function, singular_radius: Option<f64>, ns: &[u64], budget: &mut 
         method: Method::Contour,
         contour_radii: contour.radii,
         warnings,
+        stability: None,
+        stability_warning: None,
     };
     Ok(finish(response, &x))
 }

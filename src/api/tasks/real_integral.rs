@@ -15,7 +15,7 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, compile, hints};
-use crate::api::wire::{pair, FunctionInput, Number};
+use crate::api::wire::{pair, FunctionInput, Number, Verdict};
 use crate::budget::Budget;
 use crate::expr::Function;
 use crate::integrals::product_residue::ResidueSum;
@@ -91,6 +91,8 @@ pub struct RealIntegralResponse {
     pub value_from: ValueFrom,
     /// One sentence: do the two ways agree, and to what.
     pub agreement: String,
+    /// The same as a machine word: `"single"`, `"agree"`, `"covered"` or `"disagree"`.
+    pub verdict: Verdict,
     /// The residue formula applied, in words.
     pub formula: String,
     /// True when the value is a Cauchy principal value (simple poles on the real axis).
@@ -229,6 +231,7 @@ fn assemble(side: ResidueSide, q: QuadResult, mut warnings: Vec<String>) -> Real
         residues_error_estimate: residues.map(|w| w.error),
         value_from: if verdict.from == WayName::Residues { ValueFrom::Residues } else { ValueFrom::Quadrature },
         agreement,
+        verdict: verdict.agreement.into(),
         formula: side.formula,
         principal_value: side.principal_value,
         method: side.method,
