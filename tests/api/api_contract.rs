@@ -273,3 +273,30 @@ fn a_product_of_many_factors_keeps_its_accuracy() {
         assert!(err <= p["error_estimate"].as_f64().unwrap(), "estimate at −{k}");
     }
 }
+
+#[test]
+fn machine_words_stand_beside_the_sentences() {
+    // ∮ dz/z around |z| = 1 is 2πi (residue theorem; common practice): every way agrees.
+    let r = run(json!({"task": "contour_integral", "f": "1/z",
+        "contour": {"shape": "circle", "center": [0, 0], "radius": 1}}));
+    assert_eq!(r["verdict"], "agree", "{r}");
+    assert!(r["not_available"].as_object().unwrap().is_empty(), "{r}");
+    // exp(z)/z is not rational: the outside way is not available, and says why.
+    let r = run(json!({"task": "contour_integral", "f": "exp(z)/z",
+        "contour": {"shape": "circle", "center": [0, 0], "radius": 1}}));
+    let why = r["not_available"]["outside_residues"].as_str().unwrap();
+    assert!(r["warnings"].as_array().unwrap().iter().any(|w| w == why), "{r}");
+    assert!(close(&r["value"], 0.0, 2.0 * std::f64::consts::PI, 1e-10), "{r}");
+    // 1/(s − 1) ↔ e^t grows (transform table; common practice): unstable, and the index
+    // points at the reading with its caution.
+    let r = run(json!({"task": "inverse_laplace", "F": "1/(s-1)", "t": [1.0]}));
+    assert_eq!(r["stability"], "unstable", "{r}");
+    let i = r["stability_warning"].as_u64().unwrap() as usize;
+    assert!(r["warnings"][i].as_str().unwrap().contains("licensed engineering practice"), "{r}");
+    let r = run(json!({"task": "inverse_laplace", "F": "1/(s+1)", "t": [1.0]}));
+    assert_eq!(r["stability"], "stable", "{r}");
+    assert!(r["stability_warning"].is_null(), "{r}");
+    // z/(z − 0.5) ↔ 0.5^n (z-transform table): converges for |z| > 0.5, inside the unit circle, so stable.
+    let r = run(json!({"task": "inverse_z", "X": "z/(z-0.5)", "n": [0, 1]}));
+    assert_eq!(r["stability"], "stable", "{r}");
+}
