@@ -8,7 +8,7 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, checked_contour, compile, hints};
-use crate::api::wire::{pair, ContourRequest};
+use crate::api::wire::{pair, ContourRequest, Method};
 use crate::contour::covering::contour_as_regions;
 use crate::integrals::contour_residues::{general_wound_points, rational_wound_points, ZeroOrPole};
 use crate::singular::count_by_argument_principle;
@@ -24,14 +24,6 @@ pub type ArgumentCountRequest = ContourRequest;
 pub enum CountedKind {
     Zero,
     Pole,
-}
-
-/// `rational` (exact polynomial algebra) or `numerical`.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum Method {
-    Rational,
-    Numerical,
 }
 
 /// A zero or pole counted, with the contour's winding number about it.

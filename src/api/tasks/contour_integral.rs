@@ -12,7 +12,7 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, checked_contour, compile, hints};
-use crate::api::wire::{pair, ContourRequest, Verdict};
+use crate::api::wire::{pair, ContourRequest, Verdict, Method};
 use std::collections::BTreeMap;
 use crate::contour::covering::covering_regions;
 use crate::integrals::contour_residues::{any_near_contour, check_on_and_near, general_residue_ways, rational_residue_ways, PointKind};
@@ -44,14 +44,6 @@ pub enum ValueFrom {
     Quadrature,
     InsideResidues,
     OutsideResidues,
-}
-
-/// `rational` (exact polynomial algebra) or `numerical`.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum Method {
-    Rational,
-    Numerical,
 }
 
 /// A singular point with the contour's winding number about it.

@@ -15,7 +15,7 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, compile, hints};
-use crate::api::wire::{pair, FunctionInput, Number, Verdict};
+use crate::api::wire::{pair, FunctionInput, Number, Verdict, Method};
 use crate::budget::Budget;
 use crate::expr::Function;
 use crate::integrals::product_residue::ResidueSum;
@@ -62,16 +62,6 @@ pub struct ResidueUsed {
 pub enum ValueFrom {
     Residues,
     Quadrature,
-}
-
-/// How the residue side found its poles.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum Method {
-    /// Exact polynomial algebra.
-    Rational,
-    /// Located numerically.
-    Numerical,
 }
 
 /// `real_integral` response.
