@@ -53,7 +53,8 @@ pub fn finite(n: Number, field: &str) -> Result<C, ApiError> {
     }
 }
 /// A contour or region from a request, checked; the message names the field.
-pub fn checked_contour<'a>(c: &'a crate::contour::Contour, field: &str) -> Result<&'a crate::contour::Contour, ApiError> {
+pub fn checked_contour(c: &super::wire::ContourShape, field: &str) -> Result<crate::contour::Contour, ApiError> {
+    let c = crate::contour::Contour::from(c);
     c.validate().map_err(|e| ApiError::invalid(format!("{field}: {e}")))?;
     Ok(c)
 }

@@ -26,7 +26,7 @@ pub use tasks::phase_plot::{phase_plot_rgba, PhasePlotRequest, Pixels, PlotOptio
 pub use tasks::real_integral::{RealIntegralRequest, RealIntegralResponse};
 pub use tasks::residue::{ResidueRequest, ResidueResponse};
 pub use tasks::singularities::{PointOut, PoleOut, SingularitiesRequest, SingularitiesResponse, ZeroOut};
-pub use wire::{pair, ContourRequest, FunctionInput, Number, Point};
+pub use wire::{pair, ContourRequest, ContourShape, FunctionInput, Number, Point};
 
 use serde::Serialize;
 use serde_json::Value;

@@ -4,7 +4,6 @@
 //! Complex numbers are `[re, im]` on the wire. Each task's own request and
 //! response live in its file under `api/tasks/`.
 
-use crate::contour::Contour;
 use crate::C;
 use serde::{Deserialize, Serialize};
 use std::collections::BTreeMap;
@@ -57,7 +56,7 @@ pub struct FunctionInput {
 pub struct ContourRequest {
     #[serde(flatten)]
     pub function: FunctionInput,
-    pub contour: Contour,
+    pub contour: ContourShape,
     #[serde(default)]
     pub max_evaluations: Option<u64>,
 }
@@ -129,4 +128,45 @@ pub enum Stability {
     Stable,
     MarginallyStable,
     Unstable,
+}
+
+/// A closed contour as written in requests (`{"shape": "circle", …}`); the
+/// core's `contour::Contour` has the same variants and fields.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "shape", rename_all = "snake_case", deny_unknown_fields)]
+pub enum ContourShape {
+    Circle { center: [f64; 2], radius: f64 },
+    Ellipse {
+        center: [f64; 2],
+        semi_axes: [f64; 2],
+        #[serde(default)]
+        angle: f64,
+    },
+    Rectangle { corners: [[f64; 2]; 2] },
+    Polygon { vertices: Vec<[f64; 2]> },
+}
+
+impl From<&ContourShape> for crate::contour::Contour {
+    fn from(c: &ContourShape) -> Self {
+        use crate::contour::Contour;
+        match c.clone() {
+            ContourShape::Circle { center, radius } => Contour::Circle { center, radius },
+            ContourShape::Ellipse { center, semi_axes, angle } => Contour::Ellipse { center, semi_axes, angle },
+            ContourShape::Rectangle { corners } => Contour::Rectangle { corners },
+            ContourShape::Polygon { vertices } => Contour::Polygon { vertices },
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_contour_reads_from_its_json_shape() {
+        let s: ContourShape = serde_json::from_str(r#"{"shape":"ellipse","center":[1,2],"semi_axes":[3,1]}"#).unwrap();
+        let c = crate::contour::Contour::from(&s);
+        assert_eq!(c, crate::contour::Contour::Ellipse { center: [1.0, 2.0], semi_axes: [3.0, 1.0], angle: 0.0 });
+        assert!(serde_json::from_str::<ContourShape>(r#"{"shape":"circle","center":[0,0],"radius":1,"r":2}"#).is_err());
+    }
 }

@@ -11,18 +11,15 @@ pub mod covering;
 
 use crate::C;
 use crate::error::Failure;
-use serde::{Deserialize, Serialize};
 use std::f64::consts::PI;
 
-/// A closed contour, as written in requests (`{"shape":"circle",...}`).
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "shape", rename_all = "snake_case", deny_unknown_fields)]
+/// A closed contour (its wire form is `api::wire::ContourShape`, field for field).
+#[derive(Debug, Clone, PartialEq)]
 pub enum Contour {
     Circle { center: [f64; 2], radius: f64 },
     Ellipse {
         center: [f64; 2],
         semi_axes: [f64; 2],
-        #[serde(default)]
         angle: f64,
     },
     Rectangle { corners: [[f64; 2]; 2] },
@@ -392,12 +389,6 @@ mod tests {
         assert!(Contour::circle(C::new(0.0, 0.0), -1.0).validate().unwrap_err().message().contains("positive"));
         assert!(Contour::Polygon { vertices: vec![[0.0, 0.0], [1.0, 1.0]] }.validate().is_err());
         assert!(Contour::rectangle(C::new(0.0, 0.0), C::new(0.0, 1.0)).validate().is_err());
-    }
-
-    #[test]
-    fn json_shape_round_trips() {
-        let s: Contour = serde_json::from_str(r#"{"shape":"ellipse","center":[1,2],"semi_axes":[3,1]}"#).unwrap();
-        assert_eq!(s, Contour::Ellipse { center: [1.0, 2.0], semi_axes: [3.0, 1.0], angle: 0.0 });
     }
 
     #[test]

@@ -3,7 +3,7 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, checked_contour, compile, hints, pole_candidates};
-use crate::api::wire::{pair, FunctionInput, Method};
+use crate::api::wire::{pair, ContourShape, FunctionInput, Method};
 use crate::contour::Contour;
 use crate::expr::Function;
 use crate::singular::classify::essential_residues;
@@ -21,7 +21,7 @@ use serde::{Deserialize, Serialize};
 pub struct SingularitiesRequest {
     #[serde(flatten)]
     pub function: FunctionInput,
-    pub region: Contour,
+    pub region: ContourShape,
     #[serde(default)]
     pub max_evaluations: Option<u64>,
 }
@@ -74,10 +74,10 @@ pub struct SingularitiesResponse {
 /// expression as typed; any other f by the sampling search of the region.
 pub fn run(req: &SingularitiesRequest) -> Result<SingularitiesResponse, ApiError> {
     let f = compile(&req.function)?;
-    checked_contour(&req.region, "region")?;
+    let region = checked_contour(&req.region, "region")?;
     match f.rational() {
-        Some(r) => rational(&f, &r.num, &r.den, &req.region),
-        None => general(&f, &req.region, req.max_evaluations),
+        Some(r) => rational(&f, &r.num, &r.den, &region),
+        None => general(&f, &region, req.max_evaluations),
     }
 }
 
