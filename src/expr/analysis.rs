@@ -11,7 +11,8 @@ use super::compile::R;
 use super::functions::Func;
 use super::parser::BinOp;
 use super::program::as_small_integer;
-use super::rational::{degree, is_zero, trim, Rational, RationalBuilder};
+use super::rational::{Rational, RationalBuilder};
+use crate::poly::{add, degree, is_zero, scale, trim};
 use crate::C;
 
 /// What the structure of f says about its singularities.
@@ -156,10 +157,7 @@ fn call(f: Func, arg: Option<Rational>, an: &mut Analysis) {
     let (pts, polys) = (&mut an.branch_candidates, &mut an.branch_candidate_polys);
     // Points where num/den = w, i.e. roots of num - w den.
     let level = |w: C| {
-        trim(super::rational::add(
-            &r.num,
-            &super::rational::scale(&r.den, -w),
-        ))
+        add(&r.num, &scale(&r.den, -w))
     };
     match f {
         Func::Log | Func::Sqrt => {
@@ -187,7 +185,7 @@ fn add_zeros_and_poles(r: &Rational, an: &mut Analysis) {
 
 /// Roots of `p` (degree <= 2) into `points`, or `p` itself into `polys`.
 fn add_roots(p: &[C], points: &mut Vec<C>, polys: &mut Vec<Vec<C>>) {
-    let p = trim(p.to_vec());
+    let p = trim(p);
     if is_zero(&p) {
         return;
     }
@@ -197,9 +195,9 @@ fn add_roots(p: &[C], points: &mut Vec<C>, polys: &mut Vec<Vec<C>>) {
         }
     };
     match degree(&p) {
-        0 => {}
-        1 => push(-p[0] / p[1]),
-        2 => {
+        None | Some(0) => {}
+        Some(1) => push(-p[0] / p[1]),
+        Some(2) => {
             for z in quadratic_roots(p[2], p[1], p[0]) {
                 push(z);
             }

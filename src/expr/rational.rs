@@ -1,10 +1,13 @@
 //! Rational-function detection: exact polynomial arithmetic on (numerator,
-//! denominator) pairs over the expression tree, and small polynomial helpers.
+//! denominator) pairs over the expression tree, with the one polynomial kit
+//! and its convention (`crate::poly`: ascending coefficients, trimmed, the
+//! zero polynomial empty).
 //!
 //! Method: direct expansion (schoolbook products, binary powering for integer
 //! powers, a/b + c/d = (ad + cb)/(bd) with the shortcut (a + c)/b when the
 //! denominators are identical). No cancellation of common factors.
 
+use crate::poly::{add, is_zero, mul, trim};
 use crate::C;
 
 /// Highest degree rational detection will build; beyond it detection declines.
@@ -14,62 +17,17 @@ pub const MAX_DEGREE: usize = 2000;
 pub const MAX_WORK: usize = 40_000_000;
 
 /// f = num/den, ascending coefficients (`num[k]` multiplies z^k). Not reduced.
-/// Both are trimmed of trailing exact zeros but keep at least one coefficient
-/// (the zero polynomial is `[0]`); `den` is never the zero polynomial.
+/// Both are trimmed of trailing exact zeros (`crate::poly`'s convention: the
+/// zero polynomial is empty, so f ≡ 0 has `num = []`); `den` is never zero.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Rational {
     pub num: Vec<C>,
     pub den: Vec<C>,
 }
 
-/// Remove trailing exact zeros, keeping at least one coefficient.
-pub fn trim(mut p: Vec<C>) -> Vec<C> {
-    while p.len() > 1 && p[p.len() - 1] == C::new(0.0, 0.0) {
-        p.pop();
-    }
-    if p.is_empty() {
-        p.push(C::new(0.0, 0.0));
-    }
-    p
-}
-
-/// Degree (0 for constants, including the zero polynomial).
-pub fn degree(p: &[C]) -> usize {
+/// Length less one: the degree, with 0 for constants and the zero polynomial (for limits only).
+fn length_degree(p: &[C]) -> usize {
     p.len().saturating_sub(1)
-}
-
-pub fn is_zero(p: &[C]) -> bool {
-    p.iter().all(|c| *c == C::new(0.0, 0.0))
-}
-
-pub fn add(a: &[C], b: &[C]) -> Vec<C> {
-    let mut out = vec![C::new(0.0, 0.0); a.len().max(b.len())];
-    for (k, c) in a.iter().enumerate() {
-        out[k] += c;
-    }
-    for (k, c) in b.iter().enumerate() {
-        out[k] += c;
-    }
-    trim(out)
-}
-
-pub fn scale(a: &[C], s: C) -> Vec<C> {
-    trim(a.iter().map(|c| c * s).collect())
-}
-
-pub fn mul(a: &[C], b: &[C]) -> Vec<C> {
-    let mut out = vec![C::new(0.0, 0.0); a.len() + b.len() - 1];
-    for (i, x) in a.iter().enumerate() {
-        for (j, y) in b.iter().enumerate() {
-            out[i + j] += x * y;
-        }
-    }
-    trim(out)
-}
-
-/// Evaluate by Horner's rule.
-pub fn eval(p: &[C], z: C) -> C {
-    p.iter().rev().fold(C::new(0.0, 0.0), |acc, c| acc * z + c)
 }
 
 /// Arithmetic on rational functions with degree and work limits; every
@@ -90,7 +48,7 @@ impl RationalBuilder {
     }
 
     fn mul_poly(&mut self, a: &[C], b: &[C]) -> Option<Vec<C>> {
-        if degree(a) + degree(b) > MAX_DEGREE {
+        if length_degree(a) + length_degree(b) > MAX_DEGREE {
             return None;
         }
         self.work += a.len() * b.len();
@@ -105,7 +63,7 @@ impl RationalBuilder {
             return None;
         }
         Some(Rational {
-            num: trim(vec![c]),
+            num: trim(&[c]),
             den: vec![C::new(1.0, 0.0)],
         })
     }
@@ -129,7 +87,7 @@ impl RationalBuilder {
         }
         if r.den.len() == 1 && r.den[0] != C::new(1.0, 0.0) {
             let d = r.den[0];
-            let num = trim(r.num.iter().map(|c| c / d).collect());
+            let num = trim(&r.num.iter().map(|c| c / d).collect::<Vec<C>>());
             return Some(Rational {
                 num,
                 den: vec![C::new(1.0, 0.0)],
@@ -192,7 +150,7 @@ impl RationalBuilder {
             return None;
         }
         let m = n.unsigned_abs() as usize;
-        let too_big = |p: &[C]| degree(p).checked_mul(m).is_none_or(|d| d > MAX_DEGREE);
+        let too_big = |p: &[C]| length_degree(p).checked_mul(m).is_none_or(|d| d > MAX_DEGREE);
         if too_big(base_num) || too_big(base_den) {
             return None;
         }

@@ -75,6 +75,28 @@ pub fn nth_derivative(p: &[C], n: usize) -> Vec<C> {
     d
 }
 
+/// True for the zero polynomial (empty, or every coefficient exactly zero).
+pub fn is_zero(p: &[C]) -> bool {
+    p.iter().all(|c| *c == C::new(0.0, 0.0))
+}
+
+/// Sum of two polynomials, trimmed.
+pub fn add(a: &[C], b: &[C]) -> Vec<C> {
+    let mut out = vec![C::new(0.0, 0.0); a.len().max(b.len())];
+    for (k, c) in a.iter().enumerate() {
+        out[k] += c;
+    }
+    for (k, c) in b.iter().enumerate() {
+        out[k] += c;
+    }
+    trim(&out)
+}
+
+/// `s·a`, trimmed.
+pub fn scale(a: &[C], s: C) -> Vec<C> {
+    trim(&a.iter().map(|c| c * s).collect::<Vec<C>>())
+}
+
 /// Product of two polynomials.
 pub fn mul(a: &[C], b: &[C]) -> Vec<C> {
     if a.is_empty() || b.is_empty() {
