@@ -69,7 +69,20 @@ fn find(parent: &mut [usize], i: usize) -> usize {
 pub fn cluster_roots(p: &[C], r: &Roots) -> Vec<RootCluster> {
     let n = r.roots.len();
     let radius: Vec<f64> = (0..n)
-        .map(|i| r.inclusion_radii[i].max(r.errors[i]))
+        .map(|i| {
+            // The inclusion disc n|p|/|p′| holds a root (Bini 1996). The running
+            // error bound is not used here: for a member of a cluster it can be far
+            // wider than the disc and would bridge distinct multiple roots.
+            let inclusion = r.inclusion_radii[i];
+            if inclusion.is_finite() {
+                inclusion
+            } else {
+                // p′ vanishes at the approximation (it converged onto a multiple
+                // root exactly): the inclusion disc is the whole plane and would
+                // merge every root into one. Use the perturbation radius instead.
+                perturbation_radius(p, r.roots[i])
+            }
+        })
         .collect();
     let mut parent: Vec<usize> = (0..n).collect();
     // Sort by real part so only nearby pairs are compared.
@@ -124,6 +137,20 @@ pub fn cluster_roots(p: &[C], r: &Roots) -> Vec<RootCluster> {
             refine_cluster(p, members)
         })
         .collect()
+}
+
+/// How far rounding the coefficients can move a root at `z` of the
+/// multiplicity the Taylor coefficients there show: with k the first index
+/// with p^(k)(z) ≠ 0, (4 n u Σ|p_j||z|^j / |p^(k)(z)/k!|)^(1/k) (common practice,
+/// the first-order perturbation of a k-fold root; Zeng 2005, §2). Infinite
+/// when p vanishes identically there.
+fn perturbation_radius(p: &[C], z: C) -> f64 {
+    let tc = coefficients_at(p, z, p.len());
+    let scale = abs_coefficients_at(p, z, 1)[0];
+    match (1..tc.len()).find(|&k| tc[k] != C::new(0.0, 0.0)) {
+        Some(k) => (4.0 * (p.len() as f64) * UNIT_ROUNDOFF * scale / tc[k].norm()).powf(1.0 / k as f64),
+        None => f64::INFINITY,
+    }
 }
 
 /// Centroid, Newton refinement on `p^(m−1)`, error estimate and a resolvability check.

@@ -10,4 +10,5 @@ mod contract_doc;
 mod inverse_laplace;
 mod inverse_z;
 mod meromorphic_battery;
+mod partial_fractions;
 mod real_integral;
