@@ -7,6 +7,18 @@
 //!   parts always shown, `−` (U+2212) — [`place`], [`place_real`].
 //!
 //! The page has its own `www/js/format.js` for what it shows.
+//!
+//! Method: rounding to a fixed number of significant digits through Rust's
+//! correctly rounded `{:e}` formatting, then the shortest text that reads back
+//! as that rounded value (common practice).
+//!
+//! ```
+//! use residuary::text::{place, real};
+//! use residuary::C;
+//! // 0.1 + 0.2 is 0.30000000000000004 in binary64 (IEEE 754); at 12 digits it is 0.3.
+//! assert_eq!(real(0.1 + 0.2), "0.3");
+//! assert_eq!(place(C::new(1.5, -0.25)), "1.5 − 0.25i");
+//! ```
 
 use crate::C;
 
@@ -90,5 +102,36 @@ mod tests {
         assert_eq!(place_real(1.0 / 3.0), "0.333333");
         assert_eq!(place_real(2e-5), "2.000000e-5");
         assert_eq!(place_real(f64::INFINITY), "∞");
+    }
+
+    /// Slow reference: read the text back as a number; 12 significant digits
+    /// mean a relative error of at most ½·10⁻¹¹, 6 decimals an absolute one of ½·10⁻⁶.
+    #[test]
+    fn texts_read_back_within_their_rounding() {
+        use crate::reference::check_method;
+        // Invented values over many decades, both signs.
+        let xs: Vec<f64> = (0..200)
+            .map(|k| {
+                let e = -9.0 + 0.117 * f64::from(k);
+                let s = if k % 3 == 0 { -1.0 } else { 1.0 };
+                s * 10f64.powf(e) * (1.0 + 0.123_456_789_012_345 * f64::from(k % 5))
+            })
+            .collect();
+        let cases: Vec<(&str, f64)> = xs.iter().map(|&x| ("real()", x)).collect();
+        check_method(
+            &cases,
+            |&x| (C::new(real(x).parse::<f64>().unwrap() / x, 0.0), None),
+            |_| C::new(1.0, 0.0),
+            5.000_001e-12,
+        );
+        let cases: Vec<(&str, f64)> =
+            xs.iter().filter(|x| (1e-4..1e9).contains(&x.abs())).map(|&x| ("place_real()", x)).collect();
+        check_method(
+            &cases,
+            // The error in units of ½·10⁻⁶ against 0, allowed 1 (assert_close scales by max(|0|, 1)).
+            |&x| (C::new((place_real(x).parse::<f64>().unwrap() - x) / 5.000_001e-7, 0.0), None),
+            |_| C::new(0.0, 0.0),
+            1.0,
+        );
     }
 }

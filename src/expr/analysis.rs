@@ -6,6 +6,23 @@
 //! Candidate points are roots of small polynomials, solved exactly (linear,
 //! or the quadratic formula in its cancellation-free form); roots of larger
 //! polynomials are handed on as coefficient lists.
+//!
+//! Method: exact rational forms by [`super::rational`]'s direct expansion;
+//! linear roots as −c/b; quadratic roots in the cancellation-free form
+//! q = −(b + sign·√(b² − 4ac))/2, roots q/a and c/q (W. H. Press et al.,
+//! Numerical Recipes, §5.6, from memory).
+//!
+//! ```
+//! use residuary::expr::analysis::quadratic_roots;
+//! use residuary::C;
+//! // z² − 3z + 2 = (z − 1)(z − 2), factored by hand.
+//! let mut r = quadratic_roots(C::new(1.0, 0.0), C::new(-3.0, 0.0), C::new(2.0, 0.0)).map(|z| z.re);
+//! r.sort_by(f64::total_cmp);
+//! assert_eq!(r, [1.0, 2.0]);
+//! // exp(1/(z − 2)) has its essential-singularity candidate at the pole z = 2 of the argument.
+//! let f = residuary::expr::Function::compile("exp(1/(z-2))", "z", &[]).unwrap();
+//! assert_eq!(f.analysis().essential_candidates, vec![C::new(2.0, 0.0)]);
+//! ```
 
 use super::compile::R;
 use super::functions::Func;
@@ -223,4 +240,57 @@ pub fn quadratic_roots(a: C, b: C, c: C) -> [C; 2] {
         return [C::new(0.0, 0.0), C::new(0.0, 0.0)];
     }
     [q / a, c / q]
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::check_method;
+
+    /// Slow reference: the schoolbook formula (−b ± √(b² − 4ac))/(2a), fine
+    /// for these well-conditioned invented cases; roots paired by nearness.
+    #[test]
+    fn quadratic_roots_match_the_schoolbook_formula() {
+        let c = C::new;
+        let quads = [
+            ("real roots", [c(1.0, 0.0), c(-3.0, 0.0), c(2.0, 0.0)]),
+            ("complex pair", [c(2.0, 0.0), c(1.0, 0.0), c(5.0, 0.0)]),
+            ("complex coefficients", [c(1.0, 1.0), c(-2.0, 0.5), c(0.3, -4.0)]),
+            ("double root", [c(1.0, 0.0), c(-4.0, 2.0), c(3.0, -4.0)]),
+        ];
+        let mut cases = Vec::new();
+        for (name, [a, b, cc]) in quads {
+            let s = (b * b - a * cc * 4.0).sqrt();
+            for want in [(-b + s) / (a * 2.0), (-b - s) / (a * 2.0)] {
+                cases.push((name, ([a, b, cc], want)));
+            }
+        }
+        check_method(
+            &cases,
+            |&([a, b, cc], want)| {
+                let [r0, r1] = quadratic_roots(a, b, cc);
+                (if (r0 - want).norm() <= (r1 - want).norm() { r0 } else { r1 }, None)
+            },
+            |&(_, want)| want,
+            1e-12,
+        );
+        // Cancellation: z² + 1e8 z + 1 has the small root −1e-8 − 1e-24 (series
+        // of the root in 1/b, common practice), which the schoolbook formula loses.
+        let [r0, r1] = quadratic_roots(c(1.0, 0.0), c(1e8, 0.0), c(1.0, 0.0));
+        let small = if r0.norm() < r1.norm() { r0 } else { r1 };
+        assert!((small.re + 1e-8).abs() <= 1e-22, "small root {small}");
+    }
+
+    #[test]
+    fn candidates_from_rational_arguments() {
+        use crate::expr::Function;
+        // By hand: 1/(z² − 4) has poles ±2 (difference of squares); log(z − 1) branches at 1.
+        let f = Function::compile("exp(1/(z^2-4)) + log(z-1)", "z", &[]).unwrap();
+        let a = f.analysis();
+        let mut e: Vec<f64> = a.essential_candidates.iter().map(|z| z.re).collect();
+        e.sort_by(f64::total_cmp);
+        assert_eq!(e, [-2.0, 2.0]);
+        assert!(a.uses_branch_functions);
+        assert!(a.branch_candidates.contains(&C::new(1.0, 0.0)));
+    }
 }

@@ -6,6 +6,19 @@
 //! Method: direct expansion (schoolbook products, binary powering for integer
 //! powers, a/b + c/d = (ad + cb)/(bd) with the shortcut (a + c)/b when the
 //! denominators are identical). No cancellation of common factors.
+//!
+//! ```
+//! use residuary::expr::Function;
+//! use residuary::C;
+//! // (z + 1)/(z − 2)^2 expanded by hand: num = 1 + z, den = 4 − 4z + z².
+//! let f = Function::compile("(z+1)/(z-2)^2", "z", &[]).unwrap();
+//! let r = f.rational().unwrap();
+//! let c = |x: f64| C::new(x, 0.0);
+//! assert_eq!(r.num, vec![c(1.0), c(1.0)]);
+//! assert_eq!(r.den, vec![c(4.0), c(-4.0), c(1.0)]);
+//! // Not rational: no form is built.
+//! assert!(Function::compile("exp(z)/(z-1)", "z", &[]).unwrap().rational().is_none());
+//! ```
 
 use crate::poly::{add, is_zero, mul, trim};
 use crate::C;
@@ -172,5 +185,73 @@ impl RationalBuilder {
             }
         }
         Some(acc)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use crate::expr::Function;
+    use crate::reference::check_method;
+    use crate::C;
+
+    /// Plain Horner evaluation of ascending coefficients (the slow side of the check).
+    fn horner(p: &[C], z: C) -> C {
+        let mut acc = C::new(0.0, 0.0);
+        for c in p.iter().rev() {
+            acc = acc * z + c;
+        }
+        acc
+    }
+
+    /// Slow reference: the expression evaluated directly at sample points,
+    /// against num/den of the detected rational form by Horner. Invented
+    /// rational expressions, exercising +, −, ×, ÷, integer powers of both signs,
+    /// complex constants and a non-reduced quotient.
+    #[test]
+    fn detected_num_over_den_equals_the_expression_at_sample_points() {
+        let sources = [
+            "(z^2+3)/(z-2)^3",
+            "1/(z-1) + 2/(z+1) - 3*z",
+            "(z+1)^5 - z*(z-1)",
+            "z^-2 + 4",
+            "(1+2i)*z/(z^2+4) - i",
+            "(z^2-1)/(z-1)",
+            "((z-3)^-2 + 1/(2*z+1))^2 / (z - 0.5i)",
+            "(2*z^3 - z + 7)/5",
+        ];
+        let points = [
+            C::new(0.3, 0.7),
+            C::new(-1.4, 0.25),
+            C::new(2.6, -1.1),
+            C::new(0.05, -0.4),
+            C::new(-0.8, -2.2),
+        ];
+        let mut cases = Vec::new();
+        for src in sources {
+            let f = Function::compile(src, "z", &[]).unwrap();
+            assert!(f.rational().is_some(), "{src} is rational but none was detected");
+            for z in points {
+                cases.push((src, (f.clone(), z)));
+            }
+        }
+        check_method(
+            &cases,
+            |(f, z)| {
+                let r = f.rational().unwrap();
+                (horner(&r.num, *z) / horner(&r.den, *z), None)
+            },
+            |(f, z)| f.eval(*z),
+            1e-11,
+        );
+    }
+
+    #[test]
+    fn non_rational_expressions_get_no_form() {
+        // A rational form would be wrong for these (common practice: exp, sqrt
+        // and non-integer powers are not rational functions).
+        for src in ["exp(z)", "sqrt(z+1)", "z^0.5", "1/(sin(z)+2)", "z^z"] {
+            let f = Function::compile(src, "z", &[]).unwrap();
+            assert!(f.rational().is_none(), "{src} was taken for a rational function");
+        }
     }
 }

@@ -17,6 +17,13 @@
 //!   a soft orange on the positive real axis. Increasing arg turns towards
 //!   yellow-green (arg = π/2 ≈ hue 145°), cyan-blue at arg = ±π (hue 235°),
 //!   violet-pink at arg = −π/2 (hue 325°).
+//!
+//! ```
+//! use residuary::plot::colour_wheel::{colour, Wheel};
+//! // The HSV hue circle (Smith 1978): arg 0 is pure red, arg 2π/3 pure green.
+//! assert_eq!(colour(Wheel::Hsv, 0.0), [255, 0, 0]);
+//! assert_eq!(colour(Wheel::Hsv, 2.0 * std::f64::consts::PI / 3.0), [0, 255, 0]);
+//! ```
 
 use super::oklab::{linear_to_srgb, oklab_to_linear_srgb, oklch_to_oklab, Triple};
 use std::f64::consts::PI;
@@ -111,4 +118,69 @@ pub fn lut(wheel: Wheel) -> &'static [[u8; 3]] {
 #[inline]
 pub fn colour(wheel: Wheel, arg: f64) -> [u8; 3] {
     lut(wheel)[lut_index(arg)]
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::plot::oklab::{oklab_to_oklch, srgb_to_oklab};
+    use crate::reference::{assert_close, check_method};
+    use crate::C;
+
+    /// Invented arguments spread over (−π, π] and a little beyond.
+    fn args() -> Vec<f64> {
+        (0..97).map(|k| -3.5 + 7.0 * f64::from(k) / 96.0 + 0.001 * f64::from(k % 7)).collect()
+    }
+
+    /// Slow reference: Smith's hexcone (SIGGRAPH 1978) with S = V = 1 written
+    /// sector by sector: h ∈ [0, 6), f its fraction, colours
+    /// (1,f,0) (1−f,1,0) (0,1,f) (0,1−f,1) (f,0,1) (1,0,1−f).
+    fn hexcone(hue: f64) -> Triple {
+        let h = (hue / (2.0 * PI)).rem_euclid(1.0) * 6.0;
+        let sector = h.floor();
+        let f = h - sector;
+        match sector as i64 {
+            0 => [1.0, f, 0.0],
+            1 => [1.0 - f, 1.0, 0.0],
+            2 => [0.0, 1.0, f],
+            3 => [0.0, 1.0 - f, 1.0],
+            4 => [f, 0.0, 1.0],
+            _ => [1.0, 0.0, 1.0 - f],
+        }
+    }
+
+    #[test]
+    fn hsv_wheel_matches_the_hexcone_sector_formulas() {
+        let cases: Vec<(&str, (f64, usize))> =
+            args().into_iter().flat_map(|a| (0..3).map(move |k| ("HSV component", (a, k)))).collect();
+        check_method(
+            &cases,
+            |&(a, k)| (C::new(wheel_srgb(Wheel::Hsv, a)[k], 0.0), None),
+            |&(a, k)| C::new(hexcone(a)[k], 0.0),
+            1e-12,
+        );
+    }
+
+    #[test]
+    fn oklch_wheel_has_the_stated_lightness_chroma_and_hue() {
+        // The module doc: L = 0.75, C = 0.12, hue = 55° + arg, all in gamut (no clipping).
+        for a in args() {
+            let lch = oklab_to_oklch(srgb_to_oklab(wheel_srgb(Wheel::Oklch, a)));
+            let what = format!("arg {a}");
+            // The published forward and inverse matrices agree to ~1e-8 (10 digits given); the hue, ÷ C = 0.12, to ~2e-7.
+            assert_close(C::new(lch[0], lch[1]), C::new(0.75, 0.12), 1e-7, &what);
+            assert_close(C::from_polar(1.0, lch[2]), C::from_polar(1.0, 55f64.to_radians() + a), 1e-6, &what);
+        }
+    }
+
+    #[test]
+    fn lut_index_is_the_nearest_entry_found_by_search() {
+        // Slow reference: the entry whose argument is nearest on the circle, by trying all.
+        for a in args() {
+            let dist = |k: usize| (C::from_polar(1.0, a) - C::from_polar(1.0, lut_arg(k))).norm();
+            let best = (0..LUT_SIZE).min_by(|&p, &q| dist(p).total_cmp(&dist(q))).unwrap();
+            assert_eq!(lut_index(a), best, "arg {a}");
+            assert_eq!(colour(Wheel::Oklch, a), lut(Wheel::Oklch)[best], "arg {a}");
+        }
+    }
 }

@@ -8,6 +8,16 @@
 //!
 //! All colours are `[f64; 3]`; sRGB and linear sRGB components are nominally
 //! in [0, 1] but nothing here clamps (out-of-gamut values pass through).
+//!
+//! ```
+//! use residuary::plot::oklab::srgb_to_oklab;
+//! // sRGB red #ff0000 is OKLab (0.62796, 0.22486, 0.12585) (from memory:
+//! // the value quoted with Ottosson 2020 and in CSS Color 4's examples).
+//! let lab = srgb_to_oklab([1.0, 0.0, 0.0]);
+//! for (got, want) in lab.iter().zip([0.62796, 0.22486, 0.12585]) {
+//!     assert!((got - want).abs() < 1e-4, "{lab:?}");
+//! }
+//! ```
 
 /// One colour as three `f64` components.
 pub type Triple = [f64; 3];
@@ -176,4 +186,111 @@ pub fn max_in_gamut_chroma(l: f64, hue: f64) -> f64 {
         }
     }
     lo
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::{assert_close, check_method};
+    use crate::C;
+
+    /// Slow reference: Ottosson 2020 written out by hand along the published
+    /// route XYZ → M1 → cube root → M2, with linear sRGB → XYZ from
+    /// IEC 61966-2-1 — not the combined linear-sRGB → LMS matrix the code uses.
+    fn by_hand_xyz_to_oklab(x: f64, y: f64, z: f64) -> Triple {
+        let l = 0.8189330101 * x + 0.3618667424 * y - 0.1288597137 * z;
+        let m = 0.0329845436 * x + 0.9293118715 * y + 0.0361456387 * z;
+        let s = 0.0482003018 * x + 0.2643662691 * y + 0.6338517070 * z;
+        // Real cube roots (M1 gives a negative l for pure Z).
+        let (l, m, s) = (l.cbrt(), m.cbrt(), s.cbrt());
+        [
+            0.2104542553 * l + 0.7936177850 * m - 0.0040720468 * s,
+            1.9779984951 * l - 2.4285922050 * m + 0.4505937099 * s,
+            0.0259040371 * l + 0.7827717662 * m - 0.8086757660 * s,
+        ]
+    }
+
+    fn by_hand_linear_srgb_to_oklab(r: f64, g: f64, b: f64) -> Triple {
+        by_hand_xyz_to_oklab(
+            0.4124 * r + 0.3576 * g + 0.1805 * b,
+            0.2126 * r + 0.7152 * g + 0.0722 * b,
+            0.0193 * r + 0.1192 * g + 0.9505 * b,
+        )
+    }
+
+    /// Cases as (colour, component) so that each OKLab component is one check.
+    fn component_cases(colours: &[(&'static str, Triple)]) -> Vec<(&'static str, (Triple, usize))> {
+        colours.iter().flat_map(|&(n, c)| (0..3).map(move |k| (n, (c, k)))).collect()
+    }
+
+    #[test]
+    fn linear_srgb_to_oklab_matches_the_published_matrices_by_hand() {
+        // Invented colours spread over the gamut, plus the primaries and white.
+        let colours = [
+            ("white", [1.0, 1.0, 1.0]),
+            ("red", [1.0, 0.0, 0.0]),
+            ("green", [0.0, 1.0, 0.0]),
+            ("blue", [0.0, 0.0, 1.0]),
+            ("mid grey", [0.2, 0.2, 0.2]),
+            ("orange", [0.8, 0.3, 0.05]),
+            ("teal", [0.05, 0.45, 0.5]),
+        ];
+        // The 4-digit IEC matrix against Ottosson's 10-digit combined one: 1e-3 apart at most.
+        check_method(
+            &component_cases(&colours),
+            |&(c, k)| (C::new(linear_srgb_to_oklab(c)[k], 0.0), None),
+            |&(c, k)| C::new(by_hand_linear_srgb_to_oklab(c[0], c[1], c[2])[k], 0.0),
+            1e-3,
+        );
+        // And the XYZ route of the code itself against the same hand computation, tightly.
+        let xyz = [("D65 white", [0.95, 1.0, 1.089]), ("X", [1.0, 0.0, 0.0]), ("Y", [0.0, 1.0, 0.0]), ("Z", [0.0, 0.0, 1.0])];
+        check_method(
+            &component_cases(&xyz),
+            |&(c, k)| (C::new(xyz_to_oklab(c)[k], 0.0), None),
+            |&(c, k)| C::new(by_hand_xyz_to_oklab(c[0], c[1], c[2])[k], 0.0),
+            1e-12,
+        );
+    }
+
+    #[test]
+    fn published_example_pairs() {
+        // Ottosson 2020, table of XYZ → OKLab examples (three decimals), from memory.
+        let table = [
+            ([0.950, 1.000, 1.089], [1.000, 0.000, 0.000]),
+            ([1.000, 0.000, 0.000], [0.450, 1.236, -0.019]),
+            ([0.000, 1.000, 0.000], [0.922, -0.671, 0.263]),
+            ([0.000, 0.000, 1.000], [0.153, -1.415, -0.449]),
+        ];
+        for (xyz, lab) in table {
+            let got = xyz_to_oklab(xyz);
+            for k in 0..3 {
+                assert_close(C::new(got[k], 0.0), C::new(lab[k], 0.0), 1.5e-3, &format!("XYZ {xyz:?} component {k}"));
+            }
+        }
+        // sRGB primaries (from memory: CSS Color 4 / Ottosson's reference code).
+        for (rgb, lab) in [
+            ([0.0, 1.0, 0.0], [0.86644, -0.23389, 0.17950]),
+            ([0.0, 0.0, 1.0], [0.45201, -0.03246, -0.31153]),
+        ] {
+            let got = srgb_to_oklab(rgb);
+            for k in 0..3 {
+                assert_close(C::new(got[k], 0.0), C::new(lab[k], 0.0), 2e-4, &format!("sRGB {rgb:?} component {k}"));
+            }
+        }
+    }
+
+    #[test]
+    fn transfer_function_and_inverses() {
+        // IEC 61966-2-1 piecewise curve written out: 0.5 encoded → ((0.5+0.055)/1.055)^2.4.
+        let want = ((0.5_f64 + 0.055) / 1.055).powf(2.4);
+        assert_close(C::new(srgb_to_linear(0.5), 0.0), C::new(want, 0.0), 1e-15, "sRGB 0.5");
+        assert_close(C::new(srgb_to_linear(0.02), 0.0), C::new(0.02 / 12.92, 0.0), 1e-15, "linear segment");
+        // Round trips (the matrices are published as mutual inverses to ~1e-9).
+        for rgb in [[0.3, 0.6, 0.9], [1.0, 0.0, 0.5], [0.01, 0.02, 0.03]] {
+            let back = oklab_to_srgb(srgb_to_oklab(rgb));
+            for k in 0..3 {
+                assert_close(C::new(back[k], 0.0), C::new(rgb[k], 0.0), 1e-7, "sRGB → OKLab → sRGB");
+            }
+        }
+    }
 }

@@ -25,6 +25,22 @@
 //! * modulus lines (when on) also add a gentle brightness ramp inside each
 //!   band of log_b|f|, brightest just below the next level, so that |f|
 //!   visibly grows away from zeros and towards poles.
+//!
+//! ```
+//! use residuary::plot::colour_wheel::colour;
+//! use residuary::plot::phase_plot::{render, PlotOptions, View, Wheel};
+//! use residuary::C;
+//! // f(z) = z on a 2×1 image of [−1, 1]×[−½, ½]: the pixel centres are
+//! // z = −½ and z = ½ (the convention above), where arg f is π and 0.
+//! let opts = PlotOptions { modulus_lines: false, phase_lines: false, ..PlotOptions::default() };
+//! let view = View { x0: -1.0, x1: 1.0, y0: -0.5, y1: 0.5 };
+//! let mut out = vec![0u8; 2 * 4];
+//! let mut f = |zs: &[C], fs: &mut [C]| fs.copy_from_slice(zs);
+//! render(&mut f, view, 2, 1, &opts, &mut out).unwrap();
+//! assert_eq!(out[0..3], colour(Wheel::Oklch, std::f64::consts::PI));
+//! assert_eq!(out[4..7], colour(Wheel::Oklch, 0.0));
+//! assert_eq!((out[3], out[7]), (255, 255));
+//! ```
 
 pub use super::colour_wheel::Wheel;
 use super::colour_wheel::{lut, lut_index};
@@ -456,4 +472,97 @@ fn fade(g: f64) -> f64 {
     let spacing = 1.0 / g;
     let t = ((spacing - FADE_START_PX) / (FADE_END_PX - FADE_START_PX)).clamp(0.0, 1.0);
     t * t * (3.0 - 2.0 * t)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::plot::colour_wheel::{OKLCH_CHROMA, OKLCH_HUE_AT_ARG_ZERO, OKLCH_LIGHTNESS};
+    use crate::plot::oklab::{oklab_to_oklch, srgb_to_oklab};
+    use crate::reference::assert_close;
+
+    /// f(z) = (z² − 1)/(z − 2i): invented, zeros at ±1, a pole at 2i.
+    fn f(z: C) -> C {
+        (z * z - 1.0) / (z - C::new(0.0, 2.0))
+    }
+
+    fn plain() -> PlotOptions {
+        PlotOptions { modulus_lines: false, phase_lines: false, ..PlotOptions::default() }
+    }
+
+    /// Slow reference: each pixel's centre written from the documented
+    /// convention, arg f by atan2 of f evaluated there directly, and the hue
+    /// read back from the pixel's own bytes (sRGB → OKLab → OKLCH hue).
+    #[test]
+    fn pixel_hue_is_arg_f_at_the_pixel_centre() {
+        let (w, h) = (37u32, 23u32);
+        let view = View { x0: -2.3, x1: 2.1, y0: -1.7, y1: 2.9 };
+        let mut out = vec![0u8; (w * h * 4) as usize];
+        let mut eval = |zs: &[C], fs: &mut [C]| {
+            for (z, v) in zs.iter().zip(fs.iter_mut()) {
+                *v = f(*z);
+            }
+        };
+        render(&mut eval, view, w, h, &plain(), &mut out).unwrap();
+        for j in 0..h {
+            for i in 0..w {
+                let z = C::new(
+                    view.x0 + (f64::from(i) + 0.5) * (view.x1 - view.x0) / f64::from(w),
+                    view.y1 - (f64::from(j) + 0.5) * (view.y1 - view.y0) / f64::from(h),
+                );
+                let v = f(z);
+                let arg = v.im.atan2(v.re);
+                let p = 4 * (j * w + i) as usize;
+                let rgb = [out[p], out[p + 1], out[p + 2]].map(|b| f64::from(b) / 255.0);
+                let lch = oklab_to_oklch(srgb_to_oklab(rgb));
+                let what = format!("pixel ({i}, {j}) at z = {z}");
+                // Byte rounding moves the hue by ~0.02 rad at chroma 0.12; the
+                // 1024-entry table by at most π/1024.
+                assert_close(
+                    C::from_polar(1.0, lch[2]),
+                    C::from_polar(1.0, OKLCH_HUE_AT_ARG_ZERO + arg),
+                    0.05,
+                    &what,
+                );
+                assert_close(C::new(lch[0], lch[1]), C::new(OKLCH_LIGHTNESS, OKLCH_CHROMA), 0.01, &what);
+                assert_eq!(out[p + 3], 255, "{what}: opaque");
+            }
+        }
+    }
+
+    /// Slow reference for the view at infinity: the pixel at w shows f(1/w),
+    /// computed directly; and lines only darken (never change the hue).
+    #[test]
+    fn infinity_view_and_lines_keep_the_hue_of_f_at_one_over_w() {
+        let (w, h) = (16u32, 12u32);
+        let view = View { x0: -0.9, x1: 0.7, y0: -0.55, y1: 0.65 };
+        let opts = PlotOptions { infinity_view: true, ..PlotOptions::default() };
+        let mut out = vec![0u8; (w * h * 4) as usize];
+        let mut eval = |zs: &[C], fs: &mut [C]| {
+            for (z, v) in zs.iter().zip(fs.iter_mut()) {
+                *v = f(*z);
+            }
+        };
+        render(&mut eval, view, w, h, &opts, &mut out).unwrap();
+        for j in 0..h {
+            for i in 0..w {
+                let wz = C::new(
+                    view.x0 + (f64::from(i) + 0.5) * (view.x1 - view.x0) / f64::from(w),
+                    view.y1 - (f64::from(j) + 0.5) * (view.y1 - view.y0) / f64::from(h),
+                );
+                let v = f(C::new(1.0, 0.0) / wz);
+                let p = 4 * (j * w + i) as usize;
+                let rgb = [out[p], out[p + 1], out[p + 2]].map(|b| f64::from(b) / 255.0);
+                let lch = oklab_to_oklch(srgb_to_oklab(rgb));
+                // Darkening by ≤ 45 % scales the linear light, which keeps the
+                // OKLab hue only approximately (the sRGB curve is not linear).
+                assert_close(
+                    C::from_polar(1.0, lch[2]),
+                    C::from_polar(1.0, OKLCH_HUE_AT_ARG_ZERO + v.arg()),
+                    0.2,
+                    &format!("pixel ({i}, {j}) at w = {wz}"),
+                );
+            }
+        }
+    }
 }
