@@ -58,6 +58,22 @@ impl Barycentric {
 
 /// AAA on samples (z_i, f_i) with relative tolerance `tol` and at most
 /// `max_terms` support points. Non-finite samples must be removed beforehand.
+///
+/// ```
+/// use residuary::singular::aaa::aaa;
+/// use residuary::C;
+/// // tan z sampled on |z| = 2.5: its poles inside are ±π/2 (common practice).
+/// let z: Vec<C> = (0..300)
+///     .map(|k| C::from_polar(2.5, 2.0 * std::f64::consts::PI * (k as f64 + 0.3) / 300.0))
+///     .collect();
+/// let f: Vec<C> = z.iter().map(|s| s.tan()).collect();
+/// let r = aaa(&z, &f, 1e-13, 60);
+/// let half_pi = std::f64::consts::FRAC_PI_2;
+/// for want in [half_pi, -half_pi] {
+///     let got = r.poles().into_iter().map(|p| (p - want).norm()).fold(f64::INFINITY, f64::min);
+///     assert!(got < 1e-8, "pole near {want}: off by {got:.1e}");
+/// }
+/// ```
 pub fn aaa(z: &[C], f: &[C], tol: f64, max_terms: usize) -> Barycentric {
     let m = z.len();
     let scale = f
@@ -245,5 +261,39 @@ mod tests {
         );
         let t = C::new(0.7, 0.4);
         assert!((r.eval(t) - f(t)).norm() < 1e-10);
+    }
+
+    /// Slow reference: a simple pole p of f alone inside a small circle is
+    /// p = (∮ z f dz) / (∮ f dz) (residue theorem; common practice), each
+    /// integral by the naive circle sum `reference::naive_circle_integral`.
+    /// AAA sees f only on a large circle, never near the pole.
+    #[test]
+    fn poles_of_sampled_functions_match_the_contour_centroid() {
+        use crate::reference::{check_method, naive_circle_integral};
+        type F = fn(C) -> C;
+        // (f, radius of the sampling circle about 0, a guess within 0.1 of the pole)
+        let cases: [(&str, (F, f64, C)); 4] = [
+            ("tan z at π/2", (|z| z.tan(), 2.5, C::new(1.6, 0.05))),
+            ("tan z at −π/2", (|z| z.tan(), 2.5, C::new(-1.55, -0.05))),
+            ("1/(e^z − 2) at ln 2", (|z| 1.0 / (z.exp() - 2.0), 2.0, C::new(0.7, 0.05))),
+            ("z/(z² + 2z + 5) + sin z at −1+2i", (|z| z / (z * z + 2.0 * z + 5.0) + z.sin(), 3.0, C::new(-1.05, 1.95))),
+        ];
+        check_method(
+            &cases,
+            |&(f, rho, guess)| {
+                let z: Vec<C> = (0..400)
+                    .map(|k| C::from_polar(rho, 2.0 * std::f64::consts::PI * (k as f64 + 0.3) / 400.0))
+                    .collect();
+                let fv: Vec<C> = z.iter().map(|&s| f(s)).collect();
+                let r = aaa(&z, &fv, 1e-13, 80);
+                let poles = r.poles();
+                let best = poles.iter().copied().min_by(|a, b| (a - guess).norm().total_cmp(&(b - guess).norm()));
+                (best.unwrap(), None)
+            },
+            |&(f, _, guess)| {
+                naive_circle_integral(|z| z * f(z), guess, 0.3, 4096) / naive_circle_integral(f, guess, 0.3, 4096)
+            },
+            1e-8,
+        );
     }
 }

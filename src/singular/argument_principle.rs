@@ -22,6 +22,20 @@ const MIN_STEP: f64 = 1e-11;
 
 /// N − P (zeros minus poles, with multiplicity) of f inside `contour`
 /// (weighted by the contour's winding number, so a clockwise polygon gives −(N − P)).
+///
+/// ```
+/// use residuary::budget::Budget;
+/// use residuary::contour::Contour;
+/// use residuary::singular::count_by_argument_principle;
+/// use residuary::C;
+/// // In |z| < 4, sin z has the zeros 0 and ±π, and sin z / (z − 1)² adds a
+/// // double pole at 1 (common practice): N − P = 3 and 3 − 2 = 1.
+/// let circle = Contour::circle(C::new(0.0, 0.0), 4.0);
+/// let mut budget = Budget::default();
+/// assert_eq!(count_by_argument_principle(&|z: C| z.sin(), &circle, &mut budget), Ok(3));
+/// let g = |z: C| z.sin() / ((z - 1.0) * (z - 1.0));
+/// assert_eq!(count_by_argument_principle(&g, &circle, &mut budget), Ok(1));
+/// ```
 pub fn count_by_argument_principle(
     f: &dyn Fn(C) -> C,
     contour: &Contour,

@@ -24,8 +24,6 @@ pub struct JumpScan {
     pub finite: bool,
 }
 
-/// Scan |z − a| = r with `n` samples, bisect the suspicious intervals, and
-/// return the angles of the discontinuities.
 /// Where bisection of a step of the parameter ended.
 pub(crate) struct Bisected {
     /// Midpoint of the final bracket.
@@ -67,6 +65,20 @@ pub(crate) fn bisect_jump(
     Ok(Bisected { at: 0.5 * (t0 + t1), size: (v1 - v0).norm(), finite })
 }
 
+/// Scan |z − a| = r with `n` samples, bisect the suspicious intervals, and
+/// return the angles of the discontinuities.
+///
+/// ```
+/// use residuary::budget::Budget;
+/// use residuary::singular::branch_jump::scan_for_jumps;
+/// use residuary::C;
+/// // The principal log has its cut on (−∞, 0] (common practice); the circle
+/// // |z − (0.5 + 0.5i)| = 1 meets it once, where sin θ = −1/2 and 0.5 + cos θ < 0,
+/// // at θ = 7π/6 (by hand).
+/// let s = scan_for_jumps(&|z: C| z.ln(), C::new(0.5, 0.5), 1.0, 256, &mut Budget::default()).unwrap();
+/// assert_eq!(s.jumps.len(), 1);
+/// assert!((s.jumps[0] - 7.0 * std::f64::consts::PI / 6.0).abs() < 1e-9, "{:?}", s.jumps);
+/// ```
 pub fn scan_for_jumps(
     f: &dyn Fn(C) -> C,
     a: C,
@@ -145,5 +157,49 @@ mod tests {
         let p = C::new(0.5 + 1e-3, 0.0);
         let s = scan_for_jumps(&|z: C| 1.0 / (z - p), C::new(0.0, 0.0), 0.5, 256, &mut b).unwrap();
         assert!(s.jumps.is_empty());
+    }
+
+    /// Slow reference: 2²⁰ equal steps around the circle, a jump wherever one
+    /// step changes f by more than a tenth of max |f| (common practice: the
+    /// smooth change over a step is ~10⁻⁶ of that), at the step's midpoint.
+    fn dense_jumps(f: &dyn Fn(C) -> C, a: C, r: f64) -> Vec<f64> {
+        let n = 1 << 20;
+        let th = |j: usize| 2.0 * PI * j as f64 / n as f64;
+        let vals: Vec<C> = (0..=n).map(|j| f(a + C::from_polar(r, th(j)))).collect();
+        let max_abs = vals.iter().map(|v| v.norm()).fold(0.0, f64::max);
+        (0..n).filter(|&j| (vals[j + 1] - vals[j]).norm() > 0.1 * max_abs).map(|j| 0.5 * (th(j) + th(j + 1))).collect()
+    }
+
+    #[test]
+    fn jump_angles_match_dense_sampling() {
+        use crate::reference::check_method;
+        type F = fn(C) -> C;
+        // (f, centre, radius, which jump); the closed-form angle is beside each (by hand).
+        let cases: [(&str, (F, C, f64, usize)); 5] = [
+            // cut Im z = 0.2, Re z ≤ 0: θ = π − asin 0.2
+            ("sqrt(z − 0.2i)", (|z| (z - C::new(0.0, 0.2)).sqrt(), C::new(0.0, 0.0), 1.0, 0)),
+            // cut Im z = −0.1, Re z ≤ 0.3: θ = π + asin 0.1
+            ("log(z − 0.3 + 0.1i)", (|z| (z - C::new(0.3, -0.1)).ln(), C::new(0.0, 0.0), 1.0, 0)),
+            // z² − 1/4 ∈ (−∞, 0] on the imaginary axis: θ = π/2 and 3π/2
+            ("sqrt(z² − 1/4), first", (|z| (z * z - 0.25).sqrt(), C::new(0.0, 0.0), 1.0, 0)),
+            ("sqrt(z² − 1/4), second", (|z| (z * z - 0.25).sqrt(), C::new(0.0, 0.0), 1.0, 1)),
+            // z^{1/3} principal, cut (−∞, 0] met by |z − 0.2| = 0.5 at θ = π
+            ("z^(1/3)", (|z| z.powf(1.0 / 3.0), C::new(0.2, 0.0), 0.5, 0)),
+        ];
+        let closed_form = [PI - 0.2f64.asin(), PI + 0.1f64.asin(), PI / 2.0, 1.5 * PI, PI];
+        check_method(
+            &cases,
+            |&(f, a, r, k)| {
+                let s = scan_for_jumps(&f, a, r, 256, &mut Budget::new(1_000_000)).unwrap();
+                assert_eq!(s.jumps.len(), dense_jumps(&f, a, r).len(), "{s:?}");
+                (C::new(s.jumps[k], 0.0), None)
+            },
+            |&(f, a, r, k)| C::new(dense_jumps(&f, a, r)[k], 0.0),
+            1e-5,
+        );
+        for ((name, (f, a, r, k)), want) in cases.iter().zip(closed_form) {
+            let s = scan_for_jumps(f, *a, *r, 256, &mut Budget::new(1_000_000)).unwrap();
+            assert!((s.jumps[*k] - want).abs() < 1e-9, "{name}: {:?} vs {want}", s.jumps);
+        }
     }
 }

@@ -32,6 +32,17 @@ const SIGNIFICANT: f64 = 1e-11;
 const N_MAX: usize = 8192;
 
 /// Classify f at the finite point a.
+///
+/// ```
+/// use residuary::budget::Budget;
+/// use residuary::singular::{classify_point, Hints, Kind};
+/// use residuary::C;
+/// // e^z/(z − 1)² has a double pole at 1 with residue (e^z)' at 1 = e (common practice).
+/// let f = |z: C| z.exp() / ((z - 1.0) * (z - 1.0));
+/// let p = classify_point(&f, C::new(1.0, 0.0), &Hints::default(), &mut Budget::default()).unwrap();
+/// assert_eq!((p.kind, p.order), (Kind::Pole, Some(2)));
+/// assert!((p.residue.unwrap() - std::f64::consts::E).norm() < 1e-10, "{p:?}");
+/// ```
 pub fn classify_point(
     f: &dyn Fn(C) -> C,
     a: C,
@@ -452,3 +463,72 @@ pub fn essential_residues(f: &dyn Fn(C) -> C, points: &[C], hints: &Hints, budge
         .collect()
 }
 
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::{check_method, naive_circle_coefficient};
+
+    /// Slow reference: c₋₁ by the naive circle sum with 8192 points
+    /// (`reference::naive_circle_coefficient`) on a circle of radius `r_ref`
+    /// that encloses no other singularity; the kind, order and closed-form
+    /// residue are beside each case.
+    #[test]
+    fn kinds_and_residues_match_the_naive_circle_sum() {
+        type F = fn(C) -> C;
+        let i = C::i();
+        // (f, point, kind, order, radius for the reference)
+        let cases: [(&str, (F, C, Kind, Option<u32>, f64)); 5] = [
+            // e^z/(z − 1)²: double pole, Res = e (derivative rule; common practice)
+            ("e^z/(z−1)² at 1", (|z| z.exp() / ((z - 1.0) * (z - 1.0)), C::new(1.0, 0.0), Kind::Pole, Some(2), 0.5)),
+            // cot z at π: simple pole, Res = cos π / cos π = 1 (common practice)
+            ("cot z at π", (|z| z.cos() / z.sin(), C::new(std::f64::consts::PI, 0.0), Kind::Pole, Some(1), 1.0)),
+            // 1/(z² + 4)² at 2i: Res = d/dz (z + 2i)^{−2} at 2i = −2/(4i)³ = −i/32 (common practice)
+            ("1/(z²+4)² at 2i", (|z| 1.0 / (z * z + 4.0).powi(2), 2.0 * i, Kind::Pole, Some(2), 1.0)),
+            // e^{1/z} = Σ z^{−k}/k!: essential, Res = 1 (common practice)
+            ("e^(1/z) at 0", (|z| (1.0 / z).exp(), C::new(0.0, 0.0), Kind::Essential, None, 0.5)),
+            // sin z / z⁴ = z⁻³ − z⁻¹/6 + …: triple pole, Res = −1/6 (Taylor series; common practice)
+            ("sin z/z⁴ at 0", (|z| z.sin() / (z * z).powi(2), C::new(0.0, 0.0), Kind::Pole, Some(3), 1.0)),
+        ];
+        let closed_form = [
+            C::new(std::f64::consts::E, 0.0),
+            C::new(1.0, 0.0),
+            -i / 32.0,
+            C::new(1.0, 0.0),
+            C::new(-1.0 / 6.0, 0.0),
+        ];
+        check_method(
+            &cases,
+            |&(f, a, kind, order, _)| {
+                let p = classify_point(&f, a, &Hints::default(), &mut Budget::new(10_000_000)).unwrap();
+                assert_eq!((p.kind, p.order), (kind, order), "{p:?}");
+                (p.residue.unwrap(), Some(p.error_estimate))
+            },
+            |&(f, a, _, _, r)| naive_circle_coefficient(f, a, r, 8192, -1),
+            1e-10,
+        );
+        for ((name, (f, a, ..)), want) in cases.iter().zip(closed_form) {
+            let p = classify_point(f, *a, &Hints::default(), &mut Budget::new(10_000_000)).unwrap();
+            crate::reference::assert_close(p.residue.unwrap(), want, 1e-10, name);
+        }
+    }
+
+    #[test]
+    fn regular_removable_and_branch_points() {
+        let mut b = Budget::new(10_000_000);
+        // sin z / z is removable at 0, e^z regular at 0 (Taylor series; common practice)
+        let p = classify_point(&|z: C| z.sin() / z, C::new(0.0, 0.0), &Hints::default(), &mut b).unwrap();
+        assert_eq!(p.kind, Kind::Removable, "{p:?}");
+        let p = classify_point(&|z: C| z.exp(), C::new(0.0, 0.0), &Hints::default(), &mut b).unwrap();
+        assert_eq!(p.kind, Kind::Regular, "{p:?}");
+        // sqrt z branches at 0 (common practice) and has no residue there
+        let hints = Hints { uses_branch_functions: true, ..Hints::default() };
+        let p = classify_point(&|z: C| z.sqrt(), C::new(0.0, 0.0), &hints, &mut b).unwrap();
+        assert_eq!((p.kind, p.residue), (Kind::BranchPoint, None), "{p:?}");
+        // z²/(z − 1) has a simple pole at infinity: f = z + 1 + 1/(z − 1), so the
+        // residue at infinity is −1 (−(coefficient of z⁻¹); common practice)
+        let p = classify_infinity(&|z: C| z * z / (z - 1.0), &Hints::default(), &mut b).unwrap();
+        assert_eq!((p.kind, p.order), (Kind::Pole, Some(1)), "{p:?}");
+        crate::reference::assert_close(p.residue.unwrap(), C::new(-1.0, 0.0), 1e-10, "Res at ∞ of z²/(z−1)");
+    }
+}

@@ -37,6 +37,21 @@ pub struct Crossing {
 /// Points of the contour where f jumps (a branch cut crosses the curve there),
 /// in order along the curve. Non-finite samples are skipped (the quadrature
 /// reports those).
+///
+/// ```
+/// use residuary::budget::Budget;
+/// use residuary::contour::Contour;
+/// use residuary::singular::cut_crossing::cut_crossings;
+/// use residuary::C;
+/// // The principal sqrt(z − 3) has its cut on (−∞, 3] (common practice), which
+/// // meets the square [−1/2, 1/2]² at −1/2 and 1/2 on its left and right sides.
+/// let square = Contour::rectangle(C::new(-0.5, -0.5), C::new(0.5, 0.5));
+/// let x = cut_crossings(&|z: C| (z - 3.0).sqrt(), &square, &mut Budget::default()).unwrap();
+/// assert_eq!(x.len(), 2);
+/// for want in [-0.5, 0.5] {
+///     assert!(x.iter().any(|c| (c.at - C::new(want, 0.0)).norm() < 1e-9), "{x:?}");
+/// }
+/// ```
 pub fn cut_crossings(
     f: &dyn Fn(C) -> C,
     contour: &Contour,

@@ -57,6 +57,26 @@ struct Ctx<'a> {
 }
 
 /// Zeros, poles, essential singularities and branch points of f inside `region`.
+///
+/// ```
+/// use residuary::budget::Budget;
+/// use residuary::contour::Contour;
+/// use residuary::singular::{find_singularities, Hints};
+/// use residuary::C;
+/// // In |z| < 2, 1/cos z has simple poles at ±π/2 with residues ∓1
+/// // (Res = 1/(cos)'(±π/2) = 1/∓sin(±π/2); common practice) and no zeros.
+/// let f = |z: C| 1.0 / z.cos();
+/// let fd = |z: C| (1.0 / z.cos(), z.sin() / (z.cos() * z.cos()));
+/// let region = Contour::circle(C::new(0.0, 0.0), 2.0);
+/// let r = find_singularities(&f, &fd, &region, &Hints::default(), &mut Budget::default()).unwrap();
+/// assert_eq!((r.poles.len(), r.zeros.len(), r.zeros_minus_poles), (2, 0, -2));
+/// let half_pi = std::f64::consts::FRAC_PI_2;
+/// for (at, res) in [(half_pi, -1.0), (-half_pi, 1.0)] {
+///     let p = r.poles.iter().find(|p| (p.at - at).norm() < 1e-9).expect("pole at ±π/2");
+///     assert_eq!(p.order, 1);
+///     assert!((p.residue.unwrap() - res).norm() < 1e-9, "{p:?}");
+/// }
+/// ```
 pub fn find_singularities(
     f: &dyn Fn(C) -> C,
     fd: &dyn Fn(C) -> (C, C),
@@ -702,4 +722,86 @@ fn single_point_of_order(
         .map(|k| l.normalized(k).norm())
         .fold(0.0, f64::max);
     Ok(lower <= 1e-6 * lead.max(f64::MIN_POSITIVE) || lower <= 1e-12 * l.max_abs)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::{check_method, naive_circle_coefficient, naive_circle_integral};
+
+    type F = fn(C) -> C;
+    type Fd = fn(C) -> (C, C);
+
+    /// (f, f and f', region, how many poles and zeros it holds — counted by hand from the factors)
+    fn cases() -> Vec<(&'static str, (F, Fd, Contour, usize, usize))> {
+        vec![
+            (
+                "e^z/((z − 0.5)²(z + 1 + i)) in |z| < 2",
+                (
+                    |z| z.exp() / ((z - 0.5).powi(2) * (z + C::new(1.0, 1.0))),
+                    |z| {
+                        let f = z.exp() / ((z - 0.5).powi(2) * (z + C::new(1.0, 1.0)));
+                        // f'/f = 1 − 2/(z − 0.5) − 1/(z + 1 + i) (logarithmic derivative)
+                        (f, f * (1.0 - 2.0 / (z - 0.5) - 1.0 / (z + C::new(1.0, 1.0))))
+                    },
+                    Contour::circle(C::new(0.0, 0.0), 2.0),
+                    2,
+                    0,
+                ),
+            ),
+            (
+                "(z² − 2)/(z³ − 1) in the rectangle [−2, 2] × [−1.5, 1.5]",
+                (
+                    |z| (z * z - 2.0) / (z * z * z - 1.0),
+                    |z| {
+                        let (p, q) = (z * z - 2.0, z * z * z - 1.0);
+                        (p / q, (z * 2.0 * q - p * z * z * 3.0) / (q * q))
+                    },
+                    Contour::rectangle(C::new(-2.0, -1.5), C::new(2.0, 1.5)),
+                    3,
+                    2,
+                ),
+            ),
+        ]
+    }
+
+    /// Slow references: each pole's residue by the naive circle sum
+    /// (`reference::naive_circle_coefficient`, radius 0.2, 8192 points), and
+    /// each point's location by the centroid (∮ z f'/f dz)/(∮ f'/f dz) of
+    /// the argument principle on a circle of radius 0.2 about it (Ahlfors,
+    /// "Complex Analysis", ch. 5 §3.2 — from memory), by the naive circle sum.
+    #[test]
+    fn residues_and_locations_match_naive_circle_sums() {
+        let mut residues = Vec::new();
+        let mut points = Vec::new();
+        for (name, (f, fd, region, n_poles, n_zeros)) in cases() {
+            let r = find_singularities(&f, &fd, &region, &Hints::default(), &mut Budget::new(50_000_000)).unwrap();
+            assert_eq!((r.poles.len(), r.zeros.len()), (n_poles, n_zeros), "{name}: {r:?}");
+            for p in &r.poles {
+                residues.push((name, (f, p.at, p.residue.unwrap(), p.error_estimate)));
+                points.push((name, (fd, p.at, p.error_estimate.max(1e-12))));
+            }
+            for z in &r.zeros {
+                points.push((name, (fd, z.at, z.error_estimate)));
+            }
+        }
+        check_method(
+            &residues,
+            |&(_, _, res, err)| (res, Some(err)),
+            |&(f, at, _, _)| naive_circle_coefficient(f, at, 0.2, 8192, -1),
+            1e-10,
+        );
+        check_method(
+            &points,
+            |&(_, at, _)| (at, None),
+            |&(fd, at, _)| {
+                let log_d = |z: C| {
+                    let (v, d) = fd(z);
+                    d / v
+                };
+                naive_circle_integral(|z| z * log_d(z), at, 0.2, 8192) / naive_circle_integral(log_d, at, 0.2, 8192)
+            },
+            1e-9,
+        );
+    }
 }

@@ -31,6 +31,18 @@ pub struct Refined {
 /// local minimum of that merit against four neighbours at distance δ, a
 /// derivative-free certificate that a zero/pole lies within about δ.
 /// `None` when it fails, or wanders further than `max_travel` from the start.
+///
+/// ```
+/// use residuary::budget::Budget;
+/// use residuary::singular::newton_refine::{newton_refine, Target};
+/// use residuary::C;
+/// // The first positive zero of cos is π/2 (common practice).
+/// let fd = |z: C| (z.cos(), -z.sin());
+/// let r = newton_refine(&fd, C::new(1.4, 0.1), Target::Zero, 1.0, &mut Budget::default())
+///     .unwrap()
+///     .unwrap();
+/// assert!((r.at - C::new(std::f64::consts::FRAC_PI_2, 0.0)).norm() < 1e-12, "{:?}", r.at);
+/// ```
 pub fn newton_refine(
     fd: &dyn Fn(C) -> (C, C),
     start: C,
@@ -158,5 +170,41 @@ mod tests {
             .unwrap()
             .unwrap();
         assert!((z.at - C::new(1.0, 0.0)).norm() < 1e-10, "{:?}", z.at);
+    }
+
+    /// Slow reference: the one zero (pole) of f inside a circle sits at
+    /// (∮ z f'/f dz) / (∮ f'/f dz), the centroid form of the argument
+    /// principle (Ahlfors, "Complex Analysis", ch. 5 §3.2 — from memory),
+    /// each integral by the naive circle sum `reference::naive_circle_integral`.
+    #[test]
+    fn points_match_the_contour_centroid() {
+        use crate::reference::{check_method, naive_circle_integral};
+        type Fd = fn(C) -> (C, C);
+        let cases: [(&str, (Fd, C, Target)); 5] = [
+            ("zero of cos near 1.5", (|z| (z.cos(), -z.sin()), C::new(1.5, 0.1), Target::Zero)),
+            ("pole of sec near 1.6", (|z| (1.0 / z.cos(), z.sin() / (z.cos() * z.cos())), C::new(1.6, -0.1), Target::Pole)),
+            ("zero of e^z − 2", (|z| (z.exp() - 2.0, z.exp()), C::new(0.6, 0.2), Target::Zero)),
+            ("double zero of (z²+1)²", (|z| ((z * z + 1.0).powi(2), (z * z + 1.0) * z * 4.0), C::new(0.1, 1.1), Target::Zero)),
+            ("pole of 1/(z³−2)", (|z| {
+                let q = z * z * z - 2.0;
+                (1.0 / q, -(z * z * 3.0) / (q * q))
+            }, C::new(1.2, 0.05), Target::Pole)),
+        ];
+        check_method(
+            &cases,
+            |&(fd, start, target)| {
+                let r = newton_refine(&fd, start, target, 1.0, &mut Budget::new(100_000)).unwrap().unwrap();
+                (r.at, Some(r.last_step))
+            },
+            |&(fd, start, _)| {
+                let log_d = |z: C| {
+                    let (v, d) = fd(z);
+                    d / v
+                };
+                let r = 0.3;
+                naive_circle_integral(|z| z * log_d(z), start, r, 4096) / naive_circle_integral(log_d, start, r, 4096)
+            },
+            1e-10,
+        );
     }
 }

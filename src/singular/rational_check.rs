@@ -5,9 +5,27 @@
 //! the expression was a product of many factors, that expansion can make the
 //! roots far more sensitive to rounding than the factors were. Sampling the
 //! compiled expression (which keeps the factors) on a circle around each
-//! reported pole gives c₋₁ by a second, unrelated method (Trefethen & Weideman,
-//! "The exponentially convergent trapezoidal rule", SIAM Review 56, 2014). A
-//! disagreement beyond both error estimates is reported, never hidden.
+//! reported pole gives c₋₁ by a second, unrelated method. A disagreement
+//! beyond both error estimates is reported, never hidden.
+//!
+//! Method: c₋₁ ≈ (1/N) Σ_k f(a + rω^k) rω^k, ω = e^{2πi/N}, N = 32, on the
+//! circle of radius r = 0.15 × the distance to the nearest other pole, with
+//! the N/2-point rule as the error estimate (L. N. Trefethen & J. A. C.
+//! Weideman, "The exponentially convergent trapezoidal rule", SIAM Review 56,
+//! 2014); the two values agree when they are consistent under `ways`' one
+//! agreement rule.
+//!
+//! ```
+//! use residuary::budget::Budget;
+//! use residuary::singular::rational_check::check_residues;
+//! use residuary::C;
+//! // f = 1/((z − 1)(z + 2)): Res at 1 is 1/3 (simple-pole rule; common practice).
+//! let f = |z: C| 1.0 / ((z - 1.0) * (z + 2.0));
+//! let poles = [C::new(1.0, 0.0), C::new(-2.0, 0.0)];
+//! let checks = check_residues(&f, &[(poles[0], C::new(1.0 / 3.0, 0.0), 1e-15)], &poles, &mut Budget::default());
+//! let c = checks[0].as_ref().unwrap();
+//! assert!(c.agrees && (c.sampled - C::new(1.0 / 3.0, 0.0)).norm() < 1e-13, "{c:?}");
+//! ```
 
 use crate::budget::Budget;
 use crate::cauchy::circle::CircleSamples;
@@ -114,5 +132,34 @@ mod tests {
         assert!(good.agrees && good.difference < 1e-13, "{good:?}");
         let bad = checks[1].as_ref().unwrap();
         assert!(!bad.agrees && (bad.difference - (0.3 - -1.0 / 3.0f64).abs()).abs() < 1e-12, "{bad:?}");
+    }
+
+    /// Slow reference: the naive circle sum with 4096 points on a circle of
+    /// another radius (`reference::naive_circle_coefficient`); the exact
+    /// residues beside each case follow the simple/double-pole rules (common practice).
+    #[test]
+    fn sampled_residues_match_the_naive_circle_sum() {
+        use crate::reference::{check_method, naive_circle_coefficient};
+        type F = fn(C) -> C;
+        let i = C::i();
+        // (f, all its poles, the pole checked, its exact residue)
+        let cases: [(&str, (F, Vec<C>, usize, C)); 3] = [
+            // Res at 2i of 1/(z² + 4) = 1/(4i)
+            ("1/(z²+4) at 2i", (|z| 1.0 / (z * z + 4.0), vec![2.0 * i, -2.0 * i], 0, 1.0 / (4.0 * i))),
+            // Res at 1 of (z + 3)/((z − 1)²(z + 1)) = d/dz (z+3)/(z+1) at 1 = −2/4
+            ("(z+3)/((z−1)²(z+1)) at 1", (|z| (z + 3.0) / ((z - 1.0).powi(2) * (z + 1.0)), vec![C::new(1.0, 0.0), C::new(-1.0, 0.0)], 0, C::new(-0.5, 0.0))),
+            // Res at −1 of the same = (−1+3)/(−2)² = 1/2
+            ("(z+3)/((z−1)²(z+1)) at −1", (|z| (z + 3.0) / ((z - 1.0).powi(2) * (z + 1.0)), vec![C::new(1.0, 0.0), C::new(-1.0, 0.0)], 1, C::new(0.5, 0.0))),
+        ];
+        check_method(
+            &cases,
+            |(f, poles, k, exact)| {
+                let c = check_residues(f, &[(poles[*k], *exact, 1e-15)], poles, &mut Budget::default())[0].clone().unwrap();
+                assert!(c.agrees, "{c:?}");
+                (c.sampled, Some(c.sampled_error))
+            },
+            |(f, poles, k, _)| naive_circle_coefficient(f, poles[*k], 0.5, 4096, -1),
+            1e-12,
+        );
     }
 }

@@ -100,6 +100,22 @@ fn cluster_warning(c: &RootCluster, what: &str) -> Option<String> {
 }
 
 /// Analyse `num/den` (ascending coefficients; common roots may remain).
+///
+/// ```
+/// use residuary::singular::rational_poles::analyse_rational;
+/// use residuary::C;
+/// // (z + 3)/((z − 1)²(z + 1)) = (z + 3)/(z³ − z² − z + 1): a double pole at 1 with
+/// // residue d/dz (z+3)/(z+1) at 1 = −1/2, a simple pole at −1 with residue 2/4 = 1/2,
+/// // so the residue at infinity is 0 (residue rules; common practice).
+/// let re = |x: f64| C::new(x, 0.0);
+/// let a = analyse_rational(&[re(3.0), re(1.0)], &[re(1.0), re(-1.0), re(-1.0), re(1.0)]).unwrap();
+/// let at_one = a.poles.iter().find(|p| (p.at - re(1.0)).norm() < 1e-6).unwrap();
+/// assert_eq!(at_one.order, 2);
+/// assert!((at_one.residue - re(-0.5)).norm() < 1e-8, "{at_one:?}");
+/// let at_minus_one = a.poles.iter().find(|p| (p.at - re(-1.0)).norm() < 1e-6).unwrap();
+/// assert!((at_minus_one.residue - re(0.5)).norm() < 1e-8, "{at_minus_one:?}");
+/// assert!(a.residue_at_infinity.norm() < 1e-8);
+/// ```
 pub fn analyse_rational(num: &[C], den: &[C]) -> Result<RationalAnalysis, Failure> {
     analyse(num, den, None)
 }
@@ -619,6 +635,49 @@ mod tests {
         assert_eq!(
             partial_fractions_string(&a, "z"),
             "2 - (0.25 + 1i)/(z + 2i)^2 + 0.5/(z - 1)"
+        );
+    }
+
+    fn horner(p: &[C], z: C) -> C {
+        p.iter().rev().fold(C::new(0.0, 0.0), |acc, &c| acc * z + c)
+    }
+
+    /// Slow reference: each residue by the naive circle sum
+    /// (`reference::naive_circle_coefficient`, 8192 points, radius 0.25 — every
+    /// pole here is at least 0.9 from the others) on num/den evaluated by Horner,
+    /// and Res∞ = −(1/2πi)∮ f dz on |z| = 10 (common practice), by
+    /// `reference::naive_circle_integral`.
+    #[test]
+    fn residues_match_the_naive_circle_sum() {
+        use crate::reference::{check_method, naive_circle_coefficient, naive_circle_integral};
+        let one = c(1.0, 0.0);
+        // (num, den) ascending; the denominators are built from their roots
+        let cases: Vec<(&str, (Vec<C>, Vec<C>))> = vec![
+            ("(z² + 1)/((z − 2)(z + 1 − i)(z − 3i))", (vec![one, c(0.0, 0.0), one], from_roots(one, &[c(2.0, 0.0), c(-1.0, 1.0), c(0.0, 3.0)]))),
+            ("(z⁴ − 2z + 5)/((z − 1)³(z + 2))", (vec![c(5.0, 0.0), c(-2.0, 0.0), c(0.0, 0.0), c(0.0, 0.0), one], from_roots(one, &[one, one, one, c(-2.0, 0.0)]))),
+            ("3/(2(z + i)²(z − 0.5))", (vec![c(3.0, 0.0)], from_roots(c(2.0, 0.0), &[c(0.0, -1.0), c(0.0, -1.0), c(0.5, 0.0)]))),
+        ];
+        let mut poles = Vec::new();
+        let mut infinity = Vec::new();
+        for (name, (num, den)) in &cases {
+            let a = analyse_rational(num, den).unwrap();
+            assert_eq!(a.poles.iter().map(|p| p.order).sum::<u32>() as usize, den.len() - 1, "{name}");
+            for p in &a.poles {
+                poles.push((*name, (num.clone(), den.clone(), p.at, p.residue, p.error_estimate)));
+            }
+            infinity.push((*name, (num.clone(), den.clone(), a.residue_at_infinity)));
+        }
+        check_method(
+            &poles,
+            |(_, _, _, res, err)| (*res, Some(*err)),
+            |(num, den, at, _, _)| naive_circle_coefficient(|z| horner(num, z) / horner(den, z), *at, 0.25, 8192, -1),
+            1e-10,
+        );
+        check_method(
+            &infinity,
+            |(_, _, res)| (*res, None),
+            |(num, den, _)| -naive_circle_integral(|z| horner(num, z) / horner(den, z), c(0.0, 0.0), 10.0, 8192) / c(0.0, 2.0 * std::f64::consts::PI),
+            1e-9,
         );
     }
 }

@@ -113,6 +113,16 @@ pub fn laurent_on_circle(
 /// estimate from a second radius r/2 (and the sample-count doubling): the
 /// difference of the two estimates, times 2, plus the rounding level.
 /// The circle must enclose no singularity other than a.
+///
+/// ```
+/// use residuary::budget::Budget;
+/// use residuary::singular::residue_trapezoid::residue_by_trapezoid;
+/// use residuary::C;
+/// // Res_{z=0} cos z / z³ = −1/2, the z² Taylor coefficient of cos (common practice).
+/// let f = |z: C| z.cos() / (z * z * z);
+/// let (res, err) = residue_by_trapezoid(&f, C::new(0.0, 0.0), 1.0, &mut Budget::default()).unwrap();
+/// assert!((res - C::new(-0.5, 0.0)).norm() <= err.max(1e-13), "{res} ± {err}");
+/// ```
 pub fn residue_by_trapezoid(
     f: &dyn Fn(C) -> C,
     a: C,
@@ -151,6 +161,31 @@ mod tests {
         let want = a.exp();
         assert!((res - want).norm() <= err, "{res} vs {want}, err {err}");
         assert!(err < 1e-13);
+    }
+
+    /// Against the slow reference: the naive DFT sum on a circle with many
+    /// points (`reference::naive_circle_coefficient`, Cauchy's formula for
+    /// c₋₁ taken as written), on a pole of order 1, 2 and 3 and a pole with a
+    /// neighbour outside the circle.
+    #[test]
+    fn residues_match_the_naive_circle_sum() {
+        use crate::reference::{check_method, naive_circle_coefficient};
+        type F = fn(C) -> C;
+        let cases: [(&str, (F, C, f64)); 4] = [
+            ("e^z/(z−0.3+0.2i)", (|z| z.exp() / (z - C::new(0.3, -0.2)), C::new(0.3, -0.2), 0.5)),
+            ("sin z/(z−1)²", (|z| z.sin() / ((z - 1.0) * (z - 1.0)), C::new(1.0, 0.0), 0.7)),
+            ("e^{2z}/(z+i)³", (|z| (2.0 * z).exp() / (z + C::i()).powi(3), -C::i(), 0.4)),
+            ("1/((z−2)(z+1))", (|z| 1.0 / ((z - 2.0) * (z + 1.0)), C::new(2.0, 0.0), 1.5)),
+        ];
+        check_method(
+            &cases,
+            |&(f, a, r)| {
+                let (res, err) = residue_by_trapezoid(&f, a, r, &mut Budget::new(1_000_000)).unwrap();
+                (res, Some(err))
+            },
+            |&(f, a, r)| naive_circle_coefficient(f, a, 0.8 * r, 4096, -1),
+            1e-11,
+        );
     }
 }
 
