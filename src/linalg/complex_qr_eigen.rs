@@ -11,6 +11,17 @@ use crate::C;
 /// Eigenvalues of the n×n matrix `a` (row-major `a[i][j]`). Returns `None`
 /// if the iteration fails to converge (never happens for finite input in
 /// practice) or the input is not finite.
+///
+/// ```
+/// use residuary::linalg::complex_qr_eigen::eigenvalues;
+/// use residuary::C;
+/// // [[2, 1], [1, 2]] has eigenvalues 1 and 3 (characteristic polynomial (λ − 2)² − 1).
+/// let r = |x: f64| C::new(x, 0.0);
+/// let mut ev: Vec<f64> = eigenvalues(vec![vec![r(2.0), r(1.0)], vec![r(1.0), r(2.0)]])
+///     .unwrap().iter().map(|z| z.re).collect();
+/// ev.sort_by(f64::total_cmp);
+/// assert!((ev[0] - 1.0).abs() < 1e-14 && (ev[1] - 3.0).abs() < 1e-14);
+/// ```
 pub fn eigenvalues(mut a: Vec<Vec<C>>) -> Option<Vec<C>> {
     let n = a.len();
     if a.iter()

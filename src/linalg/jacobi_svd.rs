@@ -118,6 +118,17 @@ fn rotate(a: &mut Columns, p: usize, q: usize, c: f64, s: f64, phase: C) {
 
 /// The right singular vector for the smallest singular value of the m×n
 /// matrix given by columns (m ≥ n), and that singular value.
+///
+/// ```
+/// use residuary::linalg::jacobi_svd::smallest_right_singular_vector;
+/// use residuary::C;
+/// // Columns (1, 1, 1) and (1, 1, 1): rank one, so σ_min = 0 with v ∝ (1, −1)
+/// // (any linear algebra text).
+/// let one = C::new(1.0, 0.0);
+/// let (v, sigma) = smallest_right_singular_vector(vec![vec![one; 3], vec![one; 3]], 3);
+/// assert!(sigma < 1e-14);
+/// assert!((v[0] + v[1]).norm() < 1e-14 && (v[0].norm() - 0.5f64.sqrt()).abs() < 1e-14);
+/// ```
 pub fn smallest_right_singular_vector(a: Columns, m: usize) -> (Vec<C>, f64) {
     let r = householder_r(a, m);
     let (sigma, v) = jacobi_svd(r);

@@ -146,6 +146,17 @@ fn check_input(p: &[C]) -> Result<(), Failure> {
 ///
 /// Zeros at the origin (vanishing low coefficients) are returned exactly, first.
 /// Errors: a non-finite coefficient, the zero polynomial, degree above [`MAX_DEGREE`].
+///
+/// ```
+/// use residuary::poly::aberth_ehrlich::roots;
+/// use residuary::C;
+/// // z² − 3z + 2 = (z − 1)(z − 2) (factoring by hand, common practice).
+/// let r = roots(&[C::new(2.0, 0.0), C::new(-3.0, 0.0), C::new(1.0, 0.0)]).unwrap();
+/// let mut re: Vec<f64> = r.roots.iter().map(|z| z.re).collect();
+/// re.sort_by(f64::total_cmp);
+/// assert!((re[0] - 1.0).abs() < 1e-14 && (re[1] - 2.0).abs() < 1e-14);
+/// assert!(r.roots.iter().all(|z| z.im.abs() < 1e-14));
+/// ```
 pub fn roots(p: &[C]) -> Result<Roots, Failure> {
     check_input(p)?;
     let p = super::trim(p);

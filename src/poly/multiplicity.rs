@@ -1,6 +1,6 @@
 //! Multiple roots from clusters of simple approximations.
 //!
-//! A root of multiplicity m comes out of a floating-point root finder as m
+//! Method: a root of multiplicity m comes out of a floating-point root finder as m
 //! points on a circle of radius about `(u·scale/|p^(m)/m!|)^(1/m)`. Clusters are
 //! the connected unions of the inclusion discs of Bini, "Numerical computation
 //! of polynomial zeros by means of Aberth's method", Numer. Algorithms 13
@@ -46,6 +46,18 @@ pub struct RootCluster {
 }
 
 /// Roots of `p` grouped into distinct roots with multiplicities.
+///
+/// ```
+/// use residuary::poly::{from_roots, multiplicity::distinct_roots};
+/// use residuary::C;
+/// // (z − 1)³(z + 2): a triple root at 1 and a simple one at −2 (by construction).
+/// let one = C::new(1.0, 0.0);
+/// let p = from_roots(one, &[one, one, one, C::new(-2.0, 0.0)]);
+/// let (clusters, converged) = distinct_roots(&p).unwrap();
+/// assert!(converged && clusters.len() == 2);
+/// let triple = clusters.iter().find(|c| c.multiplicity == 3).unwrap();
+/// assert!((triple.center - one).norm() <= triple.error.max(1e-12));
+/// ```
 pub fn distinct_roots(p: &[C]) -> Result<(Vec<RootCluster>, bool), Failure> {
     let r = aberth_ehrlich::roots(p)?;
     Ok((cluster_roots(p, &r), r.converged))

@@ -1,7 +1,7 @@
 //! Principal parts of a rational function at its poles, exactly from the
 //! partial-fraction structure.
 //!
-//! Method (classical partial-fraction expansion, e.g. P. Henrici, "Applied and
+//! Method: classical partial-fraction expansion (e.g. P. Henrici, "Applied and
 //! Computational Complex Analysis" vol. 1, §7.1, 1974): with
 //! `den = lc·Π (z − b_j)^{m_j}` and `num` having a zero of order k at a pole
 //! `a` of multiplicity m in `den`, `f = g(z)/(z − a)^(m−k)` where
@@ -166,6 +166,17 @@ pub struct LocalExpansion {
 /// * `check_direct`: also divide the expanded `den` by `(z − a)^m` and count the difference
 ///   from the product route in the error. Off when the centers were polished on f as typed:
 ///   then the expanded coefficients are the less accurate description of f.
+///
+/// ```
+/// use residuary::poly::{from_roots, partial_fractions::local_expansion};
+/// use residuary::C;
+/// // 1/((z − 1)²(z + 1)) = (−1/4)/(z − 1) + (1/2)/(z − 1)² + (1/4)/(z + 1) (partial fractions by hand).
+/// let one = C::new(1.0, 0.0);
+/// let den = from_roots(one, &[one, one, -one]);
+/// let e = local_expansion(&[one], &den, one, &[(one, 2), (-one, 1)], &[0.0, 0.0], 0, 0, true);
+/// assert!((e.principal_part[0] - C::new(-0.25, 0.0)).norm() < 1e-14); // c_{−1}, the residue
+/// assert!((e.principal_part[1] - C::new(0.5, 0.0)).norm() < 1e-14); // c_{−2}
+/// ```
 #[allow(clippy::too_many_arguments)]
 pub fn local_expansion(
     num: &[C],

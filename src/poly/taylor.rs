@@ -68,6 +68,16 @@ pub fn exp_series(a: &[C], n: usize) -> Vec<C> {
 
 /// First `count` Taylor coefficients of `p` about `a`: `p(a + t) = Σ c_j t^j`,
 /// so `c_j = p^(j)(a)/j!`. Repeated synthetic division (Horner), O(n·count).
+///
+/// ```
+/// use residuary::poly::taylor::coefficients_at;
+/// use residuary::C;
+/// // (2 + t)³ = 8 + 12t + 6t² + t³ (binomial theorem).
+/// let z3 = [C::new(0.0, 0.0), C::new(0.0, 0.0), C::new(0.0, 0.0), C::new(1.0, 0.0)];
+/// let c = coefficients_at(&z3, C::new(2.0, 0.0), 5);
+/// let want = [8.0, 12.0, 6.0, 1.0, 0.0];
+/// assert!(c.iter().zip(want).all(|(c, w)| (c - C::new(w, 0.0)).norm() < 1e-13));
+/// ```
 pub fn coefficients_at(p: &[C], a: C, count: usize) -> Vec<C> {
     let mut work = p.to_vec();
     let mut out = Vec::with_capacity(count);
