@@ -241,4 +241,27 @@ mod tests {
         assert!((cl[2].center - C::new(0.0, 1.0)).norm() < 1e-12);
         assert!(cl.iter().all(|c| c.resolved));
     }
+
+    #[test]
+    fn multiplicities_agree_with_the_argument_principle() {
+        // (z − 1 − i)³ (z + 0.5)² (z − 2) (invented data): the number of zeros in a
+        // small circle about each cluster's center, by the naive circle sum of p'/p
+        // (argument principle, common practice), is the cluster's multiplicity.
+        let (a, b) = (C::new(1.0, 1.0), C::new(-0.5, 0.0));
+        let p = from_roots(C::new(2.0, 0.0), &[a, a, a, b, b, C::new(2.0, 0.0)]);
+        let dp = crate::poly::nth_derivative(&p, 1);
+        let eval = |q: &[C], z: C| q.iter().rev().fold(C::new(0.0, 0.0), |acc, &c| acc * z + c);
+        let (clusters, converged) = distinct_roots(&p).unwrap();
+        assert!(converged);
+        assert_eq!(clusters.len(), 3);
+        for cl in &clusters {
+            assert!(cl.resolved);
+            let i = crate::reference::naive_circle_integral(|z| eval(&dp, z) / eval(&p, z), cl.center, 0.3, 512);
+            let count = (i / C::new(0.0, 2.0 * std::f64::consts::PI)).re;
+            assert!((count - cl.multiplicity as f64).abs() < 1e-8, "{}: multiplicity {} but {count} zeros", cl.center, cl.multiplicity);
+            // The center is within its error estimate of one of the true roots.
+            let d = [a, b, C::new(2.0, 0.0)].iter().map(|r| (r - cl.center).norm()).fold(f64::INFINITY, f64::min);
+            assert!(d <= cl.error, "{}: distance {d:.1e} > estimate {:.1e}", cl.center, cl.error);
+        }
+    }
 }

@@ -266,4 +266,31 @@ mod tests {
         assert!((e.principal_part[0] - C::new(-0.25, 0.0)).norm() < 1e-15);
         assert!((e.principal_part[1] - C::new(0.5, 0.0)).norm() < 1e-15);
     }
+
+    #[test]
+    fn principal_parts_agree_with_the_naive_circle_coefficient() {
+        use crate::reference::{check_method, naive_circle_coefficient};
+        // f = (z² + i)/((z − 1)³ (z + 2)² (z − i)) (invented data). About each pole a,
+        // c_{−j} is the naive DFT Laurent coefficient on a small circle about a
+        // (radius 0.4: no other pole within 0.4 of a, and 512 points).
+        let one = C::new(1.0, 0.0);
+        let (a1, a2, a3) = (one, C::new(-2.0, 0.0), C::new(0.0, 1.0));
+        let num = [C::new(0.0, 1.0), ZERO_C, one];
+        let den = from_roots(one, &[a1, a1, a1, a2, a2, a3]);
+        let factors = [(a1, 3), (a2, 2), (a3, 1)];
+        let f = |z: C| (z * z + C::new(0.0, 1.0)) / ((z - a1).powi(3) * (z - a2).powi(2) * (z - a3));
+        for index in 0..3 {
+            let (a, m) = factors[index];
+            let e = local_expansion(&num, &den, one, &factors, &[0.0; 3], index, 0, true);
+            assert_eq!(e.principal_part.len(), m as usize);
+            let cases: Vec<(String, usize)> = (0..m as usize).map(|j| (format!("pole {a}: c_-{}", j + 1), j)).collect();
+            let cases: Vec<(&str, usize)> = cases.iter().map(|(s, j)| (s.as_str(), *j)).collect();
+            check_method(
+                &cases,
+                |&j| (e.principal_part[j], Some(e.principal_part_errors[j])),
+                |&j| naive_circle_coefficient(f, a, 0.4, 512, -(j as i64) - 1),
+                1e-11,
+            );
+        }
+    }
 }
