@@ -225,4 +225,25 @@ mod tests {
         let overlap: C = (0..n).map(|i| vv[3][i].conj() * v[i]).sum();
         assert!((overlap.norm() - 1.0).abs() < 1e-12, "overlap {overlap}");
     }
+
+    #[test]
+    fn the_smallest_pair_agrees_with_the_closed_form_eigenvalue_of_the_gram_matrix() {
+        // A 4×2 complex matrix (invented data). Slow reference: σ_min² is the smaller
+        // eigenvalue of the 2×2 Hermitian AᴴA = [[p, q], [q̄, s]], by the quadratic
+        // formula (p + s)/2 − √(((p − s)/2)² + |q|²) (common practice).
+        let c = |re: f64, im: f64| C::new(re, im);
+        let cols: Columns = vec![
+            vec![c(1.0, 0.5), c(-0.3, 0.0), c(0.2, 1.0), c(0.0, -0.4)],
+            vec![c(0.8, 0.2), c(0.1, -0.5), c(1.1, 0.6), c(0.3, 0.0)],
+        ];
+        let dot = |x: &[C], y: &[C]| x.iter().zip(y).map(|(a, b)| a.conj() * b).sum::<C>();
+        let (p, q, s) = (dot(&cols[0], &cols[0]).re, dot(&cols[0], &cols[1]), dot(&cols[1], &cols[1]).re);
+        let lambda_min = 0.5 * (p + s) - ((0.5 * (p - s)).powi(2) + q.norm_sqr()).sqrt();
+        let (v, sigma) = smallest_right_singular_vector(cols.clone(), 4);
+        crate::reference::assert_close(C::new(sigma * sigma, 0.0), C::new(lambda_min, 0.0), 1e-13, "σ_min²");
+        // v is a unit vector with ‖Av‖ = σ_min.
+        let av: Vec<C> = (0..4).map(|i| cols[0][i] * v[0] + cols[1][i] * v[1]).collect();
+        assert!((dot(&v, &v).re - 1.0).abs() < 1e-14, "v is not a unit vector");
+        assert!((dot(&av, &av).re.sqrt() - sigma).abs() < 1e-13, "‖Av‖ differs from σ");
+    }
 }
