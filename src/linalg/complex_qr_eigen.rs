@@ -11,6 +11,17 @@ use crate::C;
 /// Eigenvalues of the n×n matrix `a` (row-major `a[i][j]`). Returns `None`
 /// if the iteration fails to converge (never happens for finite input in
 /// practice) or the input is not finite.
+///
+/// ```
+/// use residuary::linalg::complex_qr_eigen::eigenvalues;
+/// use residuary::C;
+/// // [[2, 1], [1, 2]] has eigenvalues 1 and 3 (characteristic polynomial (λ − 2)² − 1).
+/// let r = |x: f64| C::new(x, 0.0);
+/// let mut ev: Vec<f64> = eigenvalues(vec![vec![r(2.0), r(1.0)], vec![r(1.0), r(2.0)]])
+///     .unwrap().iter().map(|z| z.re).collect();
+/// ev.sort_by(f64::total_cmp);
+/// assert!((ev[0] - 1.0).abs() < 1e-14 && (ev[1] - 3.0).abs() < 1e-14);
+/// ```
 pub fn eigenvalues(mut a: Vec<Vec<C>>) -> Option<Vec<C>> {
     let n = a.len();
     if a.iter()
@@ -204,5 +215,50 @@ mod tests {
             assert!(err < 1e-9, "{want} err {err}");
             ev.remove(idx);
         }
+    }
+
+    /// det by cofactor expansion along the first row (the definition; common practice).
+    fn cofactor_det(m: &[Vec<C>]) -> C {
+        let n = m.len();
+        if n == 1 {
+            return m[0][0];
+        }
+        let mut sum = C::new(0.0, 0.0);
+        for j in 0..n {
+            let minor: Vec<Vec<C>> = m[1..].iter().map(|row| row.iter().enumerate().filter(|&(k, _)| k != j).map(|(_, &x)| x).collect()).collect();
+            let sign = if j % 2 == 0 { 1.0 } else { -1.0 };
+            sum += m[0][j] * cofactor_det(&minor) * sign;
+        }
+        sum
+    }
+
+    #[test]
+    fn eigenvalues_are_the_roots_of_the_characteristic_polynomial() {
+        use crate::reference::{check_method, naive_circle_coefficient};
+        // A 4×4 complex matrix (invented data). Slow reference: the coefficients of
+        // det(zI − A), each by the naive DFT on |z| = 1 of the cofactor determinant
+        // (exact for a degree-4 polynomial with 32 points up to rounding); they must
+        // equal the coefficients of Π (z − λ_k) over the computed eigenvalues.
+        let c = |re: f64, im: f64| C::new(re, im);
+        let a = vec![
+            vec![c(1.0, 0.5), c(-2.0, 0.0), c(0.3, 1.0), c(0.0, -1.0)],
+            vec![c(0.5, 0.0), c(0.0, 2.0), c(1.0, 0.0), c(-0.7, 0.2)],
+            vec![c(0.0, -1.5), c(1.0, 1.0), c(-1.0, 0.0), c(2.0, 0.0)],
+            vec![c(1.2, 0.0), c(0.0, 0.0), c(0.4, -0.4), c(0.5, 1.0)],
+        ];
+        let ev = eigenvalues(a.clone()).unwrap();
+        assert_eq!(ev.len(), 4);
+        let char_poly = |z: C| {
+            let m: Vec<Vec<C>> = (0..4).map(|i| (0..4).map(|j| if i == j { z - a[i][j] } else { -a[i][j] }).collect()).collect();
+            cofactor_det(&m)
+        };
+        let from_eigenvalues = crate::poly::from_roots(C::new(1.0, 0.0), &ev);
+        let cases = [("z^0", 0usize), ("z^1", 1), ("z^2", 2), ("z^3", 3), ("z^4", 4)];
+        check_method(
+            &cases,
+            |&k| (from_eigenvalues[k], None),
+            |&k| naive_circle_coefficient(char_poly, C::new(0.0, 0.0), 1.0, 32, k as i64),
+            1e-12,
+        );
     }
 }

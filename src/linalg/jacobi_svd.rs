@@ -118,6 +118,17 @@ fn rotate(a: &mut Columns, p: usize, q: usize, c: f64, s: f64, phase: C) {
 
 /// The right singular vector for the smallest singular value of the m×n
 /// matrix given by columns (m ≥ n), and that singular value.
+///
+/// ```
+/// use residuary::linalg::jacobi_svd::smallest_right_singular_vector;
+/// use residuary::C;
+/// // Columns (1, 1, 1) and (1, 1, 1): rank one, so σ_min = 0 with v ∝ (1, −1)
+/// // (any linear algebra text).
+/// let one = C::new(1.0, 0.0);
+/// let (v, sigma) = smallest_right_singular_vector(vec![vec![one; 3], vec![one; 3]], 3);
+/// assert!(sigma < 1e-14);
+/// assert!((v[0] + v[1]).norm() < 1e-14 && (v[0].norm() - 0.5f64.sqrt()).abs() < 1e-14);
+/// ```
 pub fn smallest_right_singular_vector(a: Columns, m: usize) -> (Vec<C>, f64) {
     let r = householder_r(a, m);
     let (sigma, v) = jacobi_svd(r);
@@ -213,5 +224,26 @@ mod tests {
         // |⟨v, V[:, 3]⟩| = 1 up to rounding (the vector is defined up to a phase)
         let overlap: C = (0..n).map(|i| vv[3][i].conj() * v[i]).sum();
         assert!((overlap.norm() - 1.0).abs() < 1e-12, "overlap {overlap}");
+    }
+
+    #[test]
+    fn the_smallest_pair_agrees_with_the_closed_form_eigenvalue_of_the_gram_matrix() {
+        // A 4×2 complex matrix (invented data). Slow reference: σ_min² is the smaller
+        // eigenvalue of the 2×2 Hermitian AᴴA = [[p, q], [q̄, s]], by the quadratic
+        // formula (p + s)/2 − √(((p − s)/2)² + |q|²) (common practice).
+        let c = |re: f64, im: f64| C::new(re, im);
+        let cols: Columns = vec![
+            vec![c(1.0, 0.5), c(-0.3, 0.0), c(0.2, 1.0), c(0.0, -0.4)],
+            vec![c(0.8, 0.2), c(0.1, -0.5), c(1.1, 0.6), c(0.3, 0.0)],
+        ];
+        let dot = |x: &[C], y: &[C]| x.iter().zip(y).map(|(a, b)| a.conj() * b).sum::<C>();
+        let (p, q, s) = (dot(&cols[0], &cols[0]).re, dot(&cols[0], &cols[1]), dot(&cols[1], &cols[1]).re);
+        let lambda_min = 0.5 * (p + s) - ((0.5 * (p - s)).powi(2) + q.norm_sqr()).sqrt();
+        let (v, sigma) = smallest_right_singular_vector(cols.clone(), 4);
+        crate::reference::assert_close(C::new(sigma * sigma, 0.0), C::new(lambda_min, 0.0), 1e-13, "σ_min²");
+        // v is a unit vector with ‖Av‖ = σ_min.
+        let av: Vec<C> = (0..4).map(|i| cols[0][i] * v[0] + cols[1][i] * v[1]).collect();
+        assert!((dot(&v, &v).re - 1.0).abs() < 1e-14, "v is not a unit vector");
+        assert!((dot(&av, &av).re.sqrt() - sigma).abs() < 1e-13, "‖Av‖ differs from σ");
     }
 }

@@ -146,6 +146,17 @@ fn check_input(p: &[C]) -> Result<(), Failure> {
 ///
 /// Zeros at the origin (vanishing low coefficients) are returned exactly, first.
 /// Errors: a non-finite coefficient, the zero polynomial, degree above [`MAX_DEGREE`].
+///
+/// ```
+/// use residuary::poly::aberth_ehrlich::roots;
+/// use residuary::C;
+/// // z² − 3z + 2 = (z − 1)(z − 2) (factoring by hand, common practice).
+/// let r = roots(&[C::new(2.0, 0.0), C::new(-3.0, 0.0), C::new(1.0, 0.0)]).unwrap();
+/// let mut re: Vec<f64> = r.roots.iter().map(|z| z.re).collect();
+/// re.sort_by(f64::total_cmp);
+/// assert!((re[0] - 1.0).abs() < 1e-14 && (re[1] - 2.0).abs() < 1e-14);
+/// assert!(r.roots.iter().all(|z| z.im.abs() < 1e-14));
+/// ```
 pub fn roots(p: &[C]) -> Result<Roots, Failure> {
     check_input(p)?;
     let p = super::trim(p);
@@ -329,5 +340,39 @@ mod tests {
         assert!(roots(&[c(0.0, 0.0)]).is_err());
         assert!(roots(&[c(f64::NAN, 0.0), c(1.0, 0.0)]).is_err());
         assert!(roots(&vec![c(1.0, 0.0); MAX_DEGREE + 2]).is_err());
+    }
+
+    /// (1/2πi) ∮ p'/p dz on |z − w| = r by the naive circle sum: the number of roots
+    /// of p within r of w (argument principle, common practice).
+    fn zeros_inside(p: &[C], w: C, r: f64) -> f64 {
+        let dp: Vec<C> = p.iter().enumerate().skip(1).map(|(k, &c)| c * k as f64).collect();
+        let eval = |q: &[C], z: C| q.iter().rev().fold(C::new(0.0, 0.0), |acc, &c| acc * z + c);
+        let integral = crate::reference::naive_circle_integral(|z| eval(&dp, z) / eval(p, z), w, r, 512);
+        (integral / C::new(0.0, 2.0 * std::f64::consts::PI)).re
+    }
+
+    #[test]
+    fn each_root_holds_exactly_one_zero_by_the_argument_principle() {
+        // Invented coefficients; each found root must have exactly one zero of p
+        // within half the distance to its nearest neighbour, and p's value there
+        // must be small relative to the sum of |p_k||z|^k (the roots' residuals).
+        let p: Vec<C> = [(3.0, -1.0), (0.5, 2.0), (-4.0, 0.0), (1.0, 1.0), (0.0, -2.5), (2.0, 0.0), (-1.0, 0.5), (1.0, 0.0)]
+            .iter()
+            .map(|&(a, b)| c(a, b))
+            .collect();
+        let r = roots(&p).unwrap();
+        assert_eq!(r.roots.len(), 7);
+        for (i, &z) in r.roots.iter().enumerate() {
+            let gap = r.roots.iter().enumerate().filter(|&(j, _)| j != i).map(|(_, &w)| (w - z).norm()).fold(f64::INFINITY, f64::min);
+            let count = zeros_inside(&p, z, 0.5 * gap);
+            assert!((count - 1.0).abs() < 1e-6, "root {z}: {count} zeros within {:.3}", 0.5 * gap);
+            // The estimate must reach the true zero: one zero lies within errors[i] of z
+            // (radii below 1e-6 of the gap are widened to it, where the naive sum is reliable).
+            let disc = r.errors[i].max(1e-6 * gap);
+            let count = zeros_inside(&p, z, disc);
+            assert!((count - 1.0).abs() < 1e-6, "root {z}: its error disc {disc:.1e} holds {count} zeros");
+        }
+        // The whole root set: all 7 zeros lie within radius 10 (Cauchy bound 1 + max|p_k| = 5.03).
+        assert!((zeros_inside(&p, c(0.0, 0.0), 10.0) - 7.0).abs() < 1e-9);
     }
 }

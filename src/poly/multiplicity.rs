@@ -1,6 +1,6 @@
 //! Multiple roots from clusters of simple approximations.
 //!
-//! A root of multiplicity m comes out of a floating-point root finder as m
+//! Method: a root of multiplicity m comes out of a floating-point root finder as m
 //! points on a circle of radius about `(u·scale/|p^(m)/m!|)^(1/m)`. Clusters are
 //! the connected unions of the inclusion discs of Bini, "Numerical computation
 //! of polynomial zeros by means of Aberth's method", Numer. Algorithms 13
@@ -46,6 +46,18 @@ pub struct RootCluster {
 }
 
 /// Roots of `p` grouped into distinct roots with multiplicities.
+///
+/// ```
+/// use residuary::poly::{from_roots, multiplicity::distinct_roots};
+/// use residuary::C;
+/// // (z − 1)³(z + 2): a triple root at 1 and a simple one at −2 (by construction).
+/// let one = C::new(1.0, 0.0);
+/// let p = from_roots(one, &[one, one, one, C::new(-2.0, 0.0)]);
+/// let (clusters, converged) = distinct_roots(&p).unwrap();
+/// assert!(converged && clusters.len() == 2);
+/// let triple = clusters.iter().find(|c| c.multiplicity == 3).unwrap();
+/// assert!((triple.center - one).norm() <= triple.error.max(1e-12));
+/// ```
 pub fn distinct_roots(p: &[C]) -> Result<(Vec<RootCluster>, bool), Failure> {
     let r = aberth_ehrlich::roots(p)?;
     Ok((cluster_roots(p, &r), r.converged))
@@ -255,5 +267,28 @@ mod tests {
         assert!((cl[1].center + 2.0).norm() < 1e-10);
         assert!((cl[2].center - C::new(0.0, 1.0)).norm() < 1e-12);
         assert!(cl.iter().all(|c| c.resolved));
+    }
+
+    #[test]
+    fn multiplicities_agree_with_the_argument_principle() {
+        // (z − 1 − i)³ (z + 0.5)² (z − 2) (invented data): the number of zeros in a
+        // small circle about each cluster's center, by the naive circle sum of p'/p
+        // (argument principle, common practice), is the cluster's multiplicity.
+        let (a, b) = (C::new(1.0, 1.0), C::new(-0.5, 0.0));
+        let p = from_roots(C::new(2.0, 0.0), &[a, a, a, b, b, C::new(2.0, 0.0)]);
+        let dp = crate::poly::nth_derivative(&p, 1);
+        let eval = |q: &[C], z: C| q.iter().rev().fold(C::new(0.0, 0.0), |acc, &c| acc * z + c);
+        let (clusters, converged) = distinct_roots(&p).unwrap();
+        assert!(converged);
+        assert_eq!(clusters.len(), 3);
+        for cl in &clusters {
+            assert!(cl.resolved);
+            let i = crate::reference::naive_circle_integral(|z| eval(&dp, z) / eval(&p, z), cl.center, 0.3, 512);
+            let count = (i / C::new(0.0, 2.0 * std::f64::consts::PI)).re;
+            assert!((count - cl.multiplicity as f64).abs() < 1e-8, "{}: multiplicity {} but {count} zeros", cl.center, cl.multiplicity);
+            // The center is within its error estimate of one of the true roots.
+            let d = [a, b, C::new(2.0, 0.0)].iter().map(|r| (r - cl.center).norm()).fold(f64::INFINITY, f64::min);
+            assert!(d <= cl.error, "{}: distance {d:.1e} > estimate {:.1e}", cl.center, cl.error);
+        }
     }
 }

@@ -1,7 +1,7 @@
 //! Principal parts of a rational function at its poles, exactly from the
 //! partial-fraction structure.
 //!
-//! Method (classical partial-fraction expansion, e.g. P. Henrici, "Applied and
+//! Method: classical partial-fraction expansion (e.g. P. Henrici, "Applied and
 //! Computational Complex Analysis" vol. 1, §7.1, 1974): with
 //! `den = lc·Π (z − b_j)^{m_j}` and `num` having a zero of order k at a pole
 //! `a` of multiplicity m in `den`, `f = g(z)/(z − a)^(m−k)` where
@@ -166,6 +166,17 @@ pub struct LocalExpansion {
 /// * `check_direct`: also divide the expanded `den` by `(z − a)^m` and count the difference
 ///   from the product route in the error. Off when the centers were polished on f as typed:
 ///   then the expanded coefficients are the less accurate description of f.
+///
+/// ```
+/// use residuary::poly::{from_roots, partial_fractions::local_expansion};
+/// use residuary::C;
+/// // 1/((z − 1)²(z + 1)) = (−1/4)/(z − 1) + (1/2)/(z − 1)² + (1/4)/(z + 1) (partial fractions by hand).
+/// let one = C::new(1.0, 0.0);
+/// let den = from_roots(one, &[one, one, -one]);
+/// let e = local_expansion(&[one], &den, one, &[(one, 2), (-one, 1)], &[0.0, 0.0], 0, 0, true);
+/// assert!((e.principal_part[0] - C::new(-0.25, 0.0)).norm() < 1e-14); // c_{−1}, the residue
+/// assert!((e.principal_part[1] - C::new(0.5, 0.0)).norm() < 1e-14); // c_{−2}
+/// ```
 #[allow(clippy::too_many_arguments)]
 pub fn local_expansion(
     num: &[C],
@@ -254,5 +265,32 @@ mod tests {
         let e = local_expansion(&[one], &den, one, &factors, &[0.0, 0.0], 0, 0, true);
         assert!((e.principal_part[0] - C::new(-0.25, 0.0)).norm() < 1e-15);
         assert!((e.principal_part[1] - C::new(0.5, 0.0)).norm() < 1e-15);
+    }
+
+    #[test]
+    fn principal_parts_agree_with_the_naive_circle_coefficient() {
+        use crate::reference::{check_method, naive_circle_coefficient};
+        // f = (z² + i)/((z − 1)³ (z + 2)² (z − i)) (invented data). About each pole a,
+        // c_{−j} is the naive DFT Laurent coefficient on a small circle about a
+        // (radius 0.4: no other pole within 0.4 of a, and 512 points).
+        let one = C::new(1.0, 0.0);
+        let (a1, a2, a3) = (one, C::new(-2.0, 0.0), C::new(0.0, 1.0));
+        let num = [C::new(0.0, 1.0), ZERO_C, one];
+        let den = from_roots(one, &[a1, a1, a1, a2, a2, a3]);
+        let factors = [(a1, 3), (a2, 2), (a3, 1)];
+        let f = |z: C| (z * z + C::new(0.0, 1.0)) / ((z - a1).powi(3) * (z - a2).powi(2) * (z - a3));
+        for index in 0..3 {
+            let (a, m) = factors[index];
+            let e = local_expansion(&num, &den, one, &factors, &[0.0; 3], index, 0, true);
+            assert_eq!(e.principal_part.len(), m as usize);
+            let cases: Vec<(String, usize)> = (0..m as usize).map(|j| (format!("pole {a}: c_-{}", j + 1), j)).collect();
+            let cases: Vec<(&str, usize)> = cases.iter().map(|(s, j)| (s.as_str(), *j)).collect();
+            check_method(
+                &cases,
+                |&j| (e.principal_part[j], Some(e.principal_part_errors[j])),
+                |&j| naive_circle_coefficient(f, a, 0.4, 512, -(j as i64) - 1),
+                1e-11,
+            );
+        }
     }
 }

@@ -68,6 +68,16 @@ pub fn exp_series(a: &[C], n: usize) -> Vec<C> {
 
 /// First `count` Taylor coefficients of `p` about `a`: `p(a + t) = Σ c_j t^j`,
 /// so `c_j = p^(j)(a)/j!`. Repeated synthetic division (Horner), O(n·count).
+///
+/// ```
+/// use residuary::poly::taylor::coefficients_at;
+/// use residuary::C;
+/// // (2 + t)³ = 8 + 12t + 6t² + t³ (binomial theorem).
+/// let z3 = [C::new(0.0, 0.0), C::new(0.0, 0.0), C::new(0.0, 0.0), C::new(1.0, 0.0)];
+/// let c = coefficients_at(&z3, C::new(2.0, 0.0), 5);
+/// let want = [8.0, 12.0, 6.0, 1.0, 0.0];
+/// assert!(c.iter().zip(want).all(|(c, w)| (c - C::new(w, 0.0)).norm() < 1e-13));
+/// ```
 pub fn coefficients_at(p: &[C], a: C, count: usize) -> Vec<C> {
     let mut work = p.to_vec();
     let mut out = Vec::with_capacity(count);
@@ -140,5 +150,20 @@ mod tests {
     #[test]
     fn zero_constant_term_has_no_reciprocal() {
         assert!(reciprocal(&[c(0.0), c(1.0)], 3).is_err());
+    }
+
+    #[test]
+    fn coefficients_at_agree_with_the_naive_circle_coefficient() {
+        use crate::reference::{check_method, naive_circle_coefficient};
+        // p(z) = (1 + 2i) − z + 0.5 z³ − i z⁵ + 0.25 z⁶ (invented data); its Taylor
+        // coefficients about a are the naive DFT sums of p on a circle about a,
+        // exact with 64 > degree points up to rounding.
+        let p = [C::new(1.0, 2.0), C::new(-1.0, 0.0), ZERO, C::new(0.5, 0.0), ZERO, C::new(0.0, -1.0), C::new(0.25, 0.0)];
+        let horner = |z: C| p.iter().rev().fold(ZERO, |acc, &c| acc * z + c);
+        for a in [C::new(0.0, 0.0), C::new(1.5, -0.5), C::new(-2.0, 3.0)] {
+            let got = coefficients_at(&p, a, 9);
+            let cases: Vec<(&str, usize)> = vec![("c_0", 0), ("c_1", 1), ("c_2", 2), ("c_3", 3), ("c_4", 4), ("c_5", 5), ("c_6", 6), ("c_7 = 0", 7), ("c_8 = 0", 8)];
+            check_method(&cases, |&j| (got[j], None), |&j| naive_circle_coefficient(horner, a, 1.0, 64, j as i64), 1e-12);
+        }
     }
 }

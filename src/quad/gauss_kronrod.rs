@@ -155,6 +155,17 @@ fn make_panel(
 /// globally adaptive G7–K15: the panel with the largest error is bisected
 /// until the summed error meets the tolerance, every panel is at its
 /// rounding floor, or [`MAX_SUBINTERVALS`] is reached (then `converged` is false).
+///
+/// ```
+/// use residuary::budget::Budget;
+/// use residuary::quad::{gauss_kronrod::integrate, Tolerance};
+/// use residuary::C;
+/// // ∫_0^π sin x dx = 2 (elementary; any calculus table).
+/// let r = integrate(&mut |x| C::new(x.sin(), 0.0), 0.0, std::f64::consts::PI,
+///                   Tolerance::default(), &mut Budget::default()).unwrap();
+/// let error = (r.value - C::new(2.0, 0.0)).norm();
+/// assert!(r.converged && error < 1e-12 && error <= r.error_estimate);
+/// ```
 pub fn integrate(
     f: &mut dyn FnMut(f64) -> C,
     a: f64,
@@ -292,5 +303,84 @@ pub fn integrate_infinite(
             at: bad_x.unwrap_or(map(at).0),
         }),
         other => other,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::{assert_estimate_bounds, check_method, simpson, simpson_line};
+
+    type Integrand = fn(f64) -> C;
+
+    fn tight() -> Tolerance {
+        Tolerance { abs: 0.0, rel: 1e-12 }
+    }
+
+    #[test]
+    fn finite_intervals_agree_with_simpson_and_the_estimate_bounds_the_difference() {
+        // Smooth integrands, some oscillating and one sharply peaked (Runge's
+        // 1/(1+25x²)), so the adaptive bisection has work to do.
+        let cases: [(&str, (Integrand, f64, f64)); 4] = [
+            ("x² e^{ix} on [0, 2]", (|x| C::new(0.0, x).exp() * (x * x), 0.0, 2.0)),
+            ("e^{−x} sin 3x on [0, π]", (|x| C::new((-x).exp() * (3.0 * x).sin(), 0.0), 0.0, std::f64::consts::PI)),
+            ("1/(1+25x²) on [−1, 1]", (|x| C::new(1.0 / (1.0 + 25.0 * x * x), 0.0), -1.0, 1.0)),
+            ("cos 40x on [1, 0] (reversed)", (|x| C::new((40.0 * x).cos(), 0.0), 1.0, 0.0)),
+        ];
+        check_method(
+            &cases,
+            |&(f, a, b)| {
+                let r = integrate(&mut |x| f(x), a, b, tight(), &mut Budget::default()).unwrap();
+                assert!(r.converged);
+                (r.value, Some(r.error_estimate))
+            },
+            // Simpson with 200 000 panels: error below 1e-13 for these integrands.
+            |&(f, a, b)| simpson(f, a, b, 200_000),
+            1e-10,
+        );
+    }
+
+    #[test]
+    fn the_estimate_bounds_the_true_error_against_handbook_values() {
+        // ∫_{−1}^{1} dx/(1+25x²) = (2/5) arctan 5 (elementary antiderivative, any calculus table).
+        let want = C::new(0.4 * 5f64.atan(), 0.0);
+        // A loose tolerance, so the estimate is tested where it is not negligible.
+        let loose = Tolerance { abs: 0.0, rel: 1e-5 };
+        let r = integrate(&mut |x| C::new(1.0 / (1.0 + 25.0 * x * x), 0.0), -1.0, 1.0, loose, &mut Budget::default())
+            .unwrap();
+        assert_estimate_bounds(r.value, r.error_estimate, want, "Runge integrand, rel 1e-5");
+        assert!(r.error_estimate <= 1e-5 * want.norm(), "tolerance not met: {:.2e}", r.error_estimate);
+        // ∫_0^2 x² e^{ix} dx = [e^{ix}(−i x² + 2x + 2i)]_0^2 (integration by parts, from memory).
+        let e = |x: f64| C::new(0.0, x).exp() * C::new(2.0 * x, 2.0 - x * x);
+        let want = e(2.0) - e(0.0);
+        let r = integrate(&mut |x| C::new(0.0, x).exp() * (x * x), 0.0, 2.0, loose, &mut Budget::default()).unwrap();
+        assert_estimate_bounds(r.value, r.error_estimate, want, "x² e^{ix}, rel 1e-5");
+    }
+
+    #[test]
+    fn infinite_intervals_agree_with_simpson_on_a_long_truncation() {
+        // e^{−x²} and e^{−x} cos x are below 1e-17 past |x| = 40, so Simpson on a
+        // truncated interval is the slow reference.
+        let gauss: Integrand = |x| C::new((-x * x).exp(), 0.0);
+        let damped: Integrand = |x| C::new((-x).exp() * x.cos(), 0.0);
+        let r = integrate_infinite(&mut |x| gauss(x), f64::NEG_INFINITY, f64::INFINITY, tight(), &mut Budget::default())
+            .unwrap();
+        let want = simpson_line(gauss, 10.0, 20_000);
+        // ∫ e^{−x²} dx = √π (DLMF 7.4.1 at z = 0 doubled; the Gaussian integral).
+        crate::reference::assert_close(want, C::new(std::f64::consts::PI.sqrt(), 0.0), 1e-12, "the reference itself");
+        assert_estimate_bounds(r.value, r.error_estimate + 1e-12, want, "∫ e^{−x²} over ℝ");
+        crate::reference::assert_close(r.value, want, 1e-10, "∫ e^{−x²} over ℝ");
+        let r = integrate_infinite(&mut |x| damped(x), 0.0, f64::INFINITY, tight(), &mut Budget::default()).unwrap();
+        // ∫_0^∞ e^{−x} cos x dx = 1/2 (Laplace transform of cos at s = 1, any table).
+        let want = simpson(damped, 0.0, 40.0, 200_000);
+        crate::reference::assert_close(want, C::new(0.5, 0.0), 1e-12, "the reference itself");
+        assert_estimate_bounds(r.value, r.error_estimate + 1e-12, want, "∫_0^∞ e^{−x} cos x");
+        crate::reference::assert_close(r.value, want, 1e-10, "∫_0^∞ e^{−x} cos x");
+        // (−∞, b]: ∫_{−∞}^0 e^{x} dx = 1 (elementary).
+        let r = integrate_infinite(&mut |x| C::new(x.exp(), 0.0), f64::NEG_INFINITY, 0.0, tight(), &mut Budget::default())
+            .unwrap();
+        let want = simpson(|x| C::new(x.exp(), 0.0), -40.0, 0.0, 200_000);
+        assert_estimate_bounds(r.value, r.error_estimate + 1e-12, want, "∫_{−∞}^0 e^x");
+        crate::reference::assert_close(r.value, want, 1e-10, "∫_{−∞}^0 e^x");
     }
 }

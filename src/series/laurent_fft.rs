@@ -96,6 +96,20 @@ pub fn coefficients_on_circle(
 ///
 /// `known_singularities` are singular points found elsewhere; the request is
 /// refused, naming one, if any lies strictly inside the annulus.
+///
+/// ```
+/// use residuary::budget::Budget;
+/// use residuary::series::laurent_fft::{laurent, Center, LaurentRequest};
+/// use residuary::C;
+/// // e^z/z³ = Σ z^{n−3}/n!: c_{−1} = 1/2! = 1/2 and c_1 = 1/4! = 1/24 (DLMF 4.2.19).
+/// let req = LaurentRequest { center: Center::Point(C::new(0.0, 0.0)), inner: 0.0,
+///                            outer: f64::INFINITY, from: -3, to: 1 };
+/// let r = laurent(|z: C| z.exp() / z.powi(3), &req, &[], &mut Budget::default()).unwrap();
+/// let (n, c) = r.coefficients[2];
+/// assert_eq!(n, -1);
+/// assert!((c - C::new(0.5, 0.0)).norm() <= r.errors[2] && r.errors[2] < 1e-12);
+/// assert!((r.coefficients[4].1 - C::new(1.0 / 24.0, 0.0)).norm() <= r.errors[4]);
+/// ```
 pub fn laurent<F: FnMut(C) -> C>(
     mut f: F,
     req: &LaurentRequest,
@@ -422,4 +436,83 @@ fn round_significant(x: f64, op: fn(f64) -> f64) -> String {
     let p = 10f64.powi(5 - x.log10().floor() as i32);
     let r = op(x * p) / p;
     format!("{r}")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::{assert_close, check_method, naive_circle_coefficient};
+
+    type F = fn(C) -> C;
+
+    /// Run `laurent` on the request and compare every coefficient with the naive
+    /// DFT sum on the circle |z − center| = `reference_radius` (inside the annulus)
+    /// with `points` points; each coefficient's own estimate must bound the difference.
+    fn check_against_naive(name: &str, f: F, req: LaurentRequest, reference_radius: f64, points: usize) {
+        let r = laurent(f, &req, &[], &mut Budget::default()).unwrap();
+        let center = match req.center {
+            Center::Point(a) => a,
+            // Around infinity the series is in powers of z, as on any circle about 0.
+            Center::Infinity => C::new(0.0, 0.0),
+        };
+        let cases: Vec<(String, usize)> =
+            (0..r.coefficients.len()).map(|i| (format!("{name}: c_{}", r.coefficients[i].0), i)).collect();
+        let cases: Vec<(&str, usize)> = cases.iter().map(|(s, i)| (s.as_str(), *i)).collect();
+        check_method(
+            &cases,
+            |&i| (r.coefficients[i].1, Some(r.errors[i])),
+            |&i| naive_circle_coefficient(f, center, reference_radius, points, r.coefficients[i].0),
+            1e-12,
+        );
+    }
+
+    #[test]
+    fn coefficients_agree_with_the_naive_circle_sum() {
+        let point = |a: C, inner: f64, outer: f64, from: i64, to: i64| LaurentRequest {
+            center: Center::Point(a),
+            inner,
+            outer,
+            from,
+            to,
+        };
+        check_against_naive("e^z/z² about 0", |z| z.exp() / (z * z), point(C::new(0.0, 0.0), 0.0, f64::INFINITY, -4, 8), 1.0, 256);
+        // The annulus 1 < |z| < 2 between the two poles: on |z| = 1.5 the naive sum's
+        // aliasing error is about (1.5/2)^1024 + (1/1.5)^1024, far below rounding.
+        check_against_naive(
+            "1/((z − 1)(z − 2)) on 1 < |z| < 2",
+            |z| 1.0 / ((z - 1.0) * (z - 2.0)),
+            point(C::new(0.0, 0.0), 1.0, 2.0, -6, 6),
+            1.5,
+            1024,
+        );
+        check_against_naive(
+            "cos z/(z − 0.5 − 0.5i)³ about its pole",
+            |z| z.cos() / (z - C::new(0.5, 0.5)).powi(3),
+            point(C::new(0.5, 0.5), 0.0, f64::INFINITY, -3, 4),
+            1.0,
+            256,
+        );
+        check_against_naive(
+            "z²/(z − 1) about infinity",
+            |z| z * z / (z - 1.0),
+            LaurentRequest { center: Center::Infinity, inner: 1.0, outer: f64::INFINITY, from: -5, to: 2 },
+            3.0,
+            1024,
+        );
+    }
+
+    #[test]
+    fn coefficients_match_series_from_tables() {
+        // 1/((z − 1)(z − 2)) = −Σ_{n≥1} z^{−n} − Σ_{n≥0} z^n/2^{n+1} on 1 < |z| < 2
+        // (partial fractions and geometric series, common practice).
+        let req = LaurentRequest { center: Center::Point(C::new(0.0, 0.0)), inner: 1.0, outer: 2.0, from: -3, to: 3 };
+        let r = laurent(|z: C| 1.0 / ((z - 1.0) * (z - 2.0)), &req, &[], &mut Budget::default()).unwrap();
+        for (i, &(n, c)) in r.coefficients.iter().enumerate() {
+            let want = if n < 0 { -1.0 } else { -0.5f64.powi(n as i32 + 1) };
+            assert_close(c, C::new(want, 0.0), 1e-12, &format!("c_{n}"));
+            assert!((c - C::new(want, 0.0)).norm() <= r.errors[i], "c_{n}: estimate {:.2e} too small", r.errors[i]);
+        }
+        // A pole of f inside the annulus is refused, naming it.
+        assert!(laurent(|z: C| 1.0 / (z - 1.5), &req, &[C::new(1.5, 0.0)], &mut Budget::default()).is_err());
+    }
 }
