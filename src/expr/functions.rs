@@ -88,7 +88,7 @@ impl Func {
     #[inline]
     pub fn value(self, z: C) -> C {
         match self {
-            Func::Exp => z.exp(),
+            Func::Exp => exp(z),
             Func::Log => z.ln(),
             Func::Sqrt => z.sqrt(),
             Func::Sin => z.sin(),
@@ -97,8 +97,8 @@ impl Func {
             Func::Cot => recip(tan(z)),
             Func::Sec => sec(z),
             Func::Csc => csc(z),
-            Func::Sinh => z.sinh(),
-            Func::Cosh => z.cosh(),
+            Func::Sinh => sinh(z),
+            Func::Cosh => cosh(z),
             Func::Tanh => tanh(z),
             Func::Coth => recip(tanh(z)),
             Func::Asin => asin(z),
@@ -114,7 +114,7 @@ impl Func {
         let one = C::new(1.0, 0.0);
         match self {
             Func::Exp => {
-                let v = z.exp();
+                let v = exp(z);
                 (v, v)
             }
             Func::Log => (z.ln(), recip(z)),
@@ -142,8 +142,8 @@ impl Func {
                 let c = csc(z);
                 (c, -c * recip(tan(z)))
             }
-            Func::Sinh => (z.sinh(), z.cosh()),
-            Func::Cosh => (z.cosh(), z.sinh()),
+            Func::Sinh => (sinh(z), cosh(z)),
+            Func::Cosh => (cosh(z), sinh(z)),
             // tanh' = sech^2 z = sec(iz)^2; coth' = -csch^2 z = csc(iz)^2.
             Func::Tanh => {
                 let s = sec(C::new(-z.im, z.re));
@@ -164,6 +164,42 @@ impl Func {
             }
         }
     }
+}
+
+/// `m · t` where t comes from a cosine or sine: an exactly zero t gives an
+/// exactly zero part even when m overflowed (∞ · 0 would be NaN). So exp, cosh
+/// and sinh of a real argument past the overflow threshold are real infinities,
+/// and 1/cosh(x) there is 0, as on the real line (common practice; C99 Annex G
+/// specifies the same for cexp and ccosh of real arguments).
+#[inline]
+fn scaled(m: f64, t: f64) -> f64 {
+    if t == 0.0 {
+        0.0
+    } else {
+        m * t
+    }
+}
+
+/// e^z = e^x (cos y + i sin y), with exact zero parts kept (see [`scaled`]).
+pub fn exp(z: C) -> C {
+    let m = z.re.exp();
+    if z.im == 0.0 {
+        return C::new(m, z.im);
+    }
+    let (s, c) = z.im.sin_cos();
+    C::new(scaled(m, c), scaled(m, s))
+}
+
+/// cosh z = cosh x cos y + i sinh x sin y, with exact zero parts kept.
+pub fn cosh(z: C) -> C {
+    let (s, c) = z.im.sin_cos();
+    C::new(scaled(z.re.cosh(), c), scaled(z.re.sinh(), s))
+}
+
+/// sinh z = sinh x cos y + i cosh x sin y, with exact zero parts kept.
+pub fn sinh(z: C) -> C {
+    let (s, c) = z.im.sin_cos();
+    C::new(scaled(z.re.sinh(), c), scaled(z.re.cosh(), s))
 }
 
 /// 1/w by Smith's algorithm (no overflow of |w|^2); 1/0 is non-finite.

@@ -309,3 +309,14 @@ fn divergent_and_degenerate_cases_are_refused() {
         assert!(m.contains(needle), "{body}: {m}");
     }
 }
+
+#[test]
+fn overflow_of_cosh_is_not_a_singularity_on_the_line() {
+    // ∫_{−∞}^{∞} dx / cosh x = π (Gradshteyn & Ryzhik 3.511.1 — from memory; also 2 arctan(e^x)
+    // evaluated at ±∞). cosh overflows past |x| ≈ 710, where 1/cosh x is 0, not a singularity
+    // (regression: the integral was refused as divergent at x = 1024).
+    check(json!({"f": "1/cosh(x)", "var": "x", "kind": "line"}), C::new(PI, 0.0), 1e-9);
+    // As typed, 1/cosh(1024) is 0 (C99 Annex G: ccosh of a real argument is real).
+    let v = run_json_value(json!({"task": "evaluate", "f": "1/cosh(x)", "var": "x", "at": [1024.0, -1024.0]})).unwrap();
+    assert_eq!(v["values"], json!([[0.0, 0.0], [0.0, 0.0]]), "{v}");
+}
