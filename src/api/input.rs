@@ -84,6 +84,7 @@ pub fn hints(f: &Function) -> Hints {
         essential_candidates: a.essential_candidates.clone(),
         branch_candidates: a.branch_candidates.clone(),
         uses_branch_functions: a.uses_branch_functions,
+        poles_accumulate_at_infinity: a.poles_accumulate_at_infinity,
     };
     let roots_of = |polys: &Vec<Vec<C>>| -> Vec<C> {
         polys

@@ -59,6 +59,10 @@ pub struct Analysis {
     /// f contains exp/sin/…/gamma/k^(…) of an argument that is not rational with a finite
     /// limit at infinity, so infinity is not a pole (essential or worse).
     pub is_entire_transcendental_at_infinity: bool,
+    /// f contains tan, cot, sec, csc, tanh, coth or gamma of an argument that grows without
+    /// bound as z → ∞ (or is not rational): their poles then accumulate at infinity, which is
+    /// not an isolated singularity.
+    pub poles_accumulate_at_infinity: bool,
 }
 
 /// Run the analysis; returns it with the rational form of the whole function.
@@ -164,6 +168,14 @@ fn call(f: Func, arg: Option<Rational>, an: &mut Analysis) {
     let i = C::new(0.0, 1.0);
     if f == Func::Gamma {
         an.has_gamma = true;
+    }
+    let infinitely_many_poles = matches!(f, Func::Tan | Func::Cot | Func::Sec | Func::Csc | Func::Tanh | Func::Coth | Func::Gamma);
+    let grows = match &arg {
+        Some(r) => degree(&r.num) > degree(&r.den),
+        None => true,
+    };
+    if infinitely_many_poles && grows {
+        an.poles_accumulate_at_infinity = true;
     }
     if !f.is_branch() {
         entire_of(arg.as_ref(), an);

@@ -78,7 +78,7 @@ pub fn unit_circle_residues(
         let (v, d) = fd(theta(z));
         (v / (i * z), (i * v - d) / (z * z))
     };
-    let hints = Hints { essential_candidates: Vec::new(), branch_candidates: Vec::new(), uses_branch_functions };
+    let hints = Hints { uses_branch_functions, ..Hints::default() };
     if uses_branch_functions {
         warnings.push(
             "f uses sqrt, log or a non-integer power, so g(z) = f(−i log z)/(iz) may have branch points in the unit disk, where the residue theorem does not apply: the residue side is not computed".into(),

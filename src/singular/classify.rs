@@ -62,6 +62,18 @@ pub fn classify_infinity(
     hints: &Hints,
     budget: &mut Budget,
 ) -> Result<PointResult, Failure> {
+    if hints.poles_accumulate_at_infinity {
+        // The expression's structure decides it: no punctured disk around infinity is free
+        // of poles, so there is no Laurent series there and no residue (common practice).
+        return Ok(PointResult {
+            kind: Kind::Essential,
+            order: None,
+            residue: None,
+            principal_part: Vec::new(),
+            error_estimate: f64::INFINITY,
+            warnings: vec!["the poles of f (tan, cot, sec, csc, tanh, coth or gamma of an argument that grows without bound) accumulate at infinity: infinity is not an isolated singularity, so it has no residue".into()],
+        });
+    }
     let h = |w: C| f(C::new(1.0, 0.0) / w);
     let map = |v: &Vec<C>| -> Vec<C> {
         v.iter()
@@ -73,6 +85,7 @@ pub fn classify_infinity(
         essential_candidates: map(&hints.essential_candidates),
         branch_candidates: map(&hints.branch_candidates),
         uses_branch_functions: hints.uses_branch_functions,
+        poles_accumulate_at_infinity: false,
     };
     let mut out = analyse(&h, C::new(0.0, 0.0), &mapped, &[], true, budget)?;
     for w in out.warnings.iter_mut() {

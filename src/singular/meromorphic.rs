@@ -179,6 +179,7 @@ pub fn find_singularities(
         essential_candidates: Vec::new(),
         branch_candidates: Vec::new(),
         uses_branch_functions: hints.uses_branch_functions,
+        poles_accumulate_at_infinity: false,
     };
     for p in &pts {
         if p.order > 0 {

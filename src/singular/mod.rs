@@ -39,6 +39,9 @@ pub struct Hints {
     /// single-valued), which halves its cost; callers that pass closures with
     /// cuts must set it.
     pub uses_branch_functions: bool,
+    /// True when poles of f accumulate at infinity (tan, sec, gamma, … of a growing
+    /// argument): infinity is then not an isolated singularity.
+    pub poles_accumulate_at_infinity: bool,
 }
 
 /// The kind of a point.

@@ -300,3 +300,20 @@ fn machine_words_stand_beside_the_sentences() {
     let r = run(json!({"task": "inverse_z", "X": "z/(z-0.5)", "n": [0, 1]}));
     assert_eq!(r["stability"], "stable", "{r}");
 }
+
+#[test]
+fn poles_accumulating_at_infinity_leave_it_without_a_residue() {
+    // csc z, sec z and z csc z have poles at nπ (or π/2 + nπ) for every integer n, which
+    // accumulate at infinity: it is not an isolated singularity (common practice; the same
+    // task already answered 1/sin z so). Regression: they were "regular, residue 0".
+    for f in ["csc(z)", "sec(z)", "z*csc(z)", "gamma(z)", "tanh(2*z+1)"] {
+        let r = run(json!({"task": "residue", "f": f, "at": "infinity"}));
+        assert_eq!(r["kind"], "essential", "{f}: {r}");
+        assert!(r["residue"].is_null(), "{f}: {r}");
+    }
+    // csc(1/z) = z + 1/(6z) + … near infinity (sin's series, DLMF 4.19.4): a simple pole with
+    // Res∞ = −1/6 — an argument that does not grow keeps the ordinary classification.
+    let r = run(json!({"task": "residue", "f": "csc(1/z)", "at": "infinity"}));
+    assert_eq!(r["kind"], "pole", "{r}");
+    assert!(close(&r["residue"], -1.0 / 6.0, 0.0, 1e-10), "{r}");
+}
