@@ -320,3 +320,15 @@ fn overflow_of_cosh_is_not_a_singularity_on_the_line() {
     let v = run_json_value(json!({"task": "evaluate", "f": "1/cosh(x)", "var": "x", "at": [1024.0, -1024.0]})).unwrap();
     assert_eq!(v["values"], json!([[0.0, 0.0], [0.0, 0.0]]), "{v}");
 }
+
+#[test]
+fn a_removable_point_on_the_line_is_not_a_singularity() {
+    // ∫ x/sinh x dx over ℝ = π²/2 (Gradshteyn & Ryzhik 3.521.2 — from memory; mpmath 1.3 quad,
+    // 30 digits: 4.93480220054467930941724549994). As typed, x/sinh x is 0/0 at x = 0, which is
+    // the midpoint node of the quadrature on [−L, L] (regression: refused as divergent).
+    check(json!({"f": "x/sinh(x)", "var": "x", "kind": "line"}), C::new(PI * PI / 2.0, 0.0), 1e-9);
+    // ∫ sin x /(x (x² + 1)) dx = π (1 − 1/e) (mpmath 1.3 quadosc, 30 digits: 1.98586530379887152055255019997).
+    check(json!({"f": "sin(x)/(x*(x^2+1))", "var": "x", "kind": "line"}), C::new(PI * (1.0 - (-1.0f64).exp()), 0.0), 1e-9);
+    // A true pole at the same place is still refused.
+    assert!(error(request(json!({"f": "1/x", "var": "x", "kind": "line"}))).contains("diverges"));
+}
