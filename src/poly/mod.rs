@@ -9,6 +9,7 @@
 pub mod aberth_ehrlich;
 pub mod multiplicity;
 pub mod partial_fractions;
+pub mod pejorative;
 pub mod taylor;
 
 use crate::C;

@@ -10,5 +10,6 @@ mod contract_doc;
 mod inverse_laplace;
 mod inverse_z;
 mod meromorphic_battery;
+mod multiplicity;
 mod partial_fractions;
 mod real_integral;

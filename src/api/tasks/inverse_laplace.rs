@@ -17,7 +17,7 @@ use crate::api::input::{budget, compile_text, hints, CAUTION};
 use crate::api::wire::{FunctionInput, Number, Stability as StabilityOut};
 use crate::budget::Budget;
 use crate::expr::Function;
-use crate::singular::rational_poles::analyse_rational_polished;
+use crate::singular::rational_poles::analyse_function;
 use crate::text;
 use crate::transforms::laplace::delayed_inversion::{enclosed_points, invert_with_delay};
 use crate::transforms::laplace::fixed_talbot::invert_each;
@@ -142,7 +142,7 @@ fn validate_times(t: &[f64]) -> Result<Vec<f64>, ApiError> {
 
 /// Rational F: the residue sum is the answer; the contour inversion checks it.
 fn rational(f: &Function, num: &[C], den: &[C], times: &[f64], budget: &mut Budget) -> Result<InverseLaplaceResponse, ApiError> {
-    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z))?;
+    let a = analyse_function(f)?;
     let mut warnings = a.warnings.clone();
     let q = a.polynomial_part.clone();
     if q.iter().any(|c| c.norm() > 0.0) {

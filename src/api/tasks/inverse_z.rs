@@ -22,7 +22,7 @@ use crate::api::input::{budget, compile_text, hints, CAUTION};
 use crate::api::wire::{FunctionInput, Number, Stability as StabilityOut};
 use crate::budget::Budget;
 use crate::expr::Function;
-use crate::singular::rational_poles::analyse_rational_polished;
+use crate::singular::rational_poles::analyse_function;
 use crate::text;
 use crate::transforms::z::long_division::values_at;
 use crate::transforms::z::residues::ResidueForm;
@@ -177,7 +177,7 @@ fn indices(n: &[f64]) -> Result<Vec<u64>, ApiError> {
 
 /// Rational X: long division, residues and the contour, reconciled per n.
 fn rational(f: &Function, num: &[C], den: &[C], ns: &[u64], budget: &mut Budget) -> Result<InverseZResponse, ApiError> {
-    let analysis = analyse_rational_polished(num, den, &|z| f.eval_d(z))?;
+    let analysis = analyse_function(f)?;
     let form = ResidueForm::from_analysis(&analysis)?;
     let mut warnings = analysis.warnings.clone();
     let r0 = form.singular_radius();

@@ -94,8 +94,9 @@ fn known_singularities(
     warnings: &mut Vec<String>,
     budget: &mut crate::budget::Budget,
 ) -> Vec<C> {
-    if let Some(r) = f.rational() {
-        return match crate::singular::rational_poles::analyse_rational(&r.num, &r.den) {
+    if f.rational().is_some() {
+        // The same analysis as `singularities`, so both tasks place a pole at the same point.
+        return match crate::singular::rational_poles::analyse_function(f) {
             Ok(a) => a.poles.iter().map(|p| p.at).collect(),
             Err(e) => {
                 warnings.push(format!("poles not located ({e}); the annulus was checked by sampling only"));
