@@ -1,10 +1,15 @@
 //! `evaluate`: f and f' at a list of points.
 
 use crate::api::input::{compile, finite};
-use crate::api::wire::{pair, FunctionInput, Number};
+use crate::api::wire::{pair, FunctionInput, Number, FUNCTION_FIELDS};
 use crate::api::error::ApiError;
 use crate::C;
 use serde::{Deserialize, Serialize};
+
+use crate::api::shape::{Expect, Field};
+
+/// The declared fields of [`EvaluateRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("at", Expect::List(&Expect::Complex))]];
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct EvaluateRequest {

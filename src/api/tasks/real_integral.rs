@@ -15,7 +15,9 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, compile, hints};
-use crate::api::wire::{pair, FunctionInput, Number, Verdict, Method};
+use crate::api::wire::{pair, FunctionInput, FUNCTION_FIELDS, Number, Verdict, Method};
+use crate::api::shape::{Expect, Field};
+use crate::api::wire::BUDGET_FIELD;
 use crate::budget::Budget;
 use crate::expr::Function;
 use crate::integrals::product_residue::ResidueSum;
@@ -28,6 +30,18 @@ use crate::ways::{reconcile, Way, WayName};
 use serde::{Deserialize, Serialize};
 
 /// `real_integral` request.
+
+/// The declared fields of [`RealIntegralRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[
+    FUNCTION_FIELDS,
+    &[
+        Field::required("kind", Expect::Text),
+        Field::optional("omega", Expect::OrNull(&Expect::Complex)),
+        Field::optional("alpha", Expect::OrNull(&Expect::Complex)),
+        BUDGET_FIELD,
+    ],
+];
+
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct RealIntegralRequest {
     #[serde(flatten)]

@@ -5,7 +5,8 @@
 
 use crate::api::input::{budget, compile, hints, point};
 use crate::text;
-use crate::api::wire::{pair, FunctionInput, Point, PointKind};
+use crate::api::wire::{pair, FunctionInput, FUNCTION_FIELDS, Point, PointKind};
+use crate::api::shape::{Expect, Field};
 use crate::api::error::ApiError;
 use crate::expr::Function;
 use crate::singular::rational_check::cross_check;
@@ -15,6 +16,10 @@ use crate::C;
 use serde::{Deserialize, Serialize};
 
 /// `residue`: the residue of f at one point or at infinity.
+
+/// The declared fields of [`ResidueRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("at", Expect::Point)]];
+
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct ResidueRequest {
     #[serde(flatten)]
