@@ -56,6 +56,9 @@ pub enum Expect {
     Point,
     /// A list, each item as given.
     List(&'static Expect),
+    /// A list of at most this many items, each as given (a longer one is
+    /// `invalid_field`, refused before the items are converted).
+    AtMost(usize, &'static Expect),
     /// A list of exactly this many items, each as given.
     Exactly(usize, &'static Expect),
     /// An object of free names (parameters), each value as given.
@@ -108,6 +111,7 @@ impl Expect {
             Expect::Pair => "[x, y], two numbers".into(),
             Expect::Point => "[x, y] or \"infinity\"".into(),
             Expect::List(item) => format!("a list, each item {}", item.describe()),
+            Expect::AtMost(n, item) => format!("a list of at most {n} items, each {}", item.describe()),
             Expect::Exactly(n, item) => format!("a list of {n} items, each {}", item.describe()),
             Expect::Map(item) => format!("an object of names, each value {}", item.describe()),
             Expect::Object(groups) => {
@@ -283,6 +287,15 @@ fn check(v: &Value, expect: &Expect, path: &Path) -> Result<(), ApiError> {
         }
         (Expect::Point, Value::String(_)) => true,
         (Expect::List(item), Value::Array(items)) => return each(items, item, path),
+        (Expect::AtMost(n, item), Value::Array(items)) => {
+            if items.len() > *n {
+                return Err(ApiError::invalid(format!(
+                    "\"{path}\" has {} items; at most {n} per request: split the request",
+                    items.len()
+                )));
+            }
+            return each(items, item, path);
+        }
         (Expect::Exactly(n, item), Value::Array(items)) if items.len() == *n => return each(items, item, path),
         (Expect::Map(item), Value::Object(map)) => {
             for (k, x) in map {
@@ -311,7 +324,7 @@ fn kind_fits(expect: &Expect, v: &Value) -> bool {
         Expect::Bool => v.is_boolean(),
         Expect::Complex => v.is_number() || v.is_array(),
         Expect::Point => v.is_string() || v.is_array(),
-        Expect::Pair | Expect::List(_) | Expect::Exactly(..) => v.is_array(),
+        Expect::Pair | Expect::List(_) | Expect::AtMost(..) | Expect::Exactly(..) => v.is_array(),
         Expect::Map(_) | Expect::Object(_) | Expect::Tagged(_) => v.is_object(),
         Expect::OrNull(inner) => v.is_null() || kind_fits(inner, v),
     }

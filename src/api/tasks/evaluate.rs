@@ -9,7 +9,7 @@ use serde::{Deserialize, Serialize};
 use crate::api::shape::{Expect, Field};
 
 /// The declared fields of [`EvaluateRequest`] (checked by `api::shape`).
-pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("at", Expect::List(&Expect::Complex))]];
+pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("at", Expect::AtMost(MAX_POINTS, &Expect::Complex))]];
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct EvaluateRequest {

@@ -36,7 +36,7 @@ pub const MAX_TIME: f64 = 1e15;
 
 /// The declared fields of [`InverseLaplaceRequest`] (checked by `api::shape`).
 pub const FIELDS: &[&[Field]] =
-    &[&transform_fields("F"), &[Field::required("t", Expect::List(&Expect::Real)), BUDGET_FIELD]];
+    &[&transform_fields("F"), &[Field::required("t", Expect::AtMost(MAX_TIMES, &Expect::Real)), BUDGET_FIELD]];
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct InverseLaplaceRequest {

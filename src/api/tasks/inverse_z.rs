@@ -56,7 +56,7 @@ pub enum Method {
 pub const FIELDS: &[&[Field]] = &[
     &transform_fields("X"),
     &[
-        Field::required("n", Expect::List(&Expect::Real)),
+        Field::required("n", Expect::AtMost(MAX_COUNT, &Expect::Real)),
         Field::optional("singular_radius", Expect::OrNull(&Expect::Real)),
         BUDGET_FIELD,
     ],
