@@ -196,7 +196,7 @@ pub fn edit_distance(a: &str, b: &str) -> usize {
 
 /// The known name nearest to `name`, if it is close enough to be a slip
 /// (same letters up to case, the start of a known name, or at most a third of
-/// the letters changed, at least one).
+/// the letters changed: none for a name of one or two letters).
 pub fn did_you_mean<'a>(name: &str, known: impl IntoIterator<Item = &'a str>) -> Option<&'a str> {
     let lower = name.to_lowercase();
     let mut best: Option<(usize, &str)> = None;
@@ -213,7 +213,7 @@ pub fn did_you_mean<'a>(name: &str, known: impl IntoIterator<Item = &'a str>) ->
             best = Some((d, k));
         }
     }
-    let allowed = (name.chars().count() / 3).max(1);
+    let allowed = name.chars().count() / 3;
     best.filter(|&(d, _)| d <= allowed).map(|(_, k)| k)
 }
 
@@ -387,6 +387,7 @@ mod tests {
         assert_eq!(did_you_mean("F", known), Some("f"), "case only");
         assert_eq!(did_you_mean("max", known), Some("max_evaluations"), "the start of a name");
         assert_eq!(did_you_mean("zeta", known), None, "nothing near");
+        assert_eq!(did_you_mean("a", known), None, "one letter is too short to guess from");
     }
 
     #[test]

@@ -12,3 +12,4 @@ mod inverse_z;
 mod meromorphic_battery;
 mod partial_fractions;
 mod real_integral;
+mod request_errors;
