@@ -4,9 +4,8 @@ use crate::api::input::{compile, finite};
 use crate::api::wire::{pair, FunctionInput, Number, FUNCTION_FIELDS};
 use crate::api::error::ApiError;
 use crate::C;
-use serde::{Deserialize, Serialize};
-
 use crate::api::shape::{Expect, Field};
+use serde::{Deserialize, Serialize};
 
 /// The declared fields of [`EvaluateRequest`] (checked by `api::shape`).
 pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("at", Expect::AtMost(MAX_POINTS, &Expect::Complex))]];

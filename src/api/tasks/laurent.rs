@@ -16,8 +16,6 @@ use crate::singular::find_singularities;
 use crate::C;
 use serde::{Deserialize, Serialize};
 
-/// `laurent`: coefficients `c_n`, `n = from..=to`, on an annulus around a point or infinity.
-
 /// The declared fields of [`LaurentRequest`] (checked by `api::shape`).
 pub const FIELDS: &[&[Field]] = &[
     FUNCTION_FIELDS,
@@ -30,6 +28,7 @@ pub const FIELDS: &[&[Field]] = &[
     ],
 ];
 
+/// `laurent`: coefficients `c_n`, `n = from..=to`, on an annulus around a point or infinity.
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct LaurentRequest {
     #[serde(flatten)]

@@ -7,11 +7,10 @@ use crate::api::error::{ApiError, ErrorCode};
 use crate::singular::rational_poles::{analyse_rational_polished, partial_fractions_string};
 use serde::{Deserialize, Serialize};
 
-/// `partial_fractions`: a rational f as polynomial part plus Σ c/(z−a)^k.
-
 /// The declared fields of [`PartialFractionsRequest`] (checked by `api::shape`).
 pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS];
 
+/// `partial_fractions`: a rational f as polynomial part plus Σ c/(z−a)^k.
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct PartialFractionsRequest {
     #[serde(flatten)]

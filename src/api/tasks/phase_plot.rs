@@ -10,8 +10,6 @@ use crate::plot::phase_plot::{render_rows, PlotOptions, View};
 use crate::C;
 use serde::{Deserialize, Serialize};
 
-/// `phase_plot`: colour each pixel of the view box by arg f (and optionally |f|).
-
 /// The declared fields of [`PhasePlotRequest`] (checked by `api::shape`).
 pub const FIELDS: &[&[Field]] = &[
     FUNCTION_FIELDS,
@@ -32,6 +30,7 @@ pub const OPTIONS_FIELDS: &[&[Field]] = &[&[
     Field::optional("infinity", Expect::Bool),
 ]];
 
+/// `phase_plot`: colour each pixel of the view box by arg f (and optionally |f|).
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct PhasePlotRequest {
     #[serde(flatten)]

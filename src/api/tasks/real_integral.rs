@@ -29,8 +29,6 @@ use crate::singular::rational_poles::analyse_rational_polished;
 use crate::ways::{reconcile, Way, WayName};
 use serde::{Deserialize, Serialize};
 
-/// `real_integral` request.
-
 /// The declared fields of [`RealIntegralRequest`] (checked by `api::shape`).
 pub const FIELDS: &[&[Field]] = &[
     FUNCTION_FIELDS,
@@ -42,6 +40,7 @@ pub const FIELDS: &[&[Field]] = &[
     ],
 ];
 
+/// `real_integral` request.
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct RealIntegralRequest {
     #[serde(flatten)]

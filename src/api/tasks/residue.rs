@@ -15,11 +15,10 @@ use crate::singular::{classify_infinity, classify_point, PointResult};
 use crate::C;
 use serde::{Deserialize, Serialize};
 
-/// `residue`: the residue of f at one point or at infinity.
-
 /// The declared fields of [`ResidueRequest`] (checked by `api::shape`).
 pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("at", Expect::Point)]];
 
+/// `residue`: the residue of f at one point or at infinity.
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct ResidueRequest {
     #[serde(flatten)]

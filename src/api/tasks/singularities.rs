@@ -18,11 +18,10 @@ use crate::text;
 use crate::C;
 use serde::{Deserialize, Serialize};
 
-/// `singularities`: poles, zeros, essential singularities and branch points in a region.
-
 /// The declared fields of [`SingularitiesRequest`] (checked by `api::shape`).
 pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("region", CONTOUR), BUDGET_FIELD]];
 
+/// `singularities`: poles, zeros, essential singularities and branch points in a region.
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct SingularitiesRequest {
     #[serde(flatten)]
