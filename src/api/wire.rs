@@ -271,4 +271,19 @@ mod tests {
         assert_eq!(c, crate::contour::Contour::Ellipse { center: [1.0, 2.0], semi_axes: [3.0, 1.0], angle: 0.0 });
         assert!(serde_json::from_str::<ContourShape>(r#"{"shape":"circle","center":[0,0],"radius":1,"r":2}"#).is_err());
     }
+
+    #[test]
+    fn numbers_and_points_read_both_forms_and_say_what_they_expect() {
+        // The two forms of docs/contract.md: a bare real or [re, im]; [x, y] or a name.
+        assert_eq!(serde_json::from_str::<Number>("2").unwrap(), Number::Real(2.0));
+        assert_eq!(serde_json::from_str::<Number>("[1, -0.5]").unwrap(), Number::Complex([1.0, -0.5]));
+        assert_eq!(serde_json::from_str::<Point>("\"infinity\"").unwrap(), Point::Named("infinity".into()));
+        assert_eq!(serde_json::from_str::<Point>("[3, 4]").unwrap(), Point::Finite([3.0, 4.0]));
+        let e = serde_json::from_str::<Number>("\"2\"").unwrap_err().to_string();
+        assert!(e.contains("expected a number or [re, im]"), "{e}");
+        let e = serde_json::from_str::<Number>("[1, 2, 3]").unwrap_err().to_string();
+        assert!(e.contains("a number or [re, im]"), "{e}");
+        let e = serde_json::from_str::<Point>("7").unwrap_err().to_string();
+        assert!(e.contains("expected [x, y] or \"infinity\""), "{e}");
+    }
 }
