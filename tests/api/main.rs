@@ -13,3 +13,4 @@ mod meromorphic_battery;
 mod multiplicity;
 mod partial_fractions;
 mod real_integral;
+mod request_errors;

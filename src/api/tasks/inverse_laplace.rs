@@ -15,6 +15,8 @@
 use crate::api::error::ApiError;
 use crate::api::input::{budget, compile_text, hints, CAUTION};
 use crate::api::wire::{FunctionInput, Number, Stability as StabilityOut};
+use crate::api::shape::{Expect, Field};
+use crate::api::wire::{transform_fields, BUDGET_FIELD};
 use crate::budget::Budget;
 use crate::expr::Function;
 use crate::singular::rational_poles::analyse_function;
@@ -31,6 +33,10 @@ use std::collections::BTreeMap;
 pub const MAX_TIMES: usize = 10_000;
 /// Largest time accepted.
 pub const MAX_TIME: f64 = 1e15;
+
+/// The declared fields of [`InverseLaplaceRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] =
+    &[&transform_fields("F"), &[Field::required("t", Expect::AtMost(MAX_TIMES, &Expect::Real)), BUDGET_FIELD]];
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct InverseLaplaceRequest {

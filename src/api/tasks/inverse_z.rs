@@ -20,6 +20,8 @@
 use crate::api::error::ApiError;
 use crate::api::input::{budget, compile_text, hints, CAUTION};
 use crate::api::wire::{FunctionInput, Number, Stability as StabilityOut};
+use crate::api::shape::{Expect, Field};
+use crate::api::wire::{transform_fields, BUDGET_FIELD};
 use crate::budget::Budget;
 use crate::expr::Function;
 use crate::singular::rational_poles::analyse_function;
@@ -49,6 +51,16 @@ pub enum Method {
     /// Any other X: the contour alone.
     Contour,
 }
+
+/// The declared fields of [`InverseZRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[
+    &transform_fields("X"),
+    &[
+        Field::required("n", Expect::AtMost(MAX_COUNT, &Expect::Real)),
+        Field::optional("singular_radius", Expect::OrNull(&Expect::Real)),
+        BUDGET_FIELD,
+    ],
+];
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct InverseZRequest {

@@ -7,13 +7,26 @@
 use crate::api::input::{budget, compile, hints, point};
 
 use crate::contour::Contour;
-use crate::api::wire::{FunctionInput, Point};
+use crate::api::wire::{FunctionInput, FUNCTION_FIELDS, Point};
+use crate::api::shape::{Expect, Field};
 use crate::api::error::{ApiError, ErrorCode};
 use crate::expr::Function;
 use crate::series::laurent_fft::{self, Center};
 use crate::singular::find_singularities;
 use crate::C;
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`LaurentRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[
+    FUNCTION_FIELDS,
+    &[
+        Field::required("center", Expect::Point),
+        Field::optional("inner", Expect::Real),
+        Field::optional("outer", Expect::OrNull(&Expect::Real)),
+        Field::required("from", Expect::Whole),
+        Field::required("to", Expect::Whole),
+    ],
+];
 
 /// `laurent`: coefficients `c_n`, `n = from..=to`, on an annulus around a point or infinity.
 #[derive(Debug, Clone, Serialize, Deserialize)]

@@ -1,10 +1,14 @@
 //! `partial_fractions`: a rational f as polynomial part plus Σ c/(z − a)^k.
 
 use crate::api::input::{compile, pairs};
-use crate::api::wire::{pair, FunctionInput};
+use crate::api::wire::{pair, FunctionInput, FUNCTION_FIELDS};
+use crate::api::shape::Field;
 use crate::api::error::{ApiError, ErrorCode};
 use crate::singular::rational_poles::{analyse_function, partial_fractions_string};
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`PartialFractionsRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS];
 
 /// `partial_fractions`: a rational f as polynomial part plus Σ c/(z−a)^k.
 #[derive(Debug, Clone, Serialize, Deserialize)]

@@ -15,7 +15,9 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, compile, hints};
-use crate::api::wire::{pair, FunctionInput, Number, Verdict, Method};
+use crate::api::wire::{pair, FunctionInput, FUNCTION_FIELDS, Number, Verdict, Method};
+use crate::api::shape::{Expect, Field};
+use crate::api::wire::BUDGET_FIELD;
 use crate::budget::Budget;
 use crate::expr::Function;
 use crate::integrals::product_residue::ResidueSum;
@@ -26,6 +28,17 @@ use crate::singular::decay::{check_rational_decay, line_decay};
 use crate::singular::rational_poles::analyse_function;
 use crate::ways::{reconcile, Way, WayName};
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`RealIntegralRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[
+    FUNCTION_FIELDS,
+    &[
+        Field::required("kind", Expect::Text),
+        Field::optional("omega", Expect::OrNull(&Expect::Complex)),
+        Field::optional("alpha", Expect::OrNull(&Expect::Complex)),
+        BUDGET_FIELD,
+    ],
+];
 
 /// `real_integral` request.
 #[derive(Debug, Clone, Serialize, Deserialize)]

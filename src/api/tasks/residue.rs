@@ -5,7 +5,8 @@
 
 use crate::api::input::{budget, compile, hints, point};
 use crate::text;
-use crate::api::wire::{pair, FunctionInput, Point, PointKind};
+use crate::api::wire::{pair, FunctionInput, FUNCTION_FIELDS, Point, PointKind};
+use crate::api::shape::{Expect, Field};
 use crate::api::error::ApiError;
 use crate::expr::Function;
 use crate::singular::rational_check::cross_check;
@@ -13,6 +14,9 @@ use crate::singular::rational_poles::{PointKind as RationalKind, analyse_functio
 use crate::singular::{classify_infinity, classify_point, PointResult};
 use crate::C;
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`ResidueRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("at", Expect::Point)]];
 
 /// `residue`: the residue of f at one point or at infinity.
 #[derive(Debug, Clone, Serialize, Deserialize)]

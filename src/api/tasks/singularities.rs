@@ -3,7 +3,9 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, checked_contour, compile, hints, pole_candidates};
-use crate::api::wire::{pair, ContourShape, FunctionInput, Method};
+use crate::api::wire::{pair, ContourShape, FunctionInput, FUNCTION_FIELDS, Method};
+use crate::api::shape::Field;
+use crate::api::wire::{BUDGET_FIELD, CONTOUR};
 use crate::contour::Contour;
 use crate::expr::Function;
 use crate::singular::classify::essential_residues;
@@ -15,6 +17,9 @@ use crate::singular::{classify_infinity, find_singularities};
 use crate::text;
 use crate::C;
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`SingularitiesRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("region", CONTOUR), BUDGET_FIELD]];
 
 /// `singularities`: poles, zeros, essential singularities and branch points in a region.
 #[derive(Debug, Clone, Serialize, Deserialize)]
