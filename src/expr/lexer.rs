@@ -90,8 +90,6 @@ fn invisible_or_look_alike(c: char) -> Option<(&'static str, &'static str)> {
         '\u{200F}' => ("right-to-left mark", "delete it"),
         '\u{FEFF}' => ("byte-order mark (zero-width no-break space)", "delete it"),
         '\u{00AD}' => ("soft hyphen", "delete it"),
-        '\u{00A0}' => ("no-break space", "type an ordinary space instead"),
-        '\u{202F}' => ("narrow no-break space", "type an ordinary space instead"),
         '\u{2212}' => ("minus sign", "type the ASCII '-' instead"),
         '\u{2013}' => ("en dash", "this dash is not a minus sign; type the ASCII '-' instead"),
         '\u{2014}' => ("em dash", "this dash is not a minus sign; type the ASCII '-' instead"),
@@ -116,7 +114,7 @@ pub fn lex(src: &str) -> Result<Vec<Token>, ExprError> {
     let mut i = 0;
     while i < chars.len() {
         let c = chars[i];
-        // Before the whitespace test: the no-break spaces count as whitespace there.
+        // Before the whitespace test (no-break spaces, pasted from a wiki, are read as spaces).
         if let Some((name, todo)) = invisible_or_look_alike(c) {
             return Err(err(format!("U+{:04X} {name} at character {i}; {todo}", c as u32), i, i + 1));
         }
