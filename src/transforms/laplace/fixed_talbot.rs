@@ -170,6 +170,25 @@ pub fn invert(
     })
 }
 
+/// Relative floor of [`meaningful`]: a value below this × the scale of f counts as zero.
+pub const MEANINGFUL_FLOOR: f64 = 1e-3;
+
+/// True when a contour value has at least one meaningful digit: its error
+/// estimate is below max(|value|, `MEANINGFUL_FLOOR`·`scale`), `scale` being
+/// the size of f at the other times (so a value near a zero of f is kept).
+///
+/// ```
+/// use residuary::transforms::laplace::fixed_talbot::meaningful;
+/// use residuary::C;
+/// assert!(meaningful(C::new(0.5, 0.0), 1e-9, 1.0));
+/// assert!(meaningful(C::new(1e-12, 0.0), 1e-9, 1.0)); // near a zero of f
+/// assert!(!meaningful(C::new(8.8, 0.0), 900.0, 1.0)); // the estimate swamps the value
+/// assert!(!meaningful(C::new(1.0, 0.0), f64::NAN, 1.0));
+/// ```
+pub fn meaningful(value: C, error_estimate: f64, scale: f64) -> bool {
+    error_estimate < value.norm().max(MEANINGFUL_FLOOR * scale)
+}
+
 /// f(t) at every time in `times` with the contour enclosing `singular`; `None`
 /// where F was not finite on the contour (overflow or an unseen singularity).
 /// Running out of budget stops the whole series.
