@@ -149,11 +149,17 @@ pub fn closed_form(parts: &[DelayedPart]) -> String {
                 Some(rest) if single_term(rest) => (true, rest.to_string()),
                 _ => (false, g.clone()),
             };
-            let term = match (p.tau == 0.0, body.as_str()) {
+            // A leading numeric factor goes before the step: `2*H(t - 1)*(t - 1)`.
+            let (factor, rest) = match body.split_once('*') {
+                Some((k, rest)) if k.parse::<f64>().is_ok() && single_term(&body) => (format!("{k}*"), rest.to_string()),
+                None if body.parse::<f64>().is_ok() && body != "1" => (format!("{body}*"), "1".to_string()),
+                _ => (String::new(), body.clone()),
+            };
+            let term = match (p.tau == 0.0, rest.as_str()) {
                 (true, _) => body.clone(),
-                (false, "1") => step,
-                (false, _) if single_term(&body) => format!("{step}*{body}"),
-                (false, _) => format!("{step}*({body})"),
+                (false, "1") => format!("{factor}{step}"),
+                (false, _) if single_term(&rest) => format!("{factor}{step}*{rest}"),
+                (false, _) => format!("{factor}{step}*({rest})"),
             };
             push(&mut out, neg, &term);
         }
