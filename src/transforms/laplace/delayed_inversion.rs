@@ -186,11 +186,19 @@ pub fn invert_with_delay(
             }
         }
     }
+    let crossings = if f.analysis().uses_branch_functions {
+        cut_crossings(f, &plans, budget)?
+    } else {
+        vec![None; plans.len()]
+    };
+    let declined = declined_times(&values, &errors, &plans, &crossings);
+    let cut_crossing = declined.iter().find_map(|&i| crossings[i]);
     let unreliable: Vec<f64> = times
         .iter()
         .zip(values.iter().zip(&errors))
-        .filter(|(_, (v, &e))| !(e <= UNRELIABLE * v.norm().max(1e-8 * largest)))
-        .map(|(&t, _)| t)
+        .enumerate()
+        .filter(|(i, (_, (v, &e)))| !(e <= UNRELIABLE * v.norm().max(1e-8 * largest)) && !declined.contains(i))
+        .map(|(_, (&t, _))| t)
         .collect();
     if let Some(&t) = unreliable.first() {
         let hint = if delay.is_some() {
@@ -213,13 +221,6 @@ pub fn invert_with_delay(
             text::real(t)
         ));
     }
-    let crossings = if f.analysis().uses_branch_functions {
-        cut_crossings(f, &plans, budget)?
-    } else {
-        vec![None; plans.len()]
-    };
-    let declined = declined_times(&values, &errors, &plans, &crossings);
-    let cut_crossing = declined.iter().find_map(|&i| crossings[i]);
     if !declined.is_empty() {
         warnings.push(declined_warning(times, &declined, cut_crossing));
     }
@@ -390,6 +391,22 @@ mod tests {
             |&t| C::new(1.0 / (std::f64::consts::PI * t).sqrt(), 0.0),
             1e-9,
         );
+    }
+
+    #[test]
+    fn times_without_a_meaningful_value_are_declined() {
+        // 1/sqrt(s² + 1) ↔ J₀(t) (DLMF 10.22.43), but the principal sqrt(s² + 1) is cut on the
+        // imaginary axis beyond ±i (common practice), across every contour enclosing ±i.
+        let enclosed = [C::new(0.0, 1.0), C::new(0.0, -1.0)];
+        let r = invert_with_delay(&compile("1/sqrt(s^2+1)"), &[1.0, 5.0], &enclosed, &mut Budget::default()).unwrap();
+        assert_eq!(r.declined, vec![0, 1], "{:?}", r.warnings);
+        assert!(r.cut_crossing.is_some_and(|at| at.re.abs() < 1e-6 && at.im.abs() > 1.0), "{:?}", r.cut_crossing);
+        // With the cuts running left from ±i, t = 1 is served (J₀(1) = 0.765197686557966551,
+        // mpmath 1.3 besselj) and t = 50 declined: the rounding of e^{rt}-sized terms leaves no digit.
+        let r = invert_with_delay(&compile("1/(sqrt(s+i)*sqrt(s-i))"), &[1.0, 50.0], &enclosed, &mut Budget::default()).unwrap();
+        assert_eq!(r.declined, vec![1], "{:?}", r.warnings);
+        assert_eq!(r.cut_crossing, None);
+        crate::reference::assert_estimate_bounds(r.values[0], r.errors[0], C::new(0.765197686557966551, 0.0), "J0(1)");
     }
 
     #[test]

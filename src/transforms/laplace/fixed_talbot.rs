@@ -189,9 +189,11 @@ pub const MEANINGFUL_FLOOR: f64 = 1e-3;
 /// assert!(meaningful(C::new(1e-12, 0.0), 1e-9, 1.0)); // near a zero of f
 /// assert!(!meaningful(C::new(8.8, 0.0), 900.0, 1.0)); // the estimate swamps the value
 /// assert!(!meaningful(C::new(1.0, 0.0), f64::NAN, 1.0));
+/// assert!(meaningful(C::new(0.0, 0.0), 0.0, 0.0)); // exactly zero
 /// ```
 pub fn meaningful(value: C, error_estimate: f64, scale: f64) -> bool {
-    error_estimate < value.norm().max(MEANINGFUL_FLOOR * scale)
+    // An exact zero (every term vanished) is meaningful too.
+    error_estimate < value.norm().max(MEANINGFUL_FLOOR * scale) || (error_estimate == 0.0 && value.is_finite())
 }
 
 /// f(t) at every time in `times` with the contour enclosing `singular`; `None`
