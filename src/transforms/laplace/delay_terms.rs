@@ -102,9 +102,12 @@ fn walk(e: &R, b: &mut RationalBuilder) -> Option<Sum> {
                 }
                 BinOp::Pow => {
                     let n = crate::expr::program::as_small_integer(y.as_const()?)?;
-                    if n < 0 {
-                        let [(tx, gx)] = sx.as_slice() else { return None };
+                    if let [(tx, gx)] = sx.as_slice() {
                         return Some(vec![(tx * n as f64, b.powi(gx, n as i64)?)]);
+                    }
+                    // A sum raised to a power: multiplied out (at most MAX_TERMS factors).
+                    if !(0..=MAX_TERMS as i32).contains(&n) {
+                        return None;
                     }
                     let mut acc = vec![(0.0, b.constant(C::new(1.0, 0.0))?)];
                     for _ in 0..n {
@@ -175,6 +178,8 @@ mod tests {
         assert_eq!(taus("(1/s)*(1+exp(-s)+exp(-2*s))"), vec![0.0, 1.0, 2.0]);
         assert_eq!(taus("e^(-s)/s"), vec![1.0]);
         assert_eq!(taus("1/(s*exp(s))"), vec![1.0]);
+        assert_eq!(taus("exp(-s)^3/s"), vec![3.0]);
+        assert_eq!(taus("(1-exp(-s))^100000/s"), Vec::<f64>::new(), "too many terms: not taken");
         let with_param = delay_terms("exp(-T*s)/s", "s", &[("T".into(), C::new(2.5, 0.0))]).unwrap();
         assert_eq!(with_param[0].tau, 2.5);
         // exp(−a s − b): the constant factor e^{−b} moves into G.
