@@ -88,6 +88,7 @@ pub struct InverseLaplaceResponse {
     /// Per time; null at a declined time.
     pub error_estimates: Vec<Option<f64>>,
     /// Indices of the times with no meaningful value (`f` and `error_estimates` null there).
+    #[serde(default)]
     pub declined: Vec<usize>,
     /// `"residues"` (rational F) or `"talbot"`.
     pub method: Method,
@@ -102,6 +103,7 @@ pub struct InverseLaplaceResponse {
     /// τ when F was recognised as e^{−τs} G(s); f is 0 for t < τ.
     pub delay: Option<f64>,
     /// The delays τₖ > 0 read from the expression F = Σ e^{−τₖs}Gₖ(s), ascending; else empty.
+    #[serde(default)]
     pub delays: Vec<f64>,
     /// Singular points the contour was placed to enclose (general F).
     pub singular_points_enclosed: Vec<[f64; 2]>,
