@@ -48,6 +48,7 @@ pub mod error;
 pub mod expr;
 pub mod integrals;
 pub mod linalg;
+pub mod overflow;
 pub mod plot;
 pub mod poly;
 pub mod quad;

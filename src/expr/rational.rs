@@ -66,7 +66,7 @@ fn monic(p: &[C]) -> Option<Vec<C>> {
         return None;
     }
     let lc = p[p.len() - 1];
-    let q: Vec<C> = p.iter().map(|c| c / lc).collect();
+    let q: Vec<C> = p.iter().map(|c| crate::poly::cdiv(*c, lc)).collect();
     q.iter().all(|c| c.re.is_finite() && c.im.is_finite()).then_some(q)
 }
 
@@ -166,7 +166,7 @@ impl RationalBuilder {
         }
         if r.den.len() == 1 && r.den[0] != C::new(1.0, 0.0) {
             let d = r.den[0];
-            let num = trim(&r.num.iter().map(|c| c / d).collect::<Vec<C>>());
+            let num = trim(&r.num.iter().map(|c| crate::poly::cdiv(*c, d)).collect::<Vec<C>>());
             return Some(Rational {
                 num,
                 den: vec![C::new(1.0, 0.0)],

@@ -450,7 +450,7 @@ fn analyse(num: &[C], den: &[C], factored: Option<&Rational>, as_typed: Option<A
     } else {
         ZERO_C
     };
-    let residue_at_infinity = -r_top / lead;
+    let residue_at_infinity = -crate::poly::cdiv(r_top, lead);
     let infinity_order = num.len() as i32 - den.len() as i32;
     let sum: C = poles.iter().map(|p| p.residue).sum();
     let residue_sum_defect = (sum + residue_at_infinity).norm();

@@ -79,7 +79,8 @@ pub struct SingularitiesResponse {
 /// expression as typed; any other f by the sampling search of the region.
 pub fn run(req: &SingularitiesRequest) -> Result<SingularitiesResponse, ApiError> {
     let f = compile(&req.function)?;
-    let region = checked_contour(&req.region, "region")?;
+    // A region is a set: its contents count the same whichever way it is drawn.
+    let region = checked_contour(&req.region, "region")?.counter_clockwise();
     match f.rational() {
         Some(_) => rational(&f, &region),
         None => general(&f, &region, req.max_evaluations),

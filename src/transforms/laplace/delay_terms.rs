@@ -203,7 +203,7 @@ mod tests {
             let terms = delay_terms(src, "s", &[]).unwrap();
             assert!(matches(&terms, &|s| f.eval(s)), "{src}");
         }
-        let wrong = vec![DelayTerm { tau: 1.0, g: Rational { num: vec![C::new(1.0, 0.0)], den: vec![C::new(0.0, 0.0), C::new(1.0, 0.0)] } }];
+        let wrong = vec![DelayTerm { tau: 1.0, g: Rational::expanded(vec![C::new(1.0, 0.0)], vec![C::new(0.0, 0.0), C::new(1.0, 0.0)]) }];
         let f = Function::compile("exp(-2*s)/s", "s", &[]).unwrap();
         assert!(!matches(&wrong, &|s| f.eval(s)));
     }
