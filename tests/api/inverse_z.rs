@@ -204,8 +204,9 @@ fn mpmath_fixtures() {
         for i in 0..ns.len() {
             let Some(w) = want[i] else { continue };
             let d = (x[i] - w).abs();
+            // The fixture's own 40 digits: an exact zero may be stored as ~1e-42.
             assert!(
-                d <= e[i] + 4.0 * f64::EPSILON * w.abs(),
+                d <= e[i] + 4.0 * f64::EPSILON * w.abs() + 1e-39 * scale,
                 "{name} n={}: {} vs {w} (est {})",
                 ns[i],
                 x[i],

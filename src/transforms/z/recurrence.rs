@@ -100,6 +100,9 @@ pub fn impulse_response(num: &[C], den: &[C], count: usize, rhos: &[f64]) -> Res
     for &rho in &rhos {
         // g̃: a₀ g̃[m] = −Σ a_k ρ^{−k} g̃[m−k], g̃[0] = 1.
         let scaled: Vec<C> = (0..=q).map(|k| a[k] * rho.powi(-(k as i32))).collect();
+        if scaled.iter().any(|c| !c.is_finite()) {
+            continue;
+        }
         let mut g = vec![ZERO; q + 1];
         let (mut big_g, mut big_p) = (0.0f64, 0.0f64);
         for n in 0..count {
