@@ -76,22 +76,24 @@ pub fn impulse_response(num: &[C], den: &[C], count: usize, rhos: &[f64]) -> Res
     let a: Vec<C> = den.iter().rev().copied().collect();
     let b = |n: usize| if n <= q { num.get(q - n).copied().unwrap_or(ZERO) } else { ZERO };
     let a0_inv = a[0].inv();
-    let abs_a: Vec<f64> = a.iter().map(|c| c.norm()).collect();
+    // Sizes in the cheap norm |re| + |im| ≥ |·| (a bound may only grow by it).
+    let size_of = |c: C| c.re.abs() + c.im.abs();
+    let abs_a: Vec<f64> = a.iter().map(|&c| size_of(c)).collect();
     let u = (4.0 * (q as f64 + 2.0) + q as f64 + 1.0) * EPS;
+    let a0_size = a0_inv.norm();
 
     let mut x = vec![ZERO; count];
     let mut local = vec![0.0f64; count];
     for n in 0..count {
         let bn = b(n);
         let mut s = bn;
-        let mut size = bn.norm();
+        let mut size = size_of(bn);
         for k in 1..=q.min(n) {
-            let t = a[k] * x[n - k];
-            s -= t;
-            size += abs_a[k] * x[n - k].norm();
+            s -= a[k] * x[n - k];
+            size += abs_a[k] * size_of(x[n - k]);
         }
         x[n] = s * a0_inv;
-        local[n] = u * size / abs_a[0];
+        local[n] = u * size * a0_size;
     }
 
     let rhos: Vec<f64> = rhos.iter().copied().filter(|r| r.is_finite() && *r > 0.0).collect();
@@ -103,7 +105,7 @@ pub fn impulse_response(num: &[C], den: &[C], count: usize, rhos: &[f64]) -> Res
         if scaled.iter().any(|c| !c.is_finite()) {
             continue;
         }
-        let mut g = vec![ZERO; q + 1];
+        let mut g = vec![ZERO; count];
         let (mut big_g, mut big_p) = (0.0f64, 0.0f64);
         for n in 0..count {
             let gn = if n == 0 {
@@ -111,12 +113,12 @@ pub fn impulse_response(num: &[C], den: &[C], count: usize, rhos: &[f64]) -> Res
             } else {
                 let mut s = ZERO;
                 for k in 1..=q.min(n) {
-                    s -= scaled[k] * g[(n - k) % (q + 1)];
+                    s -= scaled[k] * g[n - k];
                 }
                 s * a0_inv
             };
-            g[n % (q + 1)] = gn;
-            big_g += gn.norm();
+            g[n] = gn;
+            big_g += size_of(gn);
             big_p = (rho * big_p).max(local[n]);
             let bound = 2.0 * big_g * big_p;
             if bound < errors[n] {
