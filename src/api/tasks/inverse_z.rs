@@ -203,7 +203,8 @@ fn rational(f: &Function, num: &[C], den: &[C], ns: &[u64], budget: &mut Budget)
     let preferred = [WayName::LongDivision, WayName::Residues];
     let floor = by_residues.iter().map(|v| v.0.norm()).filter(|x| x.is_finite()).fold(0.0, f64::max);
     let two_ways = |i: usize| {
-        let mut ways: Vec<Way> = by_recurrence.iter().map(|d| Way::new(WayName::LongDivision, d[i].0, d[i].1)).collect();
+        let mut ways = Vec::with_capacity(3);
+        ways.extend(by_recurrence.iter().map(|d| Way::new(WayName::LongDivision, d[i].0, d[i].1)));
         ways.push(Way::new(WayName::Residues, by_residues[i].0, by_residues[i].1));
         ways
     };

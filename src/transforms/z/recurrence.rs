@@ -99,13 +99,13 @@ pub fn impulse_response(num: &[C], den: &[C], count: usize, rhos: &[f64]) -> Res
     let rhos: Vec<f64> = rhos.iter().copied().filter(|r| r.is_finite() && *r > 0.0).collect();
     let rhos = if rhos.is_empty() { vec![1.0] } else { rhos };
     let mut errors = vec![f64::INFINITY; count];
+    let mut g = vec![ZERO; count];
     for &rho in &rhos {
         // g̃: a₀ g̃[m] = −Σ a_k ρ^{−k} g̃[m−k], g̃[0] = 1.
         let scaled: Vec<C> = (0..=q).map(|k| a[k] * rho.powi(-(k as i32))).collect();
         if scaled.iter().any(|c| !c.is_finite()) {
             continue;
         }
-        let mut g = vec![ZERO; count];
         let (mut big_g, mut big_p) = (0.0f64, 0.0f64);
         for n in 0..count {
             let gn = if n == 0 {
