@@ -286,6 +286,7 @@ fn general(f: &Function, singular_radius: Option<f64>, ns: &[u64], budget: &mut 
         )));
     }
     warnings.extend(contour.warnings.iter().cloned());
+    let r0 = contour.inner_singularity.map_or(r0, |r| r.max(r0));
     let x: Vec<C> = values.iter().map(|v| v.map(|v| v.0).unwrap_or_default()).collect();
     let response = InverseZResponse {
         x: x.iter().map(|v| v.re).collect(),

@@ -17,7 +17,7 @@
 //! infinity or has a singularity outside the circle (Laurent's theorem,
 //! common practice), and the inversion is refused.
 
-use super::trapezoid::ContourResult;
+use super::trapezoid::{ContourResult, POSITIVE_POWER_LIMIT};
 use crate::budget::Budget;
 use crate::contour::Contour;
 use crate::error::Failure;
@@ -32,8 +32,6 @@ pub const SEARCH_RADIUS: f64 = 10.0;
 /// Radius about an essential or branch point that the region search leaves out
 /// (0.02 × the disc's width 2·SEARCH_RADIUS, `singular::meromorphic`).
 pub const NEAR: f64 = 0.04 * SEARCH_RADIUS;
-/// Largest |c_m|ρ^m / max|X| (m = 1..3) accepted as rounding noise.
-const POSITIVE_POWER_LIMIT: f64 = 1e-9;
 
 /// What the search found.
 #[derive(Debug, Clone, PartialEq)]
