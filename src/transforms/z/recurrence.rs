@@ -32,6 +32,12 @@
 //! smallest bound is kept, doubled for the rounding of g̃ and of the bound itself.
 //! The bound costs one more recurrence per ρ.
 //!
+//! What it does not cover: coefficients that carry more than (q + 1)ε of
+//! their own size, as when X was typed as a product of many factors and the
+//! expansion cancels (z²⁴/Π(z − 0.95 e^{iθ_k}) is z²⁴/(z²⁴ + 0.95²⁴) only to
+//! rounding at the scale of the binomial sums). The task compares this way with
+//! the residues, whose poles are polished on X as typed, for that reason.
+//!
 //! ```
 //! use residuary::transforms::z::recurrence::impulse_response;
 //! use residuary::C;
