@@ -47,7 +47,7 @@ const MAX_SAMPLES: usize = 1 << 20;
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Method {
-    /// Rational X: long division, residues and contour compared.
+    /// Rational X: the difference equation and residues compared (the contour where they disagree).
     Rational,
     /// Any other X: the contour alone.
     Contour,
