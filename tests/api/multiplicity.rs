@@ -192,3 +192,30 @@ fn ill_conditioned_expanded_input_is_flagged() {
     }
     assert!(r["warnings"].as_array().unwrap().iter().any(|w| w.as_str().unwrap().contains("sensitive")), "{r}");
 }
+
+#[test]
+fn laurent_expands_about_the_pole_singularities_reports() {
+    // (z + 1)/(z³ − 2.1z² + 1.47z − 0.343) = (z + 1)/(z − 0.7)³ = 1.7/(z − 0.7)³ + 1/(z − 0.7)²
+    // (z + 1 = 1.7 + (z − 0.7), by hand). The Laurent task, centred where `singularities`
+    // puts the pole, must expand there (before: its own pole 6e-11 away refused the centre).
+    let f = "(z+1)/(z^3-2.1*z^2+1.47*z-0.343)";
+    let s = singularities(f, 5.0);
+    let at = s["poles"][0]["at"].clone();
+    assert_eq!(s["poles"][0]["order"], 3, "{s}");
+    let l = ok_response(json!({"task": "laurent", "f": f, "center": at, "from": -3, "to": -1}));
+    let cs: Vec<C> = l["coefficients"].as_array().unwrap().iter().map(|x| c(&x["c"])).collect();
+    assert!((cs[0] - C::new(1.7, 0.0)).norm() < 1e-10, "{l}");
+    assert!((cs[1] - C::new(1.0, 0.0)).norm() < 1e-10, "{l}");
+    assert!(cs[2].norm() < 1e-10, "{l}");
+}
+
+#[test]
+fn laurent_without_outer_reaches_the_nearest_other_singularity() {
+    // 1/(z − 0.7)³ + 1/(z + 2) about 0.7, on 0 < |z − 0.7| < 2.7: c₀ = 1/2.7, c₁ = −1/2.7²
+    // (geometric series of 1/(2.7 + w), by hand); docs/contract.md: omitted "outer" means as
+    // far as the nearest singularity allows (before: refused for containing −2).
+    let l = ok_response(json!({"task": "laurent", "f": "1/(z-0.7)^3+1/(z+2)", "center": [0.7, 0], "from": 0, "to": 1}));
+    let cs: Vec<C> = l["coefficients"].as_array().unwrap().iter().map(|x| c(&x["c"])).collect();
+    assert!((cs[0] - C::new(1.0 / 2.7, 0.0)).norm() < 1e-12, "{l}");
+    assert!((cs[1] - C::new(-1.0 / 2.7 / 2.7, 0.0)).norm() < 1e-12, "{l}");
+}

@@ -70,7 +70,7 @@ pub fn run(req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
         return Err(ApiError::invalid("\"inner\" must be a finite number ≥ 0"));
     }
     if matches!(center, Center::Point(_)) && !(outer > inner) {
-        return Err(ApiError::invalid("\"outer\" must be larger than \"inner\" (or omitted for no limit)"));
+        return Err(ApiError::invalid("\"outer\" must be larger than \"inner\" (or omitted: as far as the nearest singularity allows)"));
     }
     if let Center::Point(a) = center {
         let h = hints(&f);
@@ -84,6 +84,15 @@ pub fn run(req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
     let mut warnings = Vec::new();
     let mut budget = budget(None);
     let known = known_singularities(&f, center, inner, outer, &mut warnings, &mut budget);
+    // "outer" omitted: as far as the nearest known singularity beyond "inner" allows.
+    let outer = match (req.outer, center) {
+        (None, Center::Point(a)) => known
+            .iter()
+            .map(|s| (s - a).norm())
+            .filter(|&d| d.is_finite() && d > inner * (1.0 + 1e-9) + 1e-12 * a.norm().max(1.0))
+            .fold(outer, f64::min),
+        _ => outer,
+    };
     let spec = laurent_fft::LaurentRequest { center, inner, outer, from: req.from, to: req.to };
     let result = laurent_fft::laurent(|z| f.eval(z), &spec, &known, &mut budget)?;
     let mut radii = result.radius_used.clone();
