@@ -29,7 +29,7 @@
 
 use crate::budget::Budget;
 use crate::cauchy::circle::CircleSamples;
-use crate::ways::{consistent, Way, WayName};
+use crate::ways::{consistent, has_failed, Way, WayName};
 use crate::C;
 
 /// The outcome for one pole.
@@ -50,7 +50,8 @@ pub const MAX_CHECKED: usize = 400;
 
 /// Check each `(location, exact residue, exact error estimate)` against sampling.
 /// `all_poles` are every pole of f (to keep each circle clear of the others).
-/// Returns `None` for a pole that could not be checked (budget, non-finite samples).
+/// Returns `None` for a pole that could not be checked (budget, non-finite samples,
+/// or a sampled value whose own estimate exceeds it).
 pub fn check_residues(
     f: &dyn Fn(C) -> C,
     poles: &[(C, C, f64)],
@@ -68,6 +69,11 @@ pub fn check_residues(
                 .fold(f64::INFINITY, f64::min);
             let r = if nearest.is_finite() { 0.15 * nearest } else { 0.15 * at.norm().max(1.0) };
             let (sampled, sampled_error) = trapezoid_residue(f, at, r, budget)?;
+            // A sampled value with no correct digit (its estimate exceeds it) is a failed
+            // check, not evidence against the exact residue (the one rule, `ways`).
+            if has_failed(&Way::new(WayName::TrapezoidalRule, sampled, sampled_error), 0.0) {
+                return None;
+            }
             let difference = (sampled - exact).norm();
             let agrees = consistent(
                 &Way::new(WayName::Residues, exact, exact_error),

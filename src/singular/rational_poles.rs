@@ -85,9 +85,8 @@ pub fn sensitivity_warning(at: C, residue: C, error_estimate: f64) -> Option<Str
     let relative = error_estimate / residue.norm();
     (residue.norm() > 0.0 && !(relative <= SENSITIVE_RESIDUE)).then(|| {
         format!(
-            "the residue at {} is sensitive to the coefficients (error estimate {:.1e}, about {} correct digits): \
-             poles this close together make residues ill-conditioned, and rounding the typed numbers to double \
-             precision moves them this much",
+            "the residue at {} is uncertain (error estimate {:.1e}: about {} digits are certain); close poles make \
+             residues ill-conditioned, and rounding the typed numbers to double precision moves them this much",
             describe(at),
             error_estimate,
             (-relative.log10()).floor().max(0.0)
