@@ -211,7 +211,7 @@ impl Verdict {
 
     /// One sentence on agreement; `why` says what may cause a disagreement.
     pub fn sentence(&self, why: &str) -> String {
-        let d = self.max_discrepancy;
+        let d = crate::text::Sci(self.max_discrepancy);
         match (self.agreement, self.worst) {
             (Agreement::Single, _) => format!("only the {} is available", self.ways[0].name.words()),
             (Agreement::Agree, _) => format!("{} agree to {d:.1e}", self.who()),
@@ -219,15 +219,15 @@ impl Verdict {
                 "{} differ by up to {d:.1e}; only the large error estimate of the {} ({:.1e}) covers that: {why}",
                 self.who(),
                 loose.name.words(),
-                loose.error
+                crate::text::Sci(loose.error)
             ),
             (_, Some((a, b))) => format!(
                 "{} and {} differ by {:.1e}, more than their error estimates ({:.1e}, {:.1e}) allow: {why}",
                 a.name.words(),
                 b.name.words(),
-                (a.value - b.value).norm(),
-                a.error,
-                b.error
+                crate::text::Sci((a.value - b.value).norm()),
+                crate::text::Sci(a.error),
+                crate::text::Sci(b.error)
             ),
             (_, None) => format!("{} differ by up to {d:.1e}: {why}", self.who()),
         }

@@ -117,7 +117,27 @@ fn cluster_warning(c: &RootCluster, what: &str) -> Option<String> {
 /// assert!(a.residue_at_infinity.norm() < 1e-8);
 /// ```
 pub fn analyse_rational(num: &[C], den: &[C]) -> Result<RationalAnalysis, Failure> {
-    analyse(num, den, None)
+    analyse(num, den, None).and_then(all_finite)
+}
+
+/// Refuse an analysis holding a non-finite number (a root finder overflowing
+/// on coefficients that span too many magnitudes, as 1e-300 z² + 1 does): a
+/// refusal with the reason, not NaN poles.
+fn all_finite(a: RationalAnalysis) -> Result<RationalAnalysis, Failure> {
+    let ok = |z: &C| z.re.is_finite() && z.im.is_finite();
+    let finite = a.poles.iter().all(|p| ok(&p.at) && ok(&p.residue) && p.principal_part.iter().all(ok))
+        && a.zeros.iter().all(|z| ok(&z.at))
+        && a.removable.iter().all(|r| ok(&r.at) && ok(&r.value))
+        && a.polynomial_part.iter().all(ok)
+        && ok(&a.residue_at_infinity);
+    if finite {
+        Ok(a)
+    } else {
+        Err(Failure::unresolved(
+            "the poles and zeros of this rational f could not be computed in double precision: its coefficients \
+             span too many orders of magnitude; rescale the variable or the coefficients",
+        ))
+    }
 }
 
 /// Value and derivative of f as the user typed it (products of factors kept).
@@ -131,7 +151,7 @@ pub type AsTyped<'a> = &'a dyn Fn(C) -> (C, C);
 /// iteration converges near where it started; the principal parts are then
 /// computed from the polished factors.
 pub fn analyse_rational_polished(num: &[C], den: &[C], as_typed: AsTyped) -> Result<RationalAnalysis, Failure> {
-    analyse(num, den, Some(as_typed))
+    analyse(num, den, Some(as_typed)).and_then(all_finite)
 }
 
 /// Newton's method for a root of order `m` of f (`pole = false`) or of 1/f
@@ -389,7 +409,8 @@ fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAn
             * (residue_at_infinity.norm() + sum.norm() + scale);
     if !(residue_sum_defect <= 10.0 * residue_sum_tolerance) {
         warnings.push(format!(
-            "the residues do not sum to zero within their error estimates (defect {residue_sum_defect:.3e}); some residues may be inaccurate"
+            "the residues do not sum to zero within their error estimates (defect {residue_sum_defect:.3e}); some residues may be inaccurate",
+            residue_sum_defect = text::Sci(residue_sum_defect)
         ));
     }
     Ok(RationalAnalysis {

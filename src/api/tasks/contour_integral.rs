@@ -110,7 +110,7 @@ pub fn run(req: &ContourIntegralRequest) -> Result<ContourIntegralResponse, ApiE
     if !q.converged {
         warnings.push(format!(
             "the quadrature did not reach its tolerance (error estimate {:.1e}); a singularity may lie close to the contour or f may jump across it",
-            q.error_estimate
+            crate::text::Sci(q.error_estimate)
         ));
     }
 

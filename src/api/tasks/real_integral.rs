@@ -192,7 +192,7 @@ fn mellin(f: &Function, alpha: crate::C, budget: &mut Budget, warnings: &mut Vec
 /// Reconcile the two ways (residues preferred for rational f) and write the response.
 fn assemble(side: ResidueSide, q: QuadResult, mut warnings: Vec<String>) -> RealIntegralResponse {
     if !q.converged {
-        let e = q.error_estimate;
+        let e = crate::text::Sci(q.error_estimate);
         warnings.push(format!("the quadrature did not reach its tolerance (error estimate {e:.1e}); f may vary sharply or decay slowly"));
     }
     let residues = side.sum.as_ref().map(|s| Way::new(WayName::Residues, s.value, s.error));

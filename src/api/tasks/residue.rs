@@ -62,7 +62,7 @@ fn rational_at(f: &Function, num: &[C], den: &[C], a: C) -> Result<ResidueRespon
             warnings.push(format!(
                 "the residue from the expanded polynomials disagrees with the trapezoidal rule on the expression \
                  as typed by {:.2e}; the expanded coefficients are sensitive to rounding, so this residue is uncertain",
-                check.worst
+                crate::text::Sci(check.worst)
             ));
         }
     } else {

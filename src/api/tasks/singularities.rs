@@ -110,7 +110,7 @@ fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<Sing
             "{} residue(s) from the expanded polynomials disagree with the trapezoidal rule on the \
              expression as typed (by up to {:.2e}); the expanded coefficients are sensitive to rounding, so \
              these poles and residues are uncertain — their error estimates now include the disagreement",
-            check.disagreeing, check.worst
+            check.disagreeing, crate::text::Sci(check.worst)
         ));
     }
     if part.poles.iter().any(|p| p.order > 1) {
@@ -119,7 +119,7 @@ fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<Sing
     if a.residue_sum_defect > a.residue_sum_tolerance.max(1e-300) * 10.0 {
         warnings.push(format!(
             "the residues do not add up: |Σ residues + Res∞| = {:.2e} exceeds what rounding explains ({:.2e}); treat the residues with care",
-            a.residue_sum_defect, a.residue_sum_tolerance
+            crate::text::Sci(a.residue_sum_defect), crate::text::Sci(a.residue_sum_tolerance)
         ));
     }
     Ok(SingularitiesResponse {
