@@ -1,6 +1,6 @@
 //! `evaluate`: f and f' at a list of points.
 
-use crate::api::input::{compile, finite};
+use crate::api::input::{budget, compile, finite};
 use crate::api::wire::{pair, FunctionInput, Number};
 use crate::api::error::ApiError;
 use crate::C;
@@ -11,6 +11,10 @@ pub struct EvaluateRequest {
     #[serde(flatten)]
     pub function: FunctionInput,
     pub at: Vec<Number>,
+    /// The work budget (docs/contract.md): each point costs two evaluations
+    /// (the value and, by forward-mode differentiation, the derivative).
+    #[serde(default)]
+    pub max_evaluations: Option<u64>,
 }
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -28,6 +32,7 @@ pub fn run(req: &EvaluateRequest) -> Result<EvaluateResponse, ApiError> {
         return Err(ApiError::invalid(format!("too many points in \"at\" (at most {MAX_POINTS}); split the request")));
     }
     let zs = req.at.iter().map(|&n| finite(n, "at")).collect::<Result<Vec<C>, _>>()?;
+    budget(req.max_evaluations).weighted(f.weight()).spend(2 * zs.len() as u64)?;
     let mut values = vec![C::new(0.0, 0.0); zs.len()];
     let mut derivatives = values.clone();
     f.eval_block_d(&zs, &mut values, &mut derivatives);

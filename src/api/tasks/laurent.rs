@@ -28,6 +28,9 @@ pub struct LaurentRequest {
     pub outer: Option<f64>,
     pub from: i64,
     pub to: i64,
+    /// The work budget (docs/contract.md); the default when omitted.
+    #[serde(default)]
+    pub max_evaluations: Option<u64>,
 }
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -69,7 +72,7 @@ pub fn run(req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
         }
     }
     let mut warnings = Vec::new();
-    let mut budget = budget(None);
+    let mut budget = budget(req.max_evaluations).weighted(f.weight());
     let known = known_singularities(&f, center, inner, outer, &mut warnings, &mut budget);
     let spec = laurent_fft::LaurentRequest { center, inner, outer, from: req.from, to: req.to };
     let result = laurent_fft::laurent(|z| f.eval(z), &spec, &known, &mut budget)?;

@@ -1,6 +1,6 @@
 //! `phase_plot`: colour the view box by arg f (and |f| lines), as PNG or raw RGBA.
 
-use crate::api::input::compile;
+use crate::api::input::{budget, compile};
 
 use crate::api::wire::FunctionInput;
 use crate::api::error::ApiError;
@@ -26,6 +26,9 @@ pub struct PhasePlotRequest {
     /// Optional `[first, end)` rows of the full image to render (for progressive drawing).
     #[serde(default)]
     pub rows: Option<[u32; 2]>,
+    /// The work budget (docs/contract.md): one evaluation per pixel of the rows drawn.
+    #[serde(default)]
+    pub max_evaluations: Option<u64>,
 }
 
 #[derive(Debug, Clone, Default, Serialize, Deserialize)]
@@ -78,6 +81,7 @@ pub fn pixels(req: &PhasePlotRequest) -> Result<Pixels, ApiError> {
     if band > 4 * 16_777_216 {
         return Err(ApiError::invalid("the image is too large; at most 16 million pixels"));
     }
+    budget(req.max_evaluations).weighted(f.weight()).spend(band as u64 / 4)?;
     let mut rgba = vec![0u8; band];
     let mut eval = |zs: &[C], out: &mut [C]| f.eval_block(zs, out);
     render_rows(&mut eval, View { x0, x1, y0, y1 }, width, height, first, end, &opts, &mut rgba)

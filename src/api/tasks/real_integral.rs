@@ -109,7 +109,7 @@ pub fn run(req: &RealIntegralRequest) -> Result<RealIntegralResponse, ApiError> 
         params: req.function.params.clone(),
     };
     let f = compile(&input)?;
-    let mut budget = budget(req.max_evaluations);
+    let mut budget = budget(req.max_evaluations).weighted(f.weight());
     let mut warnings = Vec::new();
     let kind = req.kind.trim().to_ascii_lowercase();
     let (side, quadrature) = match kind.as_str() {

@@ -54,7 +54,7 @@ fn rational_at(f: &Function, num: &[C], den: &[C], a: C) -> Result<ResidueRespon
         let all: Vec<C> = analyse_rational_polished(num, den, &|z| f.eval_d(z))
             .map(|x| x.poles.iter().map(|p| p.at).collect())
             .unwrap_or_default();
-        let check = cross_check(&|z| f.eval(z), &[(r.at, r.residue, r.error_estimate)], &all, &mut budget(None));
+        let check = cross_check(&|z| f.eval(z), &[(r.at, r.residue, r.error_estimate)], &all, &mut budget(None).weighted(f.weight()));
         if let Some(Some(bound)) = check.bounds.first() {
             error_estimate = error_estimate.max(*bound);
         }
@@ -105,7 +105,7 @@ fn rational_at_infinity(num: &[C], den: &[C]) -> Result<ResidueResponse, ApiErro
 
 fn general(f: &Function, at: Option<C>) -> Result<ResidueResponse, ApiError> {
     let hints = hints(f);
-    let mut budget = budget(None);
+    let mut budget = budget(None).weighted(f.weight());
     let eval = |z: C| f.eval(z);
     let r: PointResult = match at {
         Some(a) => classify_point(&eval, a, &hints, &mut budget),

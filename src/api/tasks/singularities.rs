@@ -99,7 +99,7 @@ fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<Sing
     // Method 2: the trapezoidal rule on the expression as typed, one circle per pole.
     let claims: Vec<(C, C, f64)> = part.poles.iter().map(|p| (p.at, p.residue, p.error_estimate)).collect();
     let all: Vec<C> = a.poles.iter().map(|p| p.at).collect();
-    let check = cross_check(&|z| f.eval(z), &claims, &all, &mut budget(None));
+    let check = cross_check(&|z| f.eval(z), &claims, &all, &mut budget(None).weighted(f.weight()));
     for (pole, bound) in poles.iter_mut().zip(&check.bounds) {
         if let Some(b) = bound {
             pole.error_estimate = Some(pole.error_estimate.unwrap_or(0.0).max(*b));
@@ -138,7 +138,7 @@ fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<Sing
 
 fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Result<SingularitiesResponse, ApiError> {
     let hints = hints(f);
-    let mut budget = budget(max_evaluations);
+    let mut budget = budget(max_evaluations).weighted(f.weight());
     let eval = |z: C| f.eval(z);
     // Method 1: the region search (argument principle, AAA, Newton, classification).
     let found = find_singularities(&eval, &|z| f.eval_d(z), region, &hints, &mut budget)?;
