@@ -28,10 +28,17 @@ pub fn weight_for_program(cost: usize) -> u64 {
 }
 
 /// Units the AAA fit of `samples` values with `terms` support points costs:
-/// one SVD per step, about 2.5 ns · samples · terms³ in all (measured
+/// one SVD per step, 2.5 to 5 ns · samples · terms³ in all (measured
 /// natively; `singular::aaa`).
 pub fn units_for_aaa(samples: usize, terms: usize) -> u64 {
-    (samples as u64).saturating_mul((terms as u64).pow(3)) / 40
+    (samples as u64).saturating_mul((terms as u64).pow(3)) / 20
+}
+
+/// The most support points an AAA fit of `samples` values may take so that
+/// [`units_for_aaa`] stays within `remaining` units (at least 1).
+pub fn aaa_terms_within(samples: usize, remaining: u64) -> usize {
+    let m = (remaining as f64 * 20.0 / samples.max(1) as f64).cbrt().floor();
+    (m as usize).max(1)
 }
 
 #[derive(Debug, Clone)]
@@ -131,5 +138,14 @@ mod tests {
         assert!(b.spend(9).is_ok());
         assert_eq!(b.remaining(), 1);
         assert!(b.spend(1).is_err());
+    }
+
+    #[test]
+    fn an_affordable_fit_stays_within_the_budget() {
+        for remaining in [1u64, 1_000, 123_456, 20_000_000] {
+            let m = aaa_terms_within(600, remaining);
+            assert!(m == 1 || units_for_aaa(600, m) <= remaining);
+            assert!(units_for_aaa(600, m + 1) > remaining);
+        }
     }
 }

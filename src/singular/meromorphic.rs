@@ -434,6 +434,8 @@ fn locate(
     // Data with a jump (a cut crosses c) cannot be fitted to 1e-12; a
     // shorter fit still places the poles and zeros away from the cut.
     let terms = if counted { MAX_TERMS } else { MAX_TERMS / 3 };
+    // A fit costs ~N·m³ (one SVD per step): take no more terms than the budget pays for.
+    let terms = terms.min(crate::budget::aaa_terms_within(zs.len(), budget.remaining()));
     let r = aaa(&zs, &fs, 1e-12, terms);
     budget.spend_units(crate::budget::units_for_aaa(zs.len(), r.support.len()))?;
     let size = c.size();
