@@ -310,6 +310,16 @@ fn retyped(rng: &mut Rng) -> Value {
     }
 }
 
+/// [`retyped`], but a budget stays near the default: a budget of 1e9 buys
+/// minutes of work, too long for a test run.
+fn retyped_for(rng: &mut Rng, key: &str) -> Value {
+    let v = retyped(rng);
+    match v.as_u64() {
+        Some(n) if key == "max_evaluations" && n > 20_000_000 => json!(20_000_001),
+        _ => v,
+    }
+}
+
 /// Every number in `v` (nested) is replaced by an extreme value with probability `p`.
 fn extremes(rng: &mut Rng, v: &mut Value, p: f64) {
     match v {
@@ -338,9 +348,13 @@ pub fn mutate(rng: &mut Rng, mut v: Value) -> String {
                 m.remove(&key);
             }
             1 => {
-                m.insert(key, retyped(rng));
+                let v = retyped_for(rng, &key);
+                m.insert(key, v);
             }
-            2 => duplicate = Some((key, retyped(rng))),
+            2 => {
+                let v = retyped_for(rng, &key);
+                duplicate = Some((key, v));
+            }
             3 => {
                 if let Some(Value::Array(xs)) = m.get_mut(&key) {
                     if rng.chance(0.5) {

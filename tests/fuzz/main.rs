@@ -11,7 +11,9 @@
 //! - `RESIDUARY_FUZZ_CASES`: how many requests (default 22 000, two thousand per task);
 //! - `RESIDUARY_FUZZ_SEED`: the seed (default 8; the run prints it);
 //! - `RESIDUARY_FUZZ_SLOW_MS`: the time one request with a small budget may
-//!   take (default 1 000 ms), and ×3 that at the default budget.
+//!   take (default 1 000 ms), ×3 that at the default budget, proportionally
+//!   more for a larger one;
+//! - `RESIDUARY_FUZZ_HANG_S`: the watchdog that stops the run (default 60 s).
 //!
 //! The long run (DEVELOPERS.md): `RESIDUARY_FUZZ_CASES=1000000 cargo test --release --test fuzz`.
 
@@ -20,6 +22,7 @@ mod gen;
 mod regressions;
 
 use residuary::api::TASKS;
+use residuary::budget::DEFAULT_EVALUATIONS;
 use std::sync::{Arc, Mutex};
 use std::time::{Duration, Instant};
 
@@ -28,7 +31,8 @@ fn env_u64(name: &str, default: u64) -> u64 {
 }
 
 /// The time a request may take: small budgets must be fast; the default
-/// budget (or a task without one) gets three times as long.
+/// budget (or a task without one) gets three times as long, a larger budget
+/// proportionally more.
 pub fn limit_for(request: &str) -> Duration {
     let small = env_u64("RESIDUARY_FUZZ_SLOW_MS", 1_000);
     let asked = serde_json::from_str::<serde_json::Value>(request)
@@ -36,6 +40,10 @@ pub fn limit_for(request: &str) -> Duration {
         .and_then(|v| v.get("max_evaluations").and_then(|n| n.as_u64()));
     match asked {
         Some(n) if n <= 100_000 => Duration::from_millis(small),
+        // A budget above the default buys proportionally more time (1e9 is 50 times the default).
+        Some(n) if n > DEFAULT_EVALUATIONS => {
+            Duration::from_millis(3 * small).mul_f64(n.min(1_000_000_000) as f64 / DEFAULT_EVALUATIONS as f64)
+        }
         _ => Duration::from_millis(3 * small),
     }
 }
