@@ -72,6 +72,10 @@ bench: bench-wasm
 	@echo
 	@echo "== singularities: degree-100 timing and residue accuracy (bench/singularities.rs) =="
 	$(CARGO) run -q --release --example singularities
+	@echo
+	@echo "== peers: residuary / scipy, mpmath on inverse z, partial fractions, contour, inverse Laplace (bench/peers.py, bench/peers.rs) =="
+	@if python3 -c 'import scipy, mpmath' 2>/dev/null; then $(ONE_THREAD) python3 bench/peers.py && $(CARGO) run -q --release --example peers; \
+	else echo "skipped: python3 with scipy and mpmath not found"; fi
 
 # The benchmark's own wasm module (bench/wasm, not part of the product's module).
 bench-wasm: tools

@@ -31,8 +31,8 @@
 //! | `contour_integral` | [`quad::contour_quadrature`], [`quad::split_at_cuts`], [`integrals::contour_residues`], [`contour::covering`], [`singular::region_search`] |
 //! | `argument_count` | [`singular::argument_principle`], [`integrals::contour_residues`] |
 //! | `real_integral` | [`integrals::real_line`], [`integrals::unit_circle`], [`integrals::keyhole`], [`integrals::product_residue`], [`quad::real_line`], [`singular::decay`] |
-//! | `inverse_laplace` | [`transforms::laplace::residues`], [`transforms::laplace::fixed_talbot`], [`transforms::laplace::delayed_inversion`], [`transforms::laplace::delay_estimate`] |
-//! | `inverse_z` | [`transforms::z::long_division`], [`transforms::z::residues`], [`transforms::z::trapezoid`] (by [`cauchy::circle`]), [`transforms::z::singular_radius`] |
+//! | `inverse_laplace` | [`transforms::laplace::residues`], [`transforms::laplace::fixed_talbot`], [`transforms::laplace::delayed_inversion`], [`transforms::laplace::delay_estimate`], [`transforms::laplace::delay_terms`], [`transforms::laplace::delayed_residues`], [`transforms::laplace::contour_cuts`] |
+//! | `inverse_z` | [`transforms::z::recurrence`], [`transforms::z::residues`], [`transforms::z::trapezoid`] (by [`cauchy::circle`]), [`transforms::z::singular_radius`] |
 //!
 //! One kernel per idea: [`ways`] is the one rule by which independent ways
 //! agree; [`cauchy::circle`] the one sampler and FFT on a circle; [`text`]
@@ -48,6 +48,7 @@ pub mod error;
 pub mod expr;
 pub mod integrals;
 pub mod linalg;
+pub mod overflow;
 pub mod plot;
 pub mod poly;
 pub mod quad;

@@ -59,8 +59,7 @@ pub fn run_json(text: &str) -> String {
 #[wasm_bindgen]
 pub fn phase_plot_rgba(request: JsValue) -> Result<Vec<u8>, JsValue> {
     let value = from_js(request).map_err(|e| to_js(&e.to_json()))?;
-    let parsed: PhasePlotRequest = serde_json::from_value(value)
-        .map_err(|e| to_js(&ApiError::new(ErrorCode::BadRequest, format!("bad \"phase_plot\" request: {e}")).to_json()))?;
+    let parsed: PhasePlotRequest = api::phase_plot_request(value).map_err(|e| to_js(&e.to_json()))?;
     match api::phase_plot_rgba(&parsed) {
         Ok(pixels) => Ok(pixels.rgba),
         Err(e) => Err(to_js(&e.to_json())),

@@ -20,6 +20,14 @@
 //! contradict their estimates, it is raised to the largest discrepancy: the
 //! estimate must bound the true error, and then at least one way is off by
 //! that much. This one rule is used by every task that compares ways.
+//!
+//! A way whose own estimate exceeds both its value and `floor` has no correct
+//! digit: it is *failed* — listed, but left out of the comparison (a failed
+//! check is not a disagreement, and must not inflate a good way's estimate).
+//! When every way failed, all are compared as they are.
+//!
+//! Figures in sentences are relative to the scale of the values compared
+//! (the largest |value|, at least `floor`), and say so.
 
 use crate::C;
 
@@ -112,8 +120,17 @@ pub struct Verdict {
     /// For `Disagree`, the pair that is most inconsistent; for `Covered`, the
     /// way with the largest estimate (twice).
     pub worst: Option<(Way, Way)>,
-    /// Every way compared, in the order given.
+    /// Every way given, in the order given (failed ones included).
     pub ways: Vec<Way>,
+    /// Ways left out because their own estimate exceeds their value (and `floor`).
+    pub failed: Vec<WayName>,
+    /// The scale the relative figures use: the largest |value| compared, at least `floor`.
+    pub scale: f64,
+}
+
+/// True when a way's own estimate leaves it no correct digit.
+pub fn has_failed(w: &Way, floor: f64) -> bool {
+    w.error.is_finite() && w.error > w.value.norm().max(floor)
 }
 
 /// True when two ways are consistent under the one rule.
@@ -130,8 +147,11 @@ fn allowed(a: &Way, b: &Way) -> f64 {
 /// any is present, otherwise from all, choosing the smallest estimate.
 /// `floor` is the size below which a value counts as zero (1 for
 /// dimensionless integrals; the scale of f where the task knows it).
-pub fn reconcile(ways: &[Way], preferred: &[WayName], floor: f64) -> Verdict {
-    assert!(!ways.is_empty(), "reconcile needs at least one way");
+pub fn reconcile(given: &[Way], preferred: &[WayName], floor: f64) -> Verdict {
+    assert!(!given.is_empty(), "reconcile needs at least one way");
+    let failed: Vec<WayName> = given.iter().filter(|w| has_failed(w, floor)).map(|w| w.name).collect();
+    let working: Vec<Way> = given.iter().filter(|w| !has_failed(w, floor)).copied().collect();
+    let ways: &[Way] = if working.is_empty() { given } else { &working };
     let pool: Vec<&Way> = {
         let p: Vec<&Way> = ways.iter().filter(|w| preferred.contains(&w.name)).collect();
         if p.is_empty() {
@@ -194,43 +214,69 @@ pub fn reconcile(ways: &[Way], preferred: &[WayName], floor: f64) -> Verdict {
         relative_discrepancy: relative,
         agreement,
         worst,
-        ways: ways.to_vec(),
+        ways: given.to_vec(),
+        failed: if working.is_empty() { Vec::new() } else { failed },
+        scale,
     }
 }
 
 impl Verdict {
+    /// The ways compared (not failed).
+    fn compared(&self) -> Vec<&Way> {
+        self.ways.iter().filter(|w| !self.failed.contains(&w.name)).collect()
+    }
+
     /// Who is compared, in words: "all three ways", "residues and quadrature".
     fn who(&self) -> String {
-        match self.ways.len() {
-            1 => self.ways[0].name.words().to_string(),
-            2 => format!("{} and {}", self.ways[0].name.words(), self.ways[1].name.words()),
-            3 => "all three ways".to_string(),
-            n => format!("all {n} ways"),
+        let c = self.compared();
+        match c.len() {
+            1 => c[0].name.words().to_string(),
+            2 => format!("{} and {}", c[0].name.words(), c[1].name.words()),
+            3 if self.ways.len() == 3 => "all three ways".to_string(),
+            n if n == self.ways.len() => format!("all {n} ways"),
+            n => format!("{n} ways"),
         }
+    }
+
+    /// " (the quadrature failed: its error estimate 3e5 exceeds its value)", or "".
+    fn failures(&self) -> String {
+        if self.failed.is_empty() {
+            return String::new();
+        }
+        let names: Vec<String> = self
+            .ways
+            .iter()
+            .filter(|w| self.failed.contains(&w.name))
+            .map(|w| format!("the {} failed (its error estimate {:.1e} exceeds its value)", w.name.words(), w.error))
+            .collect();
+        format!("; {}", names.join(", "))
     }
 
     /// One sentence on agreement; `why` says what may cause a disagreement.
     pub fn sentence(&self, why: &str) -> String {
         let d = crate::text::Sci(self.max_discrepancy);
-        match (self.agreement, self.worst) {
-            (Agreement::Single, _) => format!("only the {} is available", self.ways[0].name.words()),
-            (Agreement::Agree, _) => format!("{} agree to {d:.1e}", self.who()),
+        let r = crate::text::Sci(self.relative_discrepancy);
+        let main = match (self.agreement, self.worst) {
+            (Agreement::Single, _) => format!("only the {} is available", self.compared()[0].name.words()),
+            (Agreement::Agree, _) => format!("{} agree to {r:.1e} relative to the value's size {:.1e} ({d:.1e} absolute)", self.who(), crate::text::Sci(self.scale)),
             (Agreement::Covered, Some((loose, _))) => format!(
-                "{} differ by up to {d:.1e}; only the large error estimate of the {} ({:.1e}) covers that: {why}",
+                "{} differ by up to {d:.1e} ({r:.1e} relative); only the large error estimate of the {} ({:.1e}) covers that: {why}",
                 self.who(),
                 loose.name.words(),
                 crate::text::Sci(loose.error)
             ),
             (_, Some((a, b))) => format!(
-                "{} and {} differ by {:.1e}, more than their error estimates ({:.1e}, {:.1e}) allow: {why}",
+                "{} and {} differ by {:.1e} ({:.1e} relative), more than their error estimates ({:.1e}, {:.1e}) allow: {why}",
                 a.name.words(),
                 b.name.words(),
                 crate::text::Sci((a.value - b.value).norm()),
+                crate::text::Sci((a.value - b.value).norm() / self.scale.max(f64::MIN_POSITIVE)),
                 crate::text::Sci(a.error),
                 crate::text::Sci(b.error)
             ),
-            (_, None) => format!("{} differ by up to {d:.1e}: {why}", self.who()),
-        }
+            (_, None) => format!("{} differ by up to {d:.1e} ({r:.1e} relative): {why}", self.who()),
+        };
+        main + &self.failures()
     }
 
     /// True when the sentence is a caution the user must see (not plain agreement).
@@ -306,6 +352,31 @@ mod tests {
         let s = v.sentence("a singularity may have been missed");
         assert!(s.starts_with("quadrature and outside residues differ by 5.0e-1"), "{s}");
         assert!(v.needs_warning());
+    }
+
+    #[test]
+    fn a_way_with_no_correct_digit_is_failed_not_a_disagreement() {
+        // Residues exact to 1e-12; the contour way 8.8e9 ± 1.7e11 (values seen for a 1 kHz
+        // resonator at t = 0.01): its estimate exceeds its value, so it is left out.
+        let ways = [w(WayName::Residues, -16.74, 1e-12), w(WayName::ContourInversion, 8.8e9, 1.7e11)];
+        let v = reconcile(&ways, &[WayName::Residues], 1.0);
+        assert_eq!(v.failed, vec![WayName::ContourInversion]);
+        assert_eq!(v.agreement, Agreement::Single);
+        assert_eq!(v.error, 1e-12, "a failed check does not inflate the answer's estimate");
+        let s = v.sentence("");
+        assert!(s.contains("only the residues is available; the contour inversion failed"), "{s}");
+        // Both failed: compared as they are.
+        let both = [w(WayName::Residues, 1.0, 5.0), w(WayName::Quadrature, 2.0, 5.0)];
+        assert!(reconcile(&both, &[], 1.0).failed.is_empty());
+    }
+
+    #[test]
+    fn agreement_figures_are_relative_and_say_so() {
+        let v = reconcile(&[w(WayName::Residues, 1e6, 1e-9), w(WayName::Quadrature, 1e6 + 1e-4, 1e-9)], &[], 1.0);
+        assert_eq!(v.agreement, Agreement::Disagree);
+        let ok = reconcile(&[w(WayName::Residues, 1e6, 1e-5), w(WayName::Quadrature, 1e6 + 1e-4, 1e-5)], &[], 1.0);
+        assert_eq!(ok.agreement, Agreement::Agree);
+        assert!(ok.sentence("").starts_with("residues and quadrature agree to 1.0e-10 relative"), "{}", ok.sentence(""));
     }
 
     #[test]

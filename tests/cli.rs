@@ -5,6 +5,10 @@ use std::io::Write;
 use std::process::{Command, Stdio};
 
 fn residuary(args: &[&str], stdin: &str) -> (i32, String, String) {
+    residuary_bytes(args, stdin.as_bytes())
+}
+
+fn residuary_bytes(args: &[&str], stdin: &[u8]) -> (i32, String, String) {
     let mut child = Command::new(env!("CARGO_BIN_EXE_residuary"))
         .args(args)
         .stdin(Stdio::piped())
@@ -12,7 +16,10 @@ fn residuary(args: &[&str], stdin: &str) -> (i32, String, String) {
         .stderr(Stdio::piped())
         .spawn()
         .expect("the residuary binary runs");
-    child.stdin.take().unwrap().write_all(stdin.as_bytes()).unwrap();
+    let mut input = child.stdin.take().unwrap();
+    // The CLI stops reading past its cap, so a broken pipe here is expected for huge input.
+    let _ = input.write_all(stdin);
+    drop(input);
     let out = child.wait_with_output().unwrap();
     (
         out.status.code().unwrap_or(-1),
@@ -116,6 +123,52 @@ fn plot_refuses_bad_options_with_advice() {
     let (code, _, err) = residuary(&["plot", "--f", "abs(z)", "-o", "/tmp/never.png"], "");
     assert_eq!(code, 2);
     assert!(err.contains("meromorphic"), "{err}");
+}
+
+#[test]
+fn a_byte_order_mark_is_skipped_and_non_utf8_is_named_by_byte_and_offset() {
+    // RFC 8259 §8.1: a parser may ignore a leading byte-order mark (EF BB BF in UTF-8).
+    let (code, out, err) = residuary_bytes(&["json"], b"\xEF\xBB\xBF{\"task\":\"evaluate\",\"f\":\"z\",\"at\":[3]}");
+    assert_eq!(code, 0, "{out} {err}");
+    let v: Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(v["values"], json!([[3.0, 0.0]]));
+    // RFC 3629: 0xC3 starts a two-byte sequence and must be followed by 0x80..0xBF, not '"'.
+    let (code, out, _) = residuary_bytes(&["json"], b"{\"task\":\"evaluate\",\"f\":\"\xC3\"}");
+    assert_eq!(code, 2);
+    let v: Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(v["error"]["code"], "invalid_json");
+    assert_eq!(v["error"]["message"], "the request is not UTF-8 text (invalid byte 0xC3 at offset 24); save it as UTF-8");
+}
+
+#[test]
+fn a_request_over_64_mib_is_refused_unread() {
+    // 64 MiB + 1 bytes of spaces: refused by size before any parsing (docs/contract.md).
+    let big = vec![b' '; 64 * 1024 * 1024 + 1];
+    let (code, out, err) = residuary_bytes(&["json"], &big);
+    assert_eq!(code, 2, "{err}");
+    let v: Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(v["error"]["code"], "bad_request");
+    assert!(v["error"]["message"].as_str().unwrap().contains("64 MiB"), "{out}");
+}
+
+#[cfg(target_os = "linux")]
+#[test]
+fn a_response_that_cannot_be_written_exits_1_with_the_reason_on_stderr() {
+    // /dev/full accepts opening and fails every write with ENOSPC (Linux null(4) manual page).
+    let full = std::fs::OpenOptions::new().write(true).open("/dev/full").expect("/dev/full exists on Linux");
+    let mut child = Command::new(env!("CARGO_BIN_EXE_residuary"))
+        .arg("json")
+        .stdin(Stdio::piped())
+        .stdout(full)
+        .stderr(Stdio::piped())
+        .spawn()
+        .unwrap();
+    child.stdin.take().unwrap().write_all(b"{\"task\":\"evaluate\",\"f\":\"z\",\"at\":[1]}").unwrap();
+    let out = child.wait_with_output().unwrap();
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(1), "{err}");
+    assert!(err.contains("could not write the response"), "{err}");
+    assert!(!err.contains("panicked"), "{err}");
 }
 
 #[test]

@@ -5,12 +5,15 @@
 //! shapes several tasks share, each file of [`tasks`] owns its task's request
 //! and response, [`input`] turns wire values into checked core values, and
 //! [`error`] is the one error that crosses the boundary, with a stable `code`.
+//! [`shape`] checks a request's JSON against the fields its task declares
+//! before serde reads it, so every request error names its field path.
 //!
 //! The JSON contract is public and documented in `docs/contract.md`. Complex
 //! numbers are `[re, im]`. Fields may be added later; none may change meaning.
 
 pub mod error;
 pub mod input;
+pub mod shape;
 pub mod tasks;
 pub mod wire;
 
@@ -64,6 +67,10 @@ pub enum Response {
     Json(Value),
 }
 
+/// Largest request text accepted, in bytes (64 MiB), refused before any parsing.
+/// A request this size already costs about a gigabyte once parsed; split larger work.
+pub const MAX_REQUEST_BYTES: usize = 64 * 1024 * 1024;
+
 /// Every task name the contract defines, in the contract's order.
 pub const TASKS: &[&str] = &[
     "evaluate",
@@ -95,6 +102,8 @@ impl Request {
             }
         };
         fn body<T: serde::de::DeserializeOwned>(task: &str, v: Value) -> Result<T, ApiError> {
+            shape::check_request(task, &v, fields_of(task))?;
+            // The shape check above names the field of any fault; this is a fallback.
             serde_json::from_value(v)
                 .map_err(|e| ApiError::new(ErrorCode::BadRequest, format!("bad \"{task}\" request: {e}")))
         }
@@ -118,6 +127,41 @@ impl Request {
             }
         })
     }
+}
+
+/// The fields a task declares (`api::shape`); empty for a name that is no task.
+pub fn fields_of(task: &str) -> &'static [&'static [shape::Field]] {
+    match task {
+        "evaluate" => tasks::evaluate::FIELDS,
+        "phase_plot" => tasks::phase_plot::FIELDS,
+        "residue" => tasks::residue::FIELDS,
+        "singularities" => tasks::singularities::FIELDS,
+        "laurent" => tasks::laurent::FIELDS,
+        "partial_fractions" => tasks::partial_fractions::FIELDS,
+        "contour_integral" | "argument_count" => wire::CONTOUR_REQUEST_FIELDS,
+        "real_integral" => tasks::real_integral::FIELDS,
+        "inverse_laplace" => tasks::inverse_laplace::FIELDS,
+        "inverse_z" => tasks::inverse_z::FIELDS,
+        _ => &[],
+    }
+}
+
+/// A phase-plot request for the page's pixel path (`wasm::phase_plot_rgba`),
+/// checked like every other request; `"task"` may be omitted there.
+pub fn phase_plot_request(value: Value) -> Result<PhasePlotRequest, ApiError> {
+    match value.get("task") {
+        None => {}
+        Some(Value::String(t)) if t == "phase_plot" => {}
+        Some(other) => {
+            return Err(ApiError::new(
+                ErrorCode::UnknownTask,
+                format!("this call draws phase plots: \"task\" must be \"phase_plot\" or omitted, got {}", shape::got(other)),
+            ))
+        }
+    }
+    shape::check_request("phase_plot", &value, tasks::phase_plot::FIELDS)?;
+    serde_json::from_value(value)
+        .map_err(|e| ApiError::new(ErrorCode::BadRequest, format!("bad \"phase_plot\" request: {e}")))
 }
 
 /// Run one request.
@@ -146,11 +190,52 @@ pub fn run_json_value(value: Value) -> Result<Value, ApiError> {
         .map_err(|e| ApiError::internal(format!("internal: could not encode the response: {e}")))
 }
 
+/// The request text from raw bytes: at most [`MAX_REQUEST_BYTES`], UTF-8
+/// (RFC 8259 §8.1: JSON exchanged between systems is UTF-8), with a leading
+/// byte-order mark skipped (RFC 8259 §8.1 lets a parser ignore one).
+pub fn request_text(bytes: &[u8]) -> Result<&str, ApiError> {
+    if bytes.len() > MAX_REQUEST_BYTES {
+        return Err(too_large());
+    }
+    let text = std::str::from_utf8(bytes).map_err(|e| {
+        let at = e.valid_up_to();
+        ApiError::new(
+            ErrorCode::InvalidJson,
+            format!(
+                "the request is not UTF-8 text (invalid byte 0x{:02X} at offset {at}); save it as UTF-8",
+                bytes[at]
+            ),
+        )
+    })?;
+    Ok(text.strip_prefix('\u{FEFF}').unwrap_or(text))
+}
+
+fn too_large() -> ApiError {
+    ApiError::new(
+        ErrorCode::BadRequest,
+        format!("the request is larger than {MAX_REQUEST_BYTES} bytes (64 MiB), the limit; split it into smaller requests"),
+    )
+}
+
+/// Same as [`run_json_text`] on raw bytes (what the command line reads).
+pub fn run_json_bytes(bytes: &[u8]) -> (String, bool) {
+    match request_text(bytes) {
+        Ok(text) => run_json_text(text),
+        Err(e) => (e.to_json().to_string(), true),
+    }
+}
+
 /// Same as [`run_json_value`] on text; returns the response text and whether it is an error.
+/// Text longer than [`MAX_REQUEST_BYTES`] is refused unread; a leading byte-order mark is skipped.
 pub fn run_json_text(text: &str) -> (String, bool) {
-    let result = serde_json::from_str::<Value>(text)
-        .map_err(|e| ApiError::new(ErrorCode::InvalidJson, format!("the request is not valid JSON: {e}")))
-        .and_then(run_json_value);
+    let result = if text.len() > MAX_REQUEST_BYTES {
+        Err(too_large())
+    } else {
+        let text = text.strip_prefix('\u{FEFF}').unwrap_or(text);
+        serde_json::from_str::<Value>(text)
+            .map_err(|e| ApiError::new(ErrorCode::InvalidJson, format!("the request is not valid JSON: {e}")))
+            .and_then(run_json_value)
+    };
     match result {
         Ok(v) => (v.to_string(), false),
         Err(e) => (e.to_json().to_string(), true),

@@ -4,16 +4,56 @@
 //! Complex numbers are `[re, im]` on the wire. Each task's own request and
 //! response live in its file under `api/tasks/`.
 
+use super::shape::{Expect, Field, Tagged};
 use crate::C;
+use serde::de::{self, Deserializer, SeqAccess, Visitor};
 use serde::{Deserialize, Serialize};
 use std::collections::BTreeMap;
+use std::fmt;
 
 /// A complex number on the wire: `[re, im]`, or a bare real number on input.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 #[serde(untagged)]
 pub enum Number {
     Real(f64),
     Complex([f64; 2]),
+}
+
+/// Read by hand rather than as an untagged enum, so a wrong value says what
+/// was expected ("a number or [re, im]") instead of naming the Rust type.
+impl<'de> Deserialize<'de> for Number {
+    fn deserialize<D: Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        struct V;
+        impl<'de> Visitor<'de> for V {
+            type Value = Number;
+            fn expecting(&self, f: &mut fmt::Formatter) -> fmt::Result {
+                f.write_str("a number or [re, im]")
+            }
+            fn visit_f64<E: de::Error>(self, x: f64) -> Result<Number, E> {
+                Ok(Number::Real(x))
+            }
+            fn visit_i64<E: de::Error>(self, x: i64) -> Result<Number, E> {
+                Ok(Number::Real(x as f64))
+            }
+            fn visit_u64<E: de::Error>(self, x: u64) -> Result<Number, E> {
+                Ok(Number::Real(x as f64))
+            }
+            fn visit_seq<A: SeqAccess<'de>>(self, seq: A) -> Result<Number, A::Error> {
+                pair_of(seq, &self).map(Number::Complex)
+            }
+        }
+        d.deserialize_any(V)
+    }
+}
+
+/// Exactly two numbers from a sequence, or an error in the visitor's words.
+fn pair_of<'de, A: SeqAccess<'de>>(mut seq: A, expected: &dyn de::Expected) -> Result<[f64; 2], A::Error> {
+    let re: f64 = seq.next_element()?.ok_or_else(|| de::Error::invalid_length(0, expected))?;
+    let im: f64 = seq.next_element()?.ok_or_else(|| de::Error::invalid_length(1, expected))?;
+    if seq.next_element::<de::IgnoredAny>()?.is_some() {
+        return Err(de::Error::invalid_length(3, expected));
+    }
+    Ok([re, im])
 }
 
 impl Number {
@@ -31,12 +71,74 @@ pub fn pair(z: C) -> [f64; 2] {
 }
 
 /// A point that may be the point at infinity: `[x, y]` or `"infinity"`.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 #[serde(untagged)]
 pub enum Point {
     Finite([f64; 2]),
     Named(String),
 }
+
+/// By hand, like [`Number`], so the error says `[x, y] or "infinity"`.
+impl<'de> Deserialize<'de> for Point {
+    fn deserialize<D: Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        struct V;
+        impl<'de> Visitor<'de> for V {
+            type Value = Point;
+            fn expecting(&self, f: &mut fmt::Formatter) -> fmt::Result {
+                f.write_str("[x, y] or \"infinity\"")
+            }
+            fn visit_str<E: de::Error>(self, s: &str) -> Result<Point, E> {
+                Ok(Point::Named(s.to_string()))
+            }
+            fn visit_seq<A: SeqAccess<'de>>(self, seq: A) -> Result<Point, A::Error> {
+                pair_of(seq, &self).map(Point::Finite)
+            }
+        }
+        d.deserialize_any(V)
+    }
+}
+
+/// The declared fields of [`FunctionInput`] (`api::shape` checks requests against them).
+pub const FUNCTION_FIELDS: &[Field] = &[
+    Field::required("f", Expect::Text),
+    Field::optional("var", Expect::OrNull(&Expect::Text)),
+    Field::optional("params", Expect::Map(&Expect::Complex)),
+];
+
+/// The declared fields of a task's own expression (`"F"`, `"X"`) beside `var` and `params`.
+pub const fn transform_fields(name: &'static str) -> [Field; 3] {
+    [
+        Field::required(name, Expect::Text),
+        Field::optional("var", Expect::OrNull(&Expect::Text)),
+        Field::optional("params", Expect::Map(&Expect::Complex)),
+    ]
+}
+
+/// `"max_evaluations"`: the work budget, shared by the long tasks.
+pub const BUDGET_FIELD: Field = Field::optional("max_evaluations", Expect::OrNull(&Expect::Count));
+
+/// The declared shape of [`ContourShape`].
+pub const CONTOUR: Expect = Expect::Tagged(&Tagged {
+    tag: "shape",
+    variants: &[
+        ("circle", "a circle", &[Field::required("center", Expect::Pair), Field::required("radius", Expect::Positive)]),
+        (
+            "ellipse",
+            "an ellipse",
+            &[
+                Field::required("center", Expect::Pair),
+                Field::required("semi_axes", Expect::Exactly(2, &Expect::Positive)),
+                Field::optional("angle", Expect::Real),
+            ],
+        ),
+        ("rectangle", "a rectangle", &[Field::required("corners", Expect::Exactly(2, &Expect::Pair))]),
+        ("polygon", "a polygon", &[Field::required("vertices", Expect::List(&Expect::Pair))]),
+    ],
+});
+
+/// The declared fields of [`ContourRequest`] (`contour_integral`, `argument_count`).
+pub const CONTOUR_REQUEST_FIELDS: &[&[Field]] =
+    &[FUNCTION_FIELDS, &[Field::required("contour", CONTOUR), BUDGET_FIELD]];
 
 /// The expression part shared by every request.
 #[derive(Debug, Clone, Default, Serialize, Deserialize)]
@@ -168,5 +270,20 @@ mod tests {
         let c = crate::contour::Contour::from(&s);
         assert_eq!(c, crate::contour::Contour::Ellipse { center: [1.0, 2.0], semi_axes: [3.0, 1.0], angle: 0.0 });
         assert!(serde_json::from_str::<ContourShape>(r#"{"shape":"circle","center":[0,0],"radius":1,"r":2}"#).is_err());
+    }
+
+    #[test]
+    fn numbers_and_points_read_both_forms_and_say_what_they_expect() {
+        // The two forms of docs/contract.md: a bare real or [re, im]; [x, y] or a name.
+        assert_eq!(serde_json::from_str::<Number>("2").unwrap(), Number::Real(2.0));
+        assert_eq!(serde_json::from_str::<Number>("[1, -0.5]").unwrap(), Number::Complex([1.0, -0.5]));
+        assert_eq!(serde_json::from_str::<Point>("\"infinity\"").unwrap(), Point::Named("infinity".into()));
+        assert_eq!(serde_json::from_str::<Point>("[3, 4]").unwrap(), Point::Finite([3.0, 4.0]));
+        let e = serde_json::from_str::<Number>("\"2\"").unwrap_err().to_string();
+        assert!(e.contains("expected a number or [re, im]"), "{e}");
+        let e = serde_json::from_str::<Number>("[1, 2, 3]").unwrap_err().to_string();
+        assert!(e.contains("a number or [re, im]"), "{e}");
+        let e = serde_json::from_str::<Point>("7").unwrap_err().to_string();
+        assert!(e.contains("expected [x, y] or \"infinity\""), "{e}");
     }
 }

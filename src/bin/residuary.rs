@@ -2,6 +2,11 @@
 //!
 //! `residuary json` reads one request on stdin and writes one response on
 //! stdout (exit 2 on an error response); `residuary plot` writes a phase-plot PNG.
+//!
+//! Exit status of `residuary json`: 0 with a response, 2 with an error object
+//! on stdout (a panic too: the hook prints `{"error":{"code":"internal",…}}`),
+//! 1 when the response could not be written (stdout closed, disk full), with
+//! the reason on stderr.
 
 use residuary::api::{self, FunctionInput, Number, PhasePlotRequest, PlotOptionsInput};
 use std::io::{Read, Write};
@@ -35,6 +40,8 @@ EXAMPLES
 
 The JSON requests and responses are described in docs/contract.md. Errors come back as
 {\"error\":{\"code\":...,\"message\":...,\"span\":[start,end]|null}} with exit status 2.
+Requests larger than 64 MiB are refused unread. Exit status 1: the response could not be
+written (the reason is on stderr).
 ";
 
 fn fail(message: &str) -> ! {
@@ -55,16 +62,46 @@ fn main() {
 }
 
 fn json() {
-    let mut text = String::new();
-    if let Err(e) = std::io::stdin().read_to_string(&mut text) {
+    std::panic::set_hook(Box::new(|info| {
+        let what = info
+            .payload()
+            .downcast_ref::<&str>()
+            .map(|s| s.to_string())
+            .or_else(|| info.payload().downcast_ref::<String>().cloned())
+            .unwrap_or_else(|| "a panic".to_string());
+        let place = info.location().map(|l| format!(" at {}:{}", l.file(), l.line())).unwrap_or_default();
+        // Nothing more can go wrong usefully here: write what we can and leave.
+        let mut out = std::io::stdout().lock();
+        let _ = writeln!(out, "{}", internal_error_json(&format!("{what}{place}")));
+        let _ = out.flush();
+        eprintln!("residuary: internal error: {what}{place}");
+        exit(2);
+    }));
+    let mut bytes = Vec::new();
+    // One byte more than the cap, so an over-long request is seen without reading all of it.
+    let cap = api::MAX_REQUEST_BYTES as u64 + 1;
+    if let Err(e) = std::io::stdin().lock().take(cap).read_to_end(&mut bytes) {
         fail(&format!("could not read standard input: {e}"));
     }
-    let (out, is_error) = api::run_json_text(&text);
-    // A closed pipe (`| head`) is not worth a panic message.
-    let _ = writeln!(std::io::stdout(), "{out}");
+    let (out, is_error) = api::run_json_bytes(&bytes);
+    drop(bytes);
+    let mut stdout = std::io::stdout().lock();
+    if let Err(e) = writeln!(stdout, "{out}").and_then(|_| stdout.flush()) {
+        eprintln!("residuary: could not write the response to standard output: {e}");
+        exit(1);
+    }
     if is_error {
         exit(2);
     }
+}
+
+/// The error object a panic prints on stdout (never a backtrace there).
+fn internal_error_json(what: &str) -> String {
+    api::ApiError::internal(format!(
+        "internal error in residuary ({what}); please report it with the request"
+    ))
+    .to_json()
+    .to_string()
 }
 
 /// Parse `a+bi`, `a-bi`, `bi`, `a` (spaces allowed) into a complex number.
@@ -158,5 +195,13 @@ mod tests {
         assert_eq!(parse_complex("1e-3-i"), Some(Number::Complex([1e-3, -1.0])));
         assert_eq!(parse_complex("2e+1+3e-1i"), Some(Number::Complex([20.0, 0.3])));
         assert_eq!(parse_complex("abc"), None);
+    }
+
+    #[test]
+    fn a_panic_prints_an_internal_error_object() {
+        let v: serde_json::Value = serde_json::from_str(&internal_error_json("index out of bounds at x.rs:1")).unwrap();
+        assert_eq!(v["error"]["code"], "internal");
+        assert!(v["error"]["message"].as_str().unwrap().contains("index out of bounds"));
+        assert_eq!(v["error"]["span"], serde_json::Value::Null);
     }
 }

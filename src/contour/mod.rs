@@ -181,6 +181,24 @@ impl Contour {
         }
     }
 
+    /// The same curve run counter-clockwise: a region is a set, so tasks that
+    /// search a region count its contents the same whichever way it was drawn.
+    ///
+    /// ```
+    /// use residuary::contour::Contour;
+    /// let clockwise = Contour::Polygon { vertices: vec![[0.0, 0.0], [0.0, 1.0], [1.0, 1.0], [1.0, 0.0]] };
+    /// assert_eq!(clockwise.counter_clockwise().orientation(), 1);
+    /// ```
+    pub fn counter_clockwise(self) -> Contour {
+        match self {
+            Contour::Polygon { mut vertices } if self_area(&vertices) < 0.0 => {
+                vertices.reverse();
+                Contour::Polygon { vertices }
+            }
+            other => other,
+        }
+    }
+
     fn signed_area(&self) -> f64 {
         let v = self.vertices();
         let n = v.len();
@@ -404,4 +422,10 @@ mod tests {
         }
         assert_eq!(shapes()[4].orientation(), -1, "the last shape runs clockwise");
     }
+}
+
+/// Signed area of a polygon by the shoelace formula (see [`Contour::orientation`]).
+fn self_area(vertices: &[[f64; 2]]) -> f64 {
+    let n = vertices.len();
+    (0..n).map(|k| vertices[k][0] * vertices[(k + 1) % n][1] - vertices[(k + 1) % n][0] * vertices[k][1]).sum::<f64>() / 2.0
 }

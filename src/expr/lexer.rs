@@ -62,9 +62,8 @@ fn advice_for(c: char) -> Option<&'static str> {
             "superscripts are not read; write the power with ^, e.g. z^4"
         }
         'π' | 'Π' => "write pi for the constant π",
-        '·' | '×' | '⋅' | '∗' => "write * for multiplication",
+        '·' | '⋅' | '∗' => "write * for multiplication",
         '÷' | '∕' => "write / for division",
-        '−' | '–' | '—' => "this dash is not a minus sign; type the ASCII '-'",
         '√' => "write sqrt(...) for the square root",
         'ⅈ' | 'ⅉ' => "write i for the imaginary unit",
         '∞' => "infinity cannot be typed into f; write a function of the variable",
@@ -74,6 +73,27 @@ fn advice_for(c: char) -> Option<&'static str> {
         '=' => "type only the right-hand side, e.g. (z+1)/(z^2+4), not f = ...",
         '|' => "|...| is the modulus, which is not complex-differentiable; residues need a meromorphic function",
         '!' => "write gamma(n+1) instead of n!",
+        _ => return None,
+    })
+}
+
+/// Characters that show as nothing, as a plain space, or as an ASCII operator
+/// they are not: named by code point so the message can point at them
+/// (names from the Unicode character database), with what to do instead.
+fn invisible_or_look_alike(c: char) -> Option<(&'static str, &'static str)> {
+    Some(match c {
+        '\u{200B}' => ("zero-width space", "delete it"),
+        '\u{200C}' => ("zero-width non-joiner", "delete it"),
+        '\u{200D}' => ("zero-width joiner", "delete it"),
+        '\u{2060}' => ("word joiner", "delete it"),
+        '\u{200E}' => ("left-to-right mark", "delete it"),
+        '\u{200F}' => ("right-to-left mark", "delete it"),
+        '\u{FEFF}' => ("byte-order mark (zero-width no-break space)", "delete it"),
+        '\u{00AD}' => ("soft hyphen", "delete it"),
+        '\u{2212}' => ("minus sign", "type the ASCII '-' instead"),
+        '\u{2013}' => ("en dash", "this dash is not a minus sign; type the ASCII '-' instead"),
+        '\u{2014}' => ("em dash", "this dash is not a minus sign; type the ASCII '-' instead"),
+        '\u{00D7}' => ("multiplication sign", "write * for multiplication"),
         _ => return None,
     })
 }
@@ -94,6 +114,10 @@ pub fn lex(src: &str) -> Result<Vec<Token>, ExprError> {
     let mut i = 0;
     while i < chars.len() {
         let c = chars[i];
+        // Before the whitespace test (no-break spaces, pasted from a wiki, are read as spaces).
+        if let Some((name, todo)) = invisible_or_look_alike(c) {
+            return Err(err(format!("U+{:04X} {name} at character {i}; {todo}", c as u32), i, i + 1));
+        }
         if c.is_whitespace() {
             i += 1;
             continue;

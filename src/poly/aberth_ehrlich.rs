@@ -179,7 +179,29 @@ pub fn roots(p: &[C]) -> Result<Roots, Failure> {
     let big = q.iter().map(|c| c.norm()).fold(0.0, f64::max);
     let s = 2f64.powi(-(big.log2().round() as i32));
     let q: Vec<C> = q.iter().map(|c| c * s).collect();
+    // Balance the variable, z = σu with σ = 2^e near (|q₀|/|q_n|)^{1/n} (the
+    // geometric mean of the root moduli), so that poles at 6e3 rad/s or
+    // coefficients from 1e-300 to 1e300 are found like unit-scaled ones
+    // (common practice: Bini 1996 §2 scales the same way). Powers of two keep
+    // the scaled coefficients exact.
+    let n = q.len() - 1;
+    let e = if n >= 1 {
+        ((q[0].norm().log2() - q[n].norm().log2()) / n as f64).round()
+    } else {
+        0.0
+    };
+    let e = if e.is_finite() && e.abs() >= 2.0 { e as i32 } else { 0 };
+    let q = if e != 0 { balanced(&q, e) } else { q };
+    let sigma = pow2(1.0, e);
     let mut out = core_roots(&q);
+    if e != 0 {
+        for z in out.roots.iter_mut() {
+            *z *= sigma;
+        }
+        for x in out.errors.iter_mut().chain(out.inclusion_radii.iter_mut()) {
+            *x *= sigma;
+        }
+    }
     let mut roots = vec![ZERO_C; zeros_at_origin];
     roots.append(&mut out.roots);
     let mut errors = vec![0.0; zeros_at_origin];
@@ -192,6 +214,31 @@ pub fn roots(p: &[C]) -> Result<Roots, Failure> {
         inclusion_radii: radii,
         ..out
     })
+}
+
+/// `x · 2^k` without an overflowing intermediate power of two.
+fn pow2(x: f64, k: i32) -> f64 {
+    let half = k / 2;
+    x * 2f64.powi(half) * 2f64.powi(k - half)
+}
+
+/// Coefficients of q(2^e u), renormalised by a power of two so the largest is about 1.
+fn balanced(q: &[C], e: i32) -> Vec<C> {
+    // log2 of each scaled modulus, to find the normalising power without overflow.
+    let top = q
+        .iter()
+        .enumerate()
+        .filter(|(_, c)| c.norm() > 0.0)
+        .map(|(k, c)| c.norm().log2() + (e as f64) * k as f64)
+        .fold(f64::NEG_INFINITY, f64::max)
+        .round() as i32;
+    q.iter()
+        .enumerate()
+        .map(|(k, c)| {
+            let shift = e * k as i32 - top;
+            C::new(pow2(c.re, shift), pow2(c.im, shift))
+        })
+        .collect()
 }
 
 /// Roots of a polynomial with nonzero constant and leading coefficients.

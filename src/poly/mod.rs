@@ -9,6 +9,7 @@
 pub mod aberth_ehrlich;
 pub mod multiplicity;
 pub mod partial_fractions;
+pub mod pejorative;
 pub mod taylor;
 
 use crate::C;
@@ -32,6 +33,25 @@ pub fn trim(p: &[C]) -> Vec<C> {
 /// Degree after trimming, or `None` for the zero polynomial.
 pub fn degree(p: &[C]) -> Option<usize> {
     p.iter().rposition(|c| *c != C::new(0.0, 0.0))
+}
+
+/// a/b by Smith's algorithm (R. L. Smith, "Algorithm 116: Complex division",
+/// Comm. ACM 5 (1962) 435): scaled by the larger component of b, so that
+/// 1/(1e-300 + 0i) is 1e300, where the textbook (ac + bd)/(c² + d²) squares
+/// 1e-300 to 0 and gives NaN.
+pub fn cdiv(a: C, b: C) -> C {
+    if b.re.abs() >= b.im.abs() {
+        if b.re == 0.0 {
+            return a / b; // b = 0: the ordinary rules (∞ or NaN)
+        }
+        let r = b.im / b.re;
+        let d = b.re + b.im * r;
+        C::new((a.re + a.im * r) / d, (a.im - a.re * r) / d)
+    } else {
+        let r = b.re / b.im;
+        let d = b.re * r + b.im;
+        C::new((a.re * r + a.im) / d, (a.im * r - a.re) / d)
+    }
 }
 
 /// Horner evaluation.
@@ -161,6 +181,18 @@ mod tests {
 
     fn c(re: f64) -> C {
         C::new(re, 0.0)
+    }
+
+    #[test]
+    fn smith_division_survives_extreme_scales() {
+        // Smith 1962: (1 + 2i)/(3 + 4i) = (11 + 2i)/25 (by hand); 1/(1e-300 i) = −1e300 i.
+        let q = cdiv(C::new(1.0, 2.0), C::new(3.0, 4.0));
+        assert!((q - C::new(0.44, 0.08)).norm() < 1e-16);
+        let tiny = cdiv(C::new(1.0, 0.0), C::new(0.0, 1e-300));
+        assert!((tiny - C::new(0.0, -1e300)).norm() <= 1e300 * 4e-16, "{tiny}");
+        assert!((cdiv(C::new(2e-300, 0.0), C::new(1e-300, 0.0)) - 2.0).norm() < 1e-15);
+        // The textbook formula fails here (why Smith's is used): c² + d² underflows to 0.
+        assert!(!(C::new(1.0, 0.0) / C::new(0.0, 1e-300)).is_finite());
     }
 
     #[test]

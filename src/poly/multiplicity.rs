@@ -16,6 +16,7 @@
 
 use crate::error::Failure;
 use super::aberth_ehrlich::{self, Roots};
+use super::pejorative;
 use super::taylor::{abs_coefficients_at, coefficients_at};
 use super::{nth_derivative, UNIT_ROUNDOFF};
 use crate::C;
@@ -60,7 +61,89 @@ pub struct RootCluster {
 /// ```
 pub fn distinct_roots(p: &[C]) -> Result<(Vec<RootCluster>, bool), Failure> {
     let r = aberth_ehrlich::roots(p)?;
-    Ok((cluster_roots(p, &r), r.converged))
+    let groups = cluster_groups(p, &r);
+    if groups.iter().any(|g| g.len() > 1) {
+        // The clusters bound what may merge; the backward error decides what does.
+        if let Some(s) = pejorative::choose_structure(p, &r.roots, &groups) {
+            return Ok((from_structure(&r, s), r.converged));
+        }
+    }
+    Ok((clusters_from_groups(p, &r, groups), r.converged))
+}
+
+/// Root clusters from a structure chosen on the pejorative manifold.
+fn from_structure(r: &Roots, s: pejorative::Structure) -> Vec<RootCluster> {
+    s.roots
+        .iter()
+        .zip(&s.errors)
+        .zip(&s.members)
+        .map(|((&(center, m), &error), idx)| {
+            let members: Vec<C> = idx.iter().map(|&i| r.roots[i]).collect();
+            // Exact members (zeros at the origin read off the coefficients) stay exact.
+            let (center, error) = if members.iter().all(|z| *z == members[0]) && m > 1 { (members[0], 0.0) } else { (center, error) };
+            let spread = members.iter().map(|z| (z - center).norm()).fold(0.0, f64::max);
+            RootCluster { center, multiplicity: m, error, perturbation: error, spread, members, resolved: s.accepted }
+        })
+        .collect()
+}
+
+/// Distinct roots of a product `Π p_k^{m_k}` given as its factors, each
+/// factor's roots found on its own (see [`distinct_roots`]) and their
+/// multiplicities scaled by `m_k`. Roots of different factors stay distinct
+/// unless they coincide to working precision — within the sum of their
+/// error estimates plus rounding of their size — which is checked, not
+/// assumed: two typed factors `(z − 1.456)²(z − 1.456001456)` give a double
+/// root and a simple one 1.456e-6 apart.
+///
+/// ```
+/// use residuary::poly::multiplicity::distinct_roots_of_product;
+/// use residuary::C;
+/// let c = |x: f64| C::new(x, 0.0);
+/// // (z − 1.456)² (z − 1.456001456): monic linear factors (by construction).
+/// let (a, b) = ([c(-1.456), c(1.0)], [c(-1.456001456), c(1.0)]);
+/// let (roots, converged) = distinct_roots_of_product(&[(&a[..], 2), (&b[..], 1)]).unwrap();
+/// assert!(converged && roots.len() == 2);
+/// assert!(roots.iter().any(|r| r.multiplicity == 2 && (r.center - c(1.456)).norm() < 1e-15));
+/// ```
+pub fn distinct_roots_of_product(factors: &[(&[C], u32)]) -> Result<(Vec<RootCluster>, bool), Failure> {
+    let mut all: Vec<RootCluster> = Vec::new();
+    let mut converged = true;
+    for &(p, m) in factors {
+        let (mut roots, ok) = if p.len() == 2 {
+            // A linear factor: its root is read off, to the rounding of one division.
+            let z = -p[0] / p[1];
+            let e = 2.0 * UNIT_ROUNDOFF * z.norm();
+            (vec![RootCluster { center: z, multiplicity: 1, error: e, perturbation: e, spread: 0.0, members: vec![z], resolved: true }], true)
+        } else {
+            distinct_roots(p)?
+        };
+        converged &= ok;
+        for r in &mut roots {
+            r.multiplicity *= m;
+        }
+        all.extend(roots);
+    }
+    // Merge roots of different factors that coincide to working precision.
+    let mut merged: Vec<RootCluster> = Vec::new();
+    for r in all {
+        let same = merged.iter_mut().find(|q| {
+            let tol = 4.0 * (q.error + r.error) + 16.0 * UNIT_ROUNDOFF * q.center.norm().max(r.center.norm());
+            (q.center - r.center).norm() <= tol
+        });
+        match same {
+            Some(q) => {
+                let (mq, mr) = (q.multiplicity as f64, r.multiplicity as f64);
+                q.center = (q.center * mq + r.center * mr) / (mq + mr);
+                q.multiplicity += r.multiplicity;
+                q.error = q.error.max(r.error);
+                q.perturbation = q.perturbation.max(r.perturbation);
+                q.resolved &= r.resolved;
+                q.members.extend(r.members);
+            }
+            None => merged.push(r),
+        }
+    }
+    Ok((merged, converged))
 }
 
 fn find(parent: &mut [usize], i: usize) -> usize {
@@ -79,6 +162,12 @@ fn find(parent: &mut [usize], i: usize) -> usize {
 
 /// Group the approximations in `r` (roots of `p`) into clusters.
 pub fn cluster_roots(p: &[C], r: &Roots) -> Vec<RootCluster> {
+    let groups = cluster_groups(p, r);
+    clusters_from_groups(p, r, groups)
+}
+
+/// Indices of the approximations in each connected union of inclusion discs.
+fn cluster_groups(p: &[C], r: &Roots) -> Vec<Vec<usize>> {
     let n = r.roots.len();
     let radius: Vec<f64> = (0..n)
         .map(|i| {
@@ -130,6 +219,11 @@ pub fn cluster_roots(p: &[C], r: &Roots) -> Vec<RootCluster> {
         }
         groups[slot[g]].push(i);
     }
+    groups
+}
+
+/// One cluster per group: a single member as it is, others refined (centroid and Newton on p^(m−1)).
+fn clusters_from_groups(p: &[C], r: &Roots, groups: Vec<Vec<usize>>) -> Vec<RootCluster> {
     groups
         .into_iter()
         .map(|g| {

@@ -54,14 +54,18 @@ pub fn contour_integral(
                 gauss_kronrod::integrate_unit(&mut g, piece_tol, budget)
             }
         };
-        total.absorb(result.map_err(|e| on_piece_error(piece, e))?);
+        total.absorb(result.map_err(|e| on_piece_error(f, piece, e))?);
     }
     Ok(total)
 }
 
-/// The message for a failed piece: where f is not finite on it, or why else.
-pub fn on_piece_error(piece: &Piece, e: QuadError) -> Failure {
+/// The message for a failed piece: where f is not finite on it (overflow or
+/// a singularity, told apart by `overflow::overflows_near`), or why else.
+pub fn on_piece_error(f: &mut dyn FnMut(C) -> C, piece: &Piece, e: QuadError) -> Failure {
     match e {
+        QuadError::NotFinite { at } if crate::overflow::overflows_near(f, piece.point(at)) => {
+            Failure::not_finite(crate::overflow::message(piece.point(at))).at(piece.point(at))
+        }
         QuadError::NotFinite { at } => Failure::on_contour(format!(
             "f is not finite at {} on the contour: a singularity lies on it; move the contour",
             text::place(piece.point(at))

@@ -51,7 +51,7 @@ pub fn integral_split_at_cuts(
             }
             let mut g = |t: f64| f(piece.point(t)) * piece.derivative(t);
             let r = gauss_kronrod::integrate(&mut g, w[0], w[1], tol, budget);
-            total.absorb(r.map_err(|e| on_piece_error(piece, e))?);
+            total.absorb(r.map_err(|e| on_piece_error(f, piece, e))?);
         }
     }
     Ok(total)

@@ -69,6 +69,9 @@ pub fn total_phase_change(
 fn value_at(f: &dyn Fn(C) -> C, piece: &Piece, t: f64, budget: &mut Budget) -> Result<C, Failure> {
     let z = piece.point(t);
     let v = eval(f, z, budget)?;
+    if !is_finite(v) && crate::overflow::overflows_near(&mut |x| f(x), z) {
+        return Err(Failure::not_finite(crate::overflow::message(z)).at(z));
+    }
     if !is_finite(v) || v == C::new(0.0, 0.0) {
         return Err(Failure::on_contour(on_contour_message(z)).at(z));
     }

@@ -115,6 +115,61 @@ pub(crate) fn classify_point_near(
     Ok(out)
 }
 
+/// Largest dynamic range ln(max|f| / min|f|) a sampling circle may see: beyond
+/// it the rounding of the largest samples (u·max|f|) swamps the coefficients.
+const MAX_LOG_RANGE: f64 = 24.0;
+
+/// A circle radius ≤ `r` about `a` on which f's modulus varies by at most
+/// e^MAX_LOG_RANGE: a function with huge growth (e^{700z}/z varies by e^{700}
+/// on |z| = 1/2) gets circles sized to its growth, ~MAX_LOG_RANGE/(its rate),
+/// instead of residues drowned in rounding. A pole or zero at `a` itself
+/// leaves |f| constant on the circle to first order and does not shrink it.
+/// (Circle sizing by the growth rate: common practice for trapezoidal
+/// Cauchy integrals; see Bornemann, Found. Comput. Math. 11 (2011) §3, from memory.)
+fn growth_radius(f: &dyn Fn(C) -> C, a: C, mut r: f64, budget: &mut Budget) -> Result<f64, Failure> {
+    const PROBES: usize = 32;
+    for _ in 0..12 {
+        let mut lo = f64::INFINITY;
+        let mut hi: f64 = 0.0;
+        let mut finite = true;
+        for k in 0..PROBES {
+            let t = std::f64::consts::TAU * (k as f64 + 0.5) / PROBES as f64;
+            let v = eval(f, a + C::from_polar(r, t), budget)?;
+            if !is_finite(v) {
+                finite = false;
+                break;
+            }
+            let m = v.norm();
+            lo = lo.min(m);
+            hi = hi.max(m);
+        }
+        // Non-finite samples: the ring loop below shrinks past them.
+        if !finite || lo == 0.0 {
+            return Ok(r);
+        }
+        let range = (hi / lo).ln();
+        if range <= MAX_LOG_RANGE {
+            return Ok(r);
+        }
+        r *= (0.8 * MAX_LOG_RANGE / range).max(1.0 / 64.0);
+    }
+    Ok(r)
+}
+
+/// True when f is infinite (overflowed, not NaN) at most points of the circle
+/// of radius `r` about `a`: samples on a circle miss an isolated pole, so
+/// infinity at most of them is overflow.
+fn overflows_near(f: &dyn Fn(C) -> C, a: C, r: f64, budget: &mut Budget) -> Result<bool, Failure> {
+    let mut infinite = 0;
+    for k in 0..8 {
+        let v = eval(f, a + C::from_polar(r, 0.7 + k as f64 * std::f64::consts::TAU / 8.0), budget)?;
+        if v.re.is_infinite() || v.im.is_infinite() || (v.re.is_nan() && v.im.is_nan()) {
+            infinite += 1;
+        }
+    }
+    Ok(infinite >= 2)
+}
+
 fn analyse(
     f: &dyn Fn(C) -> C,
     a: C,
@@ -179,6 +234,7 @@ fn analyse(
             r = radii[(i + 1).min(2)];
         }
     }
+    r = growth_radius(f, a, r, budget)?;
 
     // 2. Laurent coefficients on r, r/2, r/8, r/32; shrink until they agree.
     let mut inner_overflow = false;
@@ -188,6 +244,7 @@ fn analyse(
     // singularity: used if the smaller circles turn out unusable (the
     // suspicion was wrong, e.g. a fast-decaying essential principal part).
     let mut before_probe: Option<(Vec<CircleLaurent>, bool)> = None;
+    let mut every_ring_overflowed = true;
     for _attempt in 0..12 {
         let mut rings = Vec::new();
         let mut finite = true;
@@ -200,6 +257,7 @@ fn analyse(
                 }
             }
         }
+        every_ring_overflowed &= !finite && rings.len() < 2;
         let consistent = rings.len() >= 2
             && rings
                 .windows(2)
@@ -236,6 +294,14 @@ fn analyse(
         inner_overflow = !finite;
         chosen = Some(rings);
         break;
+    }
+    if chosen.is_none() && every_ring_overflowed && overflows_near(f, a, r, budget)? {
+        return Err(Failure::not_finite(format!(
+            "f overflows double precision (|f| > 1.8e308) on every sampling circle around {}, down to radius {r:.1e}: \
+             this is overflow, not a singularity, and the residue cannot be computed by sampling; divide f by a \
+             large constant (e.g. exp(-700)*f) and scale the answer back",
+            if at_infinity { "infinity".to_string() } else { show(a) }
+        )));
     }
     let Some(rings) = chosen else {
         return Ok(PointResult {

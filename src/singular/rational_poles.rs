@@ -12,7 +12,8 @@
 // `!(a <= b)` is deliberate: a NaN must take the cautious branch.
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
-use crate::poly::multiplicity::{distinct_roots, RootCluster};
+use crate::expr::rational::Rational;
+use crate::poly::multiplicity::{distinct_roots, distinct_roots_of_product, RootCluster};
 use crate::text;
 use crate::error::Failure;
 use crate::poly::partial_fractions::local_expansion;
@@ -34,6 +35,10 @@ pub struct PoleInfo {
     pub principal_part_errors: Vec<f64>,
     /// Error estimate of the residue.
     pub error_estimate: f64,
+    /// True when the order was inferred from a cluster of root approximations
+    /// of expanded coefficients (it could then be several close poles); false
+    /// when the product as typed states it, e.g. `(z − 1)^3`.
+    pub order_inferred: bool,
 }
 
 /// A zero of f (after cancelling common roots).
@@ -70,6 +75,24 @@ pub struct RationalAnalysis {
     /// What the defect may be from rounding alone: `Σ residue errors + rounding of Res∞`.
     pub residue_sum_tolerance: f64,
     pub warnings: Vec<String>,
+}
+
+/// Relative error estimate of a residue above which a sensitivity warning is given.
+const SENSITIVE_RESIDUE: f64 = 1e-6;
+
+/// A warning when a residue's error estimate leaves fewer than six reliable digits.
+pub fn sensitivity_warning(at: C, residue: C, error_estimate: f64) -> Option<String> {
+    let relative = error_estimate / residue.norm();
+    (residue.norm() > 0.0 && !(relative <= SENSITIVE_RESIDUE)).then(|| {
+        format!(
+            "the residue at {} is sensitive to the coefficients (error estimate {:.1e}, about {} correct digits): \
+             poles this close together make residues ill-conditioned, and rounding the typed numbers to double \
+             precision moves them this much",
+            describe(at),
+            text::Sci(error_estimate),
+            (-relative.log10()).floor().max(0.0)
+        )
+    })
 }
 
 fn check_finite(p: &[C], what: &str) -> Result<(), Failure> {
@@ -117,7 +140,7 @@ fn cluster_warning(c: &RootCluster, what: &str) -> Option<String> {
 /// assert!(a.residue_at_infinity.norm() < 1e-8);
 /// ```
 pub fn analyse_rational(num: &[C], den: &[C]) -> Result<RationalAnalysis, Failure> {
-    analyse(num, den, None).and_then(all_finite)
+    analyse(num, den, None, None).and_then(all_finite)
 }
 
 /// Refuse an analysis holding a non-finite number (a root finder overflowing
@@ -151,7 +174,39 @@ pub type AsTyped<'a> = &'a dyn Fn(C) -> (C, C);
 /// iteration converges near where it started; the principal parts are then
 /// computed from the polished factors.
 pub fn analyse_rational_polished(num: &[C], den: &[C], as_typed: AsTyped) -> Result<RationalAnalysis, Failure> {
-    analyse(num, den, Some(as_typed)).and_then(all_finite)
+    analyse(num, den, None, Some(as_typed)).and_then(all_finite)
+}
+
+/// Like [`analyse_rational_polished`], and the roots are found factor by
+/// factor in the product form the user typed (`Rational::factors`), so
+/// distinct factors keep distinct roots however close: the expanded
+/// coefficients of `(z − 1.456)²(z − 1.456001456)` cannot tell a triple root
+/// from the double and simple roots the factors state.
+///
+/// ```
+/// use residuary::expr::Function;
+/// use residuary::singular::rational_poles::analyse_factored;
+/// use residuary::C;
+/// // 1/((z − 1.456)²(z − 1.456001456)): with d = 1.456e-6, partial fractions by hand give
+/// // Res at 1.456001456 = 1/d² and Res at 1.456 = −1/d² (they sum to 0: Res∞ = 0).
+/// let f = Function::compile("1/((z-1.456)^2*(z-1.456001456))", "z", &[]).unwrap();
+/// let a = analyse_factored(f.rational().unwrap(), &|z| f.eval_d(z)).unwrap();
+/// assert_eq!(a.poles.len(), 2);
+/// let d: f64 = 1.456001456 - 1.456;
+/// let simple = a.poles.iter().find(|p| p.order == 1).unwrap();
+/// assert!((simple.residue.re * d * d - 1.0).abs() < 1e-6, "{simple:?}");
+/// ```
+pub fn analyse_factored(r: &Rational, as_typed: AsTyped) -> Result<RationalAnalysis, Failure> {
+    analyse(&r.num, &r.den, Some(r), Some(as_typed)).and_then(all_finite)
+}
+
+/// [`analyse_factored`] on f's own rational form, polished on f as typed;
+/// `not_applicable` when f is not rational.
+pub fn analyse_function(f: &crate::expr::Function) -> Result<RationalAnalysis, Failure> {
+    let r = f
+        .rational()
+        .ok_or_else(|| Failure::not_applicable("f is not a rational function of its variable"))?;
+    analyse_factored(r, &|z| f.eval_d(z))
 }
 
 /// Newton's method for a root of order `m` of f (`pole = false`) or of 1/f
@@ -222,7 +277,7 @@ fn aberth_on_typed(poles: &mut [RootCluster], num: &[C], as_typed: AsTyped) {
     }
 }
 
-fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAnalysis, Failure> {
+fn analyse(num: &[C], den: &[C], factored: Option<&Rational>, as_typed: Option<AsTyped>) -> Result<RationalAnalysis, Failure> {
     check_finite(num, "numerator")?;
     check_finite(den, "denominator")?;
     let num = trim(num);
@@ -247,9 +302,15 @@ fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAn
             warnings,
         });
     }
-    let (mut den_clusters, den_ok) = distinct_roots(&den).map_err(|e| e.context("denominator: "))?;
+    // Roots side by side: factor by factor when a product form is known.
+    let roots_of = |p: &[C], denominator: bool| match factored {
+        Some(r) if !r.side(denominator).is_empty() => distinct_roots_of_product(&r.side(denominator)),
+        _ => distinct_roots(p),
+    };
+    let factor_count = |denominator: bool| factored.map_or(1, |r| r.side(denominator).len());
+    let (mut den_clusters, den_ok) = roots_of(&den, true).map_err(|e| e.context("denominator: "))?;
     let (mut num_clusters, num_ok) = if num.len() > 1 {
-        distinct_roots(&num).map_err(|e| e.context("numerator: "))?
+        roots_of(&num, false).map_err(|e| e.context("numerator: "))?
     } else {
         (Vec::new(), true)
     };
@@ -315,6 +376,10 @@ fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAn
                 continue; // cancelled against a zero: f is finite there
             }
             match polish(as_typed, d.center, d.multiplicity, true, reach(d.center)) {
+                // A multiplicity inferred from a cluster is not polished: Newton on
+                // f as typed stalls in the noise around a multiple root, where the
+                // pejorative-manifold refinement is the accurate one.
+                Some(_) if d.members.len() > 1 => {}
                 Some((z, e)) => {
                     d.center = z;
                     d.error = e;
@@ -327,8 +392,10 @@ fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAn
                 continue;
             }
             if let Some((x, e)) = polish(as_typed, z.center, z.multiplicity, false, reach(z.center)) {
-                z.center = x;
-                z.error = e;
+                if z.members.len() <= 1 {
+                    z.center = x;
+                    z.error = e;
+                }
             }
         }
     }
@@ -344,7 +411,10 @@ fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAn
     let mut zeros = Vec::new();
     for (i, d) in den_clusters.iter().enumerate() {
         let k = zero_order_at[i];
-        let e = local_expansion(&num, &den, lead, &factors, &factor_errors, i, k, !polished_all);
+        // The direct route divides the expanded denominator's Taylor series: a
+        // check only when the expanded coefficients are what the user typed.
+        let check_direct = !polished_all && factor_count(true) <= 1;
+        let e = local_expansion(&num, &den, lead, &factors, &factor_errors, i, k, check_direct);
         match e.limit {
             None => {
                 let residue = e.principal_part.first().copied().unwrap_or(ZERO_C);
@@ -357,6 +427,7 @@ fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAn
                     principal_part: e.principal_part,
                     principal_part_errors: e.principal_part_errors,
                     error_estimate,
+                    order_inferred: d.members.len() > 1,
                 });
             }
             Some(value) => {
@@ -384,6 +455,8 @@ fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAn
             });
         }
     }
+    // Sensitivity: say so when a residue has fewer than six reliable digits.
+    warnings.extend(poles.iter().filter_map(|p| sensitivity_warning(p.at, p.residue, p.error_estimate)));
     let by_position = |a: &C, b: &C| a.re.total_cmp(&b.re).then(a.im.total_cmp(&b.im));
     poles.sort_by(|a, b| by_position(&a.at, &b.at));
     zeros.sort_by(|a, b| by_position(&a.at, &b.at));
@@ -397,7 +470,7 @@ fn analyse(num: &[C], den: &[C], as_typed: Option<AsTyped>) -> Result<RationalAn
     } else {
         ZERO_C
     };
-    let residue_at_infinity = -r_top / lead;
+    let residue_at_infinity = -crate::poly::cdiv(r_top, lead);
     let infinity_order = num.len() as i32 - den.len() as i32;
     let sum: C = poles.iter().map(|p| p.residue).sum();
     let residue_sum_defect = (sum + residue_at_infinity).norm();
@@ -475,19 +548,24 @@ fn matches(a: C, s: C, e: f64) -> Option<f64> {
 
 /// Residue of `num/den` at the point `a`: pole, removable singularity or regular point.
 pub fn residue_at_point(num: &[C], den: &[C], a: C) -> Result<PointResidue, Failure> {
-    residue_at_point_with(num, den, a, None)
+    residue_at_point_with(num, den, a, None, None)
 }
 
 /// [`residue_at_point`] with the poles polished on f as typed (see [`analyse_rational_polished`]).
 pub fn residue_at_point_polished(num: &[C], den: &[C], a: C, as_typed: AsTyped) -> Result<PointResidue, Failure> {
-    residue_at_point_with(num, den, a, Some(as_typed))
+    residue_at_point_with(num, den, a, None, Some(as_typed))
 }
 
-fn residue_at_point_with(num: &[C], den: &[C], a: C, as_typed: Option<AsTyped>) -> Result<PointResidue, Failure> {
+/// [`residue_at_point`] on the product form as typed (see [`analyse_factored`]).
+pub fn residue_at_point_factored(r: &Rational, a: C, as_typed: AsTyped) -> Result<PointResidue, Failure> {
+    residue_at_point_with(&r.num, &r.den, a, Some(r), Some(as_typed))
+}
+
+fn residue_at_point_with(num: &[C], den: &[C], a: C, factored: Option<&Rational>, as_typed: Option<AsTyped>) -> Result<PointResidue, Failure> {
     if !a.is_finite() {
         return Err(Failure::invalid("the point must be finite; ask for the residue at infinity separately"));
     }
-    let r = analyse(num, den, as_typed)?;
+    let r = analyse(num, den, factored, as_typed)?;
     let nearest = r
         .poles
         .iter()

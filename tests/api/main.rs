@@ -10,5 +10,8 @@ mod contract_doc;
 mod inverse_laplace;
 mod inverse_z;
 mod meromorphic_battery;
+mod multiplicity;
+mod overflow_and_scale;
 mod partial_fractions;
 mod real_integral;
+mod request_errors;

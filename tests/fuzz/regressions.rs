@@ -39,6 +39,10 @@ const CASES: &[&str] = &[
     r#"{"center":[1.875,-2.375],"f":"acos(sec(((z)^-7+(-(1e16)^(e)+(20+(z-(z-8e-20)))))))","from":6,"inner":4.953144759757145,"max_evaluations":5000,"outer":5.348325247593396,"task":"laurent","to":15}"#,
     r#"{"contour":{"angle":-3.5,"center":[3.25,-0.125],"semi_axes":[3.567065412213972,1e-9],"shape":"ellipse"},"f":"(log(z))^10","max_evaluations":10000,"task":"contour_integral","var":"z"}"#,
     r#"{"task":"contour_integral","f":"tan(tan(22)^z+z)","contour":{"shape":"circle","center":[0,0],"radius":1},"max_evaluations":100000}"#,
+    // "error estimate inf" in the sensitivity warning: 1e308 over a product of
+    // factors overflows the residues' error estimates.
+    r#"{"contour":{"center":[-2.375,-2.5],"radius":0.9619366422684023,"shape":"circle"},"f":"1e308/((z-(1+1*i))^2*(z-(0+0*i))^2*(z-(2))^1)","max_evaluations":2000,"task":"contour_integral"}"#,
+    r#"{"f":"1e308/((z-(-2))^1*(z-(2))^2*(z-(1+2*i))^2)","region":{"shape":"circle","center":[0,0],"radius":5},"task":"singularities"}"#,
 ];
 
 /// A budget bounds the three tasks that had none: work far beyond a budget of

@@ -110,6 +110,8 @@ export function showInverse(parts, request, resp) {
   est.forEach((e, i) => { if (Number.isFinite(e) && (worst < 0 || e > est[worst])) worst = i; });
   if (worst >= 0) fact('Error estimate', `at most ${fmtReal(est[worst], 2)} (largest at ${isS ? 't' : 'n'} = ${fmtReal(xs[worst], 6)})`);
   if (isS && Number.isFinite(resp.delay) && resp.delay > 0) fact('Delay', `f(t) = 0 for t < ${fmtReal(resp.delay, 6)}`);
+  if (isS && Array.isArray(resp.delays) && resp.delays.length) fact('Delays', `τ = ${resp.delays.map((d) => fmtReal(d, 6)).join(', ')}; H(t − τ) in the closed form is the unit step (½ at the jump)`);
+  if (isS && Array.isArray(resp.declined) && resp.declined.length) fact('Declined', `${resp.declined.length} of the times have no meaningful value (gaps in the chart); see the warnings`);
 }
 
 // ---- the section on the page ---------------------------------------------------------

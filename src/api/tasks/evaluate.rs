@@ -1,10 +1,14 @@
 //! `evaluate`: f and f' at a list of points.
 
 use crate::api::input::{budget, compile, finite};
-use crate::api::wire::{pair, FunctionInput, Number};
+use crate::api::wire::{pair, FunctionInput, Number, BUDGET_FIELD, FUNCTION_FIELDS};
 use crate::api::error::ApiError;
 use crate::C;
+use crate::api::shape::{Expect, Field};
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`EvaluateRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("at", Expect::AtMost(MAX_POINTS, &Expect::Complex)), BUDGET_FIELD]];
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct EvaluateRequest {

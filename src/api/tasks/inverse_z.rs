@@ -1,34 +1,39 @@
 //! `inverse_z`: the causal inverse z-transform x[n], n ≥ 0, of X(z), with the
 //! region of convergence |z| > max |singularity| (the causal, right-sided sequence).
 //!
-//! Rational X is computed three independent ways and the disagreement shown:
-//! 1. **Long division** of the reversed polynomials (exact recurrence, no roots):
-//!    `transforms::z::long_division`. This is `x` when affordable.
+//! Rational X is computed in up to three independent ways and the disagreement shown:
+//! 1. **The difference equation** run on an impulse (long division, no roots),
+//!    with its a-priori rounding bound: `transforms::z::recurrence`.
 //! 2. **Residues**: partial fractions from the exact pole analysis, which also
-//!    give the closed form (`transforms::z::residues`).
+//!    give the closed form and carry far n (`transforms::z::residues`).
 //! 3. **Contour**: trapezoidal Cauchy integrals on circles outside every pole
-//!    (`transforms::z::trapezoid`).
+//!    (`transforms::z::trapezoid`), only for the n where 1 and 2 do not agree:
+//!    it costs a hundred times more than both.
 //!
-//! The three are reconciled per n by the one agreement rule (`crate::ways`).
+//! The ways are reconciled per n by the one agreement rule (`crate::ways`); `x`
+//! comes from whichever of 1 and 2 has the smaller estimate.
 //!
 //! Any other X uses the contour method alone; its singularities are bounded by
 //! `"singular_radius"` when given, else by structural candidates plus a search
-//! of |z| < 10 (`transforms::z::singular_radius`), and the contour's own
+//! of |z| < 10 and the expression's pole candidates classified one by one
+//! (`transforms::z::singular_radius`), and the contour's own
 //! positive-power check refuses an X that grows at infinity or has a
 //! singularity outside the circles.
 
 use crate::api::error::ApiError;
-use crate::api::input::{budget, compile_text, hints, CAUTION};
+use crate::api::input::{budget, compile_text, hints, pole_candidates, CAUTION};
 use crate::api::wire::{FunctionInput, Number, Stability as StabilityOut};
+use crate::api::shape::{Expect, Field};
+use crate::api::wire::{transform_fields, BUDGET_FIELD};
 use crate::budget::Budget;
 use crate::expr::Function;
-use crate::singular::rational_poles::analyse_rational_polished;
+use crate::singular::rational_poles::analyse_function;
 use crate::text;
-use crate::transforms::z::long_division::values_at;
+use crate::transforms::z::recurrence::values_at as recurrence_values;
 use crate::transforms::z::residues::ResidueForm;
 use crate::transforms::z::singular_radius::{check_no_positive_powers, search};
 use crate::transforms::z::trapezoid::{inverse_z_trapezoid, ContourResult};
-use crate::ways::{reconcile, Way, WayName, ROUNDING};
+use crate::ways::{reconcile, Agreement, Way, WayName, ROUNDING};
 use crate::C;
 use serde::{Deserialize, Serialize};
 use std::collections::BTreeMap;
@@ -44,11 +49,21 @@ const MAX_SAMPLES: usize = 1 << 20;
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Method {
-    /// Rational X: long division, residues and contour compared.
+    /// Rational X: the difference equation and residues compared (the contour where they disagree).
     Rational,
     /// Any other X: the contour alone.
     Contour,
 }
+
+/// The declared fields of [`InverseZRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[
+    &transform_fields("X"),
+    &[
+        Field::required("n", Expect::AtMost(MAX_COUNT, &Expect::Real)),
+        Field::optional("singular_radius", Expect::OrNull(&Expect::Real)),
+        BUDGET_FIELD,
+    ],
+];
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct InverseZRequest {
@@ -94,9 +109,13 @@ pub struct InverseZResponse {
     pub roc: Roc,
     /// Re x[n] from the residues / partial fractions (rational X).
     pub by_residues: Option<Vec<f64>>,
-    /// Re x[n] from long division (rational X, when affordable).
+    /// Re x[n] from the difference equation (long division; rational X, when affordable).
     pub by_long_division: Option<Vec<f64>>,
-    /// Re x[n] from contour integrals; `null` where n was too large for the sampling.
+    /// The a-priori rounding bound of each `by_long_division` value.
+    #[serde(skip_serializing_if = "Option::is_none", default)]
+    pub long_division_error_estimates: Option<Vec<f64>>,
+    /// Re x[n] from contour integrals; `null` where n was too large for the sampling
+    /// and, for rational X, where the other two ways already agree.
     pub by_contour: Vec<Option<f64>>,
     /// Error estimate of each contour value.
     pub contour_error_estimates: Vec<Option<f64>>,
@@ -175,39 +194,54 @@ fn indices(n: &[f64]) -> Result<Vec<u64>, ApiError> {
         .collect()
 }
 
-/// Rational X: long division, residues and the contour, reconciled per n.
+/// Rational X: the difference equation and the residues, reconciled per n; the
+/// contour only where those two do not agree.
 fn rational(f: &Function, num: &[C], den: &[C], ns: &[u64], budget: &mut Budget) -> Result<InverseZResponse, ApiError> {
-    let analysis = analyse_rational_polished(num, den, &|z| f.eval_d(z))?;
+    let analysis = analyse_function(f)?;
     let form = ResidueForm::from_analysis(&analysis)?;
     let mut warnings = analysis.warnings.clone();
     let r0 = form.singular_radius();
     let by_residues = form.values(ns);
-    let by_division = values_at(num, den, &analysis.removable, ns)?;
-    if by_division.is_none() {
-        warnings.push("the long division was skipped (too much work for this n and degree); x comes from the residues".into());
-    }
-    let contour = inverse_z_trapezoid(&mut |z: C| f.eval(z), r0, ns, MAX_SAMPLES, budget)
-        .map_err(|e| warnings.push(format!("the contour method failed: {e}")))
-        .ok();
-    let by_contour = contour_list(contour.as_ref(), ns.len());
-    if by_contour.iter().any(|v| v.is_none()) {
-        warnings.push(format!(
-            "by_contour is null for n > {}: the circles would need more than {MAX_SAMPLES} samples",
-            MAX_SAMPLES / 2 - 1
-        ));
+    // Any weight gives a valid rounding bound; one just outside the poles gives a tight one.
+    let n_max = ns.iter().copied().max().unwrap_or(0) as f64;
+    // (All poles at the origin: a small weight keeps each impulse's bound its own.)
+    let weights = [1.0, (r0 * (1.0 + 1.0 / (n_max + 1.0))).max(1e-3)];
+    let by_recurrence = recurrence_values(num, den, &analysis.removable, ns, &weights)?;
+    if by_recurrence.is_none() {
+        warnings.push("the difference equation was skipped (too much work for this n and degree); x comes from the residues".into());
     }
 
-    // Long division has no estimate of its own: the rule bounds it from the other ways.
-    let preferred = [if by_division.is_some() { WayName::LongDivision } else { WayName::Residues }];
+    // Two independent ways (no roots / the exact pole analysis), then the contour where they do not agree.
+    let preferred = [WayName::LongDivision, WayName::Residues];
     let floor = by_residues.iter().map(|v| v.0.norm()).filter(|x| x.is_finite()).fold(0.0, f64::max);
-    let verdicts: Vec<_> = (0..ns.len())
-        .map(|i| {
-            let mut ways: Vec<Way> = by_division.iter().map(|d| Way::new(WayName::LongDivision, d[i], f64::INFINITY)).collect();
-            ways.push(Way::new(WayName::Residues, by_residues[i].0, by_residues[i].1));
-            ways.extend(by_contour[i].map(|(v, e)| Way::new(WayName::TrapezoidalRule, v, e)));
-            reconcile(&ways, &preferred, floor)
-        })
-        .collect();
+    let two_ways = |i: usize| {
+        let mut ways = Vec::with_capacity(3);
+        ways.extend(by_recurrence.iter().map(|d| Way::new(WayName::LongDivision, d[i].0, d[i].1)));
+        ways.push(Way::new(WayName::Residues, by_residues[i].0, by_residues[i].1));
+        ways
+    };
+    let mut verdicts: Vec<_> = (0..ns.len()).map(|i| reconcile(&two_ways(i), &preferred, floor)).collect();
+    let unsettled: Vec<usize> = (0..ns.len()).filter(|&i| verdicts[i].agreement != Agreement::Agree).collect();
+    let mut by_contour = vec![None; ns.len()];
+    let mut contour = None;
+    if !unsettled.is_empty() {
+        let checked: Vec<u64> = unsettled.iter().map(|&i| ns[i]).collect();
+        contour = inverse_z_trapezoid(&mut |z: C| f.eval(z), r0, &checked, MAX_SAMPLES, budget)
+            .map_err(|e| warnings.push(format!("the contour method failed: {e}")))
+            .ok();
+        for (&i, v) in unsettled.iter().zip(contour_list(contour.as_ref(), checked.len())) {
+            by_contour[i] = v;
+            let mut ways = two_ways(i);
+            ways.extend(v.map(|(v, e)| Way::new(WayName::TrapezoidalRule, v, e)));
+            verdicts[i] = reconcile(&ways, &preferred, floor);
+        }
+        if contour.is_some() && unsettled.iter().any(|&i| by_contour[i].is_none()) {
+            warnings.push(format!(
+                "by_contour is null for n > {}: the circles would need more than {MAX_SAMPLES} samples",
+                MAX_SAMPLES / 2 - 1
+            ));
+        }
+    }
     let radii = contour.map(|c| {
         warnings.extend(c.warnings);
         c.radii
@@ -221,7 +255,8 @@ fn rational(f: &Function, num: &[C], den: &[C], ns: &[u64], budget: &mut Budget)
         error_estimates: verdicts.iter().map(|v| v.error).collect(),
         roc: Roc { outer_radius_greater_than: r0 },
         by_residues: Some(by_residues.iter().map(|v| v.0.re).collect()),
-        by_long_division: by_division.map(|d| d.iter().map(|v| v.re).collect()),
+        by_long_division: by_recurrence.as_ref().map(|d| d.iter().map(|v| v.0.re).collect()),
+        long_division_error_estimates: by_recurrence.as_ref().map(|d| d.iter().map(|v| v.1).collect()),
         by_contour: by_contour.iter().map(|v| v.map(|v| v.0.re)).collect(),
         contour_error_estimates: by_contour.iter().map(|v| v.map(|v| v.1)).collect(),
         max_discrepancy: verdicts.iter().map(|v| v.max_discrepancy).fold(0.0, f64::max),
@@ -248,8 +283,8 @@ fn general(f: &Function, singular_radius: Option<f64>, ns: &[u64], budget: &mut 
         Some(r) if r.is_finite() && r >= 0.0 => (r, Vec::new(), Vec::new()),
         Some(_) => return Err(ApiError::invalid("\"singular_radius\" must be a finite number ≥ 0")),
         None => {
-            let b = search(f, &hints(f), budget);
-            (b.radius, b.poles.iter().map(|&(z, order)| PoleAt { at: [z.re, z.im], order }).collect(), b.warnings)
+            let b = search(f, &hints(f), &pole_candidates(f), budget);
+            (b.radius, b.poles.iter().map(|&(z, order)| PoleAt { at: [z.re + 0.0, z.im + 0.0], order }).collect(), b.warnings)
         }
     };
     let contour = inverse_z_trapezoid(&mut |z: C| f.eval(z), r0, ns, MAX_SAMPLES, budget)?;
@@ -263,6 +298,7 @@ fn general(f: &Function, singular_radius: Option<f64>, ns: &[u64], budget: &mut 
         )));
     }
     warnings.extend(contour.warnings.iter().cloned());
+    let r0 = contour.inner_singularity.map_or(r0, |r| r.max(r0));
     let x: Vec<C> = values.iter().map(|v| v.map(|v| v.0).unwrap_or_default()).collect();
     let response = InverseZResponse {
         x: x.iter().map(|v| v.re).collect(),
@@ -272,6 +308,7 @@ fn general(f: &Function, singular_radius: Option<f64>, ns: &[u64], budget: &mut 
         roc: Roc { outer_radius_greater_than: r0 },
         by_residues: None,
         by_long_division: None,
+        long_division_error_estimates: None,
         by_contour: values.iter().map(|v| v.map(|v| v.0.re)).collect(),
         contour_error_estimates: values.iter().map(|v| v.map(|v| v.1)).collect(),
         max_discrepancy: contour.radius_discrepancy,

@@ -7,13 +7,27 @@
 use crate::api::input::{budget, compile, hints, point};
 
 use crate::contour::Contour;
-use crate::api::wire::{FunctionInput, Point};
+use crate::api::wire::{FunctionInput, BUDGET_FIELD, FUNCTION_FIELDS, Point};
+use crate::api::shape::{Expect, Field};
 use crate::api::error::{ApiError, ErrorCode};
 use crate::expr::Function;
 use crate::series::laurent_fft::{self, Center};
 use crate::singular::find_singularities;
 use crate::C;
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`LaurentRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[
+    FUNCTION_FIELDS,
+    &[
+        Field::required("center", Expect::Point),
+        Field::optional("inner", Expect::Real),
+        Field::optional("outer", Expect::OrNull(&Expect::Real)),
+        Field::required("from", Expect::Whole),
+        Field::required("to", Expect::Whole),
+        BUDGET_FIELD,
+    ],
+];
 
 /// `laurent`: coefficients `c_n`, `n = from..=to`, on an annulus around a point or infinity.
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -97,8 +111,9 @@ fn known_singularities(
     warnings: &mut Vec<String>,
     budget: &mut crate::budget::Budget,
 ) -> Vec<C> {
-    if let Some(r) = f.rational() {
-        return match crate::singular::rational_poles::analyse_rational(&r.num, &r.den) {
+    if f.rational().is_some() {
+        // The same analysis as `singularities`, so both tasks place a pole at the same point.
+        return match crate::singular::rational_poles::analyse_function(f) {
             Ok(a) => a.poles.iter().map(|p| p.at).collect(),
             Err(e) => {
                 warnings.push(format!("poles not located ({e}); the annulus was checked by sampling only"));

@@ -1,10 +1,14 @@
 //! `partial_fractions`: a rational f as polynomial part plus Σ c/(z − a)^k.
 
 use crate::api::input::{compile, pairs};
-use crate::api::wire::{pair, FunctionInput};
+use crate::api::wire::{pair, FunctionInput, FUNCTION_FIELDS};
+use crate::api::shape::Field;
 use crate::api::error::{ApiError, ErrorCode};
-use crate::singular::rational_poles::{analyse_rational_polished, partial_fractions_string};
+use crate::singular::rational_poles::{analyse_function, partial_fractions_string};
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`PartialFractionsRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS];
 
 /// `partial_fractions`: a rational f as polynomial part plus Σ c/(z−a)^k.
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -34,14 +38,14 @@ pub struct PartialFractionsResponse {
 
 pub fn run(req: &PartialFractionsRequest) -> Result<PartialFractionsResponse, ApiError> {
     let f = compile(&req.function)?;
-    let r = f.rational().ok_or_else(|| {
+    f.rational().ok_or_else(|| {
         ApiError::new(ErrorCode::NotApplicable, format!(
             "partial fractions need a rational function (a ratio of polynomials in {}); this f is not one. \
              Use \"singularities\" or \"laurent\" for its poles and principal parts",
             f.var()
         ))
     })?;
-    let a = analyse_rational_polished(&r.num, &r.den, &|z| f.eval_d(z))?;
+    let a = analyse_function(&f)?;
     let mut terms = Vec::new();
     let mut error_estimate: f64 = 0.0;
     for p in &a.poles {

@@ -2,12 +2,34 @@
 
 use crate::api::input::{budget, compile};
 
-use crate::api::wire::FunctionInput;
+use crate::api::wire::{FunctionInput, BUDGET_FIELD, FUNCTION_FIELDS};
+use crate::api::shape::{Expect, Field};
 use crate::api::error::ApiError;
 use crate::plot::colour_wheel::Wheel;
 use crate::plot::phase_plot::{render_rows, PlotOptions, View};
 use crate::C;
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`PhasePlotRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[
+    FUNCTION_FIELDS,
+    &[
+        Field::required("view", Expect::Exactly(4, &Expect::Real)),
+        Field::required("size", Expect::Exactly(2, &Expect::Count32)),
+        Field::optional("options", Expect::Object(OPTIONS_FIELDS)),
+        Field::optional("format", Expect::OrNull(&Expect::Text)),
+        Field::optional("rows", Expect::OrNull(&Expect::Exactly(2, &Expect::Count32))),
+        BUDGET_FIELD,
+    ],
+];
+
+/// The declared fields of [`PlotOptionsInput`].
+pub const OPTIONS_FIELDS: &[&[Field]] = &[&[
+    Field::optional("wheel", Expect::OrNull(&Expect::Text)),
+    Field::optional("modulus_lines", Expect::Bool),
+    Field::optional("phase_lines", Expect::Bool),
+    Field::optional("infinity", Expect::Bool),
+]];
 
 /// `phase_plot`: colour each pixel of the view box by arg f (and optionally |f|).
 #[derive(Debug, Clone, Serialize, Deserialize)]

@@ -15,7 +15,9 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, compile, hints};
-use crate::api::wire::{pair, FunctionInput, Number, Verdict, Method};
+use crate::api::wire::{pair, FunctionInput, FUNCTION_FIELDS, Number, Verdict, Method};
+use crate::api::shape::{Expect, Field};
+use crate::api::wire::BUDGET_FIELD;
 use crate::budget::Budget;
 use crate::expr::Function;
 use crate::integrals::product_residue::ResidueSum;
@@ -23,9 +25,20 @@ use crate::integrals::{keyhole, real_line, unit_circle};
 use crate::quad::real_line::{line_integral, log_substituted_integral, periodic_integral};
 use crate::quad::QuadResult;
 use crate::singular::decay::{check_rational_decay, line_decay};
-use crate::singular::rational_poles::analyse_rational_polished;
+use crate::singular::rational_poles::analyse_function;
 use crate::ways::{reconcile, Way, WayName};
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`RealIntegralRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[
+    FUNCTION_FIELDS,
+    &[
+        Field::required("kind", Expect::Text),
+        Field::optional("omega", Expect::OrNull(&Expect::Complex)),
+        Field::optional("alpha", Expect::OrNull(&Expect::Complex)),
+        BUDGET_FIELD,
+    ],
+];
 
 /// `real_integral` request.
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -152,7 +165,7 @@ fn line(f: &Function, omega: f64, budget: &mut Budget, warnings: &mut Vec<String
         let formula = real_line::formula(omega, false);
         return Ok((ResidueSide { sum, method: Method::Numerical, formula, principal_value: false }, q));
     };
-    let a = analyse_rational_polished(&r.num, &r.den, &eval_d)?;
+    let a = analyse_function(f)?;
     warnings.extend(a.warnings.iter().cloned());
     check_rational_decay(&r.num, a.infinity_order, omega)?;
     let res = real_line::rational_line_residues(&a, omega, warnings)?;
@@ -181,7 +194,7 @@ fn mellin(f: &Function, alpha: crate::C, budget: &mut Budget, warnings: &mut Vec
     };
     let (num, den) = (crate::poly::trim(&r.num), crate::poly::trim(&r.den));
     keyhole::check_alpha(&num, &den, alpha)?;
-    let a = analyse_rational_polished(&num, &den, &|z| f.eval_d(z))?;
+    let a = analyse_function(f)?;
     warnings.extend(a.warnings.iter().cloned());
     let sum = keyhole::keyhole_residues(&a, alpha)?;
     let q = log_substituted_integral(&|z| f.eval(z), &num, &den, alpha, budget, warnings)?;

@@ -5,14 +5,18 @@
 
 use crate::api::input::{budget, compile, hints, point};
 use crate::text;
-use crate::api::wire::{pair, FunctionInput, Point, PointKind};
+use crate::api::wire::{pair, FunctionInput, FUNCTION_FIELDS, Point, PointKind};
+use crate::api::shape::{Expect, Field};
 use crate::api::error::ApiError;
 use crate::expr::Function;
 use crate::singular::rational_check::cross_check;
-use crate::singular::rational_poles::{analyse_rational, analyse_rational_polished, residue_at_point_polished, PointKind as RationalKind};
+use crate::singular::rational_poles::{PointKind as RationalKind, analyse_function, analyse_rational, residue_at_point_factored};
 use crate::singular::{classify_infinity, classify_point, PointResult};
 use crate::C;
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`ResidueRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("at", Expect::Point)]];
 
 /// `residue`: the residue of f at one point or at infinity.
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -38,20 +42,20 @@ pub struct ResidueResponse {
 pub fn run(req: &ResidueRequest) -> Result<ResidueResponse, ApiError> {
     let f = compile(&req.function)?;
     match (point(&req.at, "at")?, f.rational()) {
-        (Some(a), Some(r)) => rational_at(&f, &r.num, &r.den, a),
+        (Some(a), Some(r)) => rational_at(&f, r, a),
         (None, Some(r)) => rational_at_infinity(&r.num, &r.den),
         (at, None) => general(&f, at),
     }
 }
 
-fn rational_at(f: &Function, num: &[C], den: &[C], a: C) -> Result<ResidueResponse, ApiError> {
+fn rational_at(f: &Function, rational: &crate::expr::Rational, a: C) -> Result<ResidueResponse, ApiError> {
     // Method 1: exact algebra at the point, polished on the expression as typed.
-    let r = residue_at_point_polished(num, den, a, &|z| f.eval_d(z))?;
+    let r = residue_at_point_factored(rational, a, &|z| f.eval_d(z))?;
     let mut warnings = Vec::new();
     let mut error_estimate = r.error_estimate;
     if r.kind == RationalKind::Pole {
         // Method 2, the same independent check as in `singularities`: sample the expression as typed.
-        let all: Vec<C> = analyse_rational_polished(num, den, &|z| f.eval_d(z))
+        let all: Vec<C> = analyse_function(f)
             .map(|x| x.poles.iter().map(|p| p.at).collect())
             .unwrap_or_default();
         let check = cross_check(&|z| f.eval(z), &[(r.at, r.residue, r.error_estimate)], &all, &mut budget(None).weighted(f.weight()));

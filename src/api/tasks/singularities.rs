@@ -3,18 +3,23 @@
 
 use crate::api::error::ApiError;
 use crate::api::input::{budget, checked_contour, compile, hints, pole_candidates};
-use crate::api::wire::{pair, ContourShape, FunctionInput, Method};
+use crate::api::wire::{pair, ContourShape, FunctionInput, FUNCTION_FIELDS, Method};
+use crate::api::shape::Field;
+use crate::api::wire::{BUDGET_FIELD, CONTOUR};
 use crate::contour::Contour;
 use crate::expr::Function;
 use crate::singular::classify::essential_residues;
 use crate::singular::rational_check::cross_check;
 use crate::singular::rational_in_region::in_region;
-use crate::singular::rational_poles::analyse_rational_polished;
+use crate::singular::rational_poles::{analyse_function, sensitivity_warning};
 use crate::singular::removable::removable_points;
 use crate::singular::{classify_infinity, find_singularities};
 use crate::text;
 use crate::C;
 use serde::{Deserialize, Serialize};
+
+/// The declared fields of [`SingularitiesRequest`] (checked by `api::shape`).
+pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("region", CONTOUR), BUDGET_FIELD]];
 
 /// `singularities`: poles, zeros, essential singularities and branch points in a region.
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -74,9 +79,10 @@ pub struct SingularitiesResponse {
 /// expression as typed; any other f by the sampling search of the region.
 pub fn run(req: &SingularitiesRequest) -> Result<SingularitiesResponse, ApiError> {
     let f = compile(&req.function)?;
-    let region = checked_contour(&req.region, "region")?;
+    // A region is a set: its contents count the same whichever way it is drawn.
+    let region = checked_contour(&req.region, "region")?.counter_clockwise();
     match f.rational() {
-        Some(r) => rational(&f, &r.num, &r.den, &region),
+        Some(_) => rational(&f, &region),
         None => general(&f, &region, req.max_evaluations),
     }
 }
@@ -86,9 +92,9 @@ const MULTIPLE_POLE_CAUTION: &str = "a pole of order m > 1 could also be m separ
 can tell apart (about 1e-8 relative for m = 2), which would have large residues of opposite \
 sign; this matters when coefficients were rounded";
 
-fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<SingularitiesResponse, ApiError> {
+fn rational(f: &Function, region: &Contour) -> Result<SingularitiesResponse, ApiError> {
     // Method 1: exact algebra on the coefficients, polished on the expression as typed.
-    let a = analyse_rational_polished(num, den, &|z| f.eval_d(z))?;
+    let a = analyse_function(f)?;
     let part = in_region(&a, region);
     let mut warnings = a.warnings.clone();
     warnings.extend(part.on_boundary.iter().map(|(what, z)| {
@@ -100,9 +106,13 @@ fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<Sing
     let claims: Vec<(C, C, f64)> = part.poles.iter().map(|p| (p.at, p.residue, p.error_estimate)).collect();
     let all: Vec<C> = a.poles.iter().map(|p| p.at).collect();
     let check = cross_check(&|z| f.eval(z), &claims, &all, &mut budget(None).weighted(f.weight()));
-    for (pole, bound) in poles.iter_mut().zip(&check.bounds) {
+    for ((pole, bound), p) in poles.iter_mut().zip(&check.bounds).zip(&part.poles) {
         if let Some(b) = bound {
             pole.error_estimate = Some(pole.error_estimate.unwrap_or(0.0).max(*b));
+            // The check raised the estimate past six digits where the analysis had not.
+            if sensitivity_warning(p.at, p.residue, p.error_estimate).is_none() {
+                warnings.extend(sensitivity_warning(p.at, p.residue, *b));
+            }
         }
     }
     if check.disagreeing > 0 {
@@ -113,7 +123,7 @@ fn rational(f: &Function, num: &[C], den: &[C], region: &Contour) -> Result<Sing
             check.disagreeing, crate::text::Sci(check.worst)
         ));
     }
-    if part.poles.iter().any(|p| p.order > 1) {
+    if part.poles.iter().any(|p| p.order > 1 && p.order_inferred) {
         warnings.push(MULTIPLE_POLE_CAUTION.into());
     }
     if a.residue_sum_defect > a.residue_sum_tolerance.max(1e-300) * 10.0 {

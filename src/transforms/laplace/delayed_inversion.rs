@@ -16,12 +16,20 @@
 //! `delay_estimate::left_growth_rate`) cannot be inverted for t ≲ κ: there the
 //! error estimate is raised to at least the largest |f| (the contour cannot
 //! see those jumps).
+//!
+//! Declined times: a value whose error estimate is not below
+//! max(|value|, 10⁻³·the largest meaningful |value|) carries no digit (the
+//! estimate includes the rounding growth e^{rt}·ε of the Talbot terms), and a
+//! value on a contour that a branch cut of F crosses (`contour_cuts`) is
+//! wrong by the integral across the cut: both are declined, time by time
+//! (`declined`), and the rest answered.
 
 // `!(a <= b)` is deliberate: a NaN must take the cautious branch.
 #![allow(clippy::neg_cmp_op_on_partial_ord)]
 
 use super::delay_estimate::{estimate_delay, left_growth_rate};
-use super::fixed_talbot::{invert, plan, TalbotError, NODES};
+use super::contour_cuts::crossing;
+use super::fixed_talbot::{invert, meaningful, plan, TalbotError, TalbotPlan, NODES};
 use crate::budget::Budget;
 use crate::error::Failure;
 use crate::expr::Function;
@@ -51,8 +59,12 @@ pub struct DelayedInversion {
     pub delay: Option<f64>,
     /// The points the contour was placed to enclose.
     pub enclosed: Vec<C>,
-    /// What the user must know (delays, unreliable values, fallbacks).
+    /// What the user must know (delays, unreliable values, fallbacks, declined times).
     pub warnings: Vec<String>,
+    /// Indices of the times the method cannot serve (no meaningful value there).
+    pub declined: Vec<usize>,
+    /// A point where a branch cut of F crosses the contour, when one does at some declined time.
+    pub cut_crossing: Option<C>,
 }
 
 /// Singular points the expression's structure reveals: denominator roots,
@@ -122,10 +134,11 @@ pub fn invert_with_delay(
     }
     let mut values = Vec::with_capacity(times.len());
     let mut errors = Vec::with_capacity(times.len());
+    let mut plans = Vec::with_capacity(times.len());
     let mut fallbacks = Vec::new();
     for &t in times {
         let result = match delay {
-            Some(tau) if t <= tau => Ok((C::new(0.0, 0.0), 0.0)),
+            Some(tau) if t <= tau => Ok((C::new(0.0, 0.0), 0.0, None)),
             Some(tau) => {
                 let shifted = t - tau;
                 let dropped = Cell::new(0.0);
@@ -135,18 +148,18 @@ pub fn invert_with_delay(
                 let contour_time =
                     shifted.max(2.0 * NODES as f64 * tau.abs() / (5.0 * LARGEST_SHIFT_EXPONENT));
                 match invert(&mut undelayed, shifted, plan(contour_time, enclosed, NODES), budget) {
-                    Ok(v) => Ok((v.value, v.error_estimate + dropped.get() * v.plan.r / v.plan.nodes as f64)),
+                    Ok(v) => Ok((v.value, v.error_estimate + dropped.get() * v.plan.r / v.plan.nodes as f64, Some(v.plan))),
                     Err(TalbotError::NotFinite { .. }) => {
                         // Still not computable: invert F itself; near the jump that value means little.
                         fallbacks.push(t);
-                        direct(&mut plain, t, enclosed, budget).map(|(v, e)| (v, e.max(v.norm()).max(1.0)))
+                        direct(&mut plain, t, enclosed, budget).map(|(v, e, p)| (v, e.max(v.norm()).max(1.0), p))
                     }
                     Err(e) => Err(e),
                 }
             }
             None => direct(&mut plain, t, enclosed, budget),
         };
-        let (v, e) = match result {
+        let (v, e, p) = match result {
             Ok(x) => x,
             Err(TalbotError::Budget(e)) => return Err(e.into()),
             Err(TalbotError::NotFinite { at }) => {
@@ -162,6 +175,7 @@ pub fn invert_with_delay(
         };
         values.push(v);
         errors.push(e);
+        plans.push(p);
     }
     let largest = values.iter().map(|v| v.norm()).fold(0.0, f64::max);
     if let Some(kappa) = mixed_delay {
@@ -172,11 +186,19 @@ pub fn invert_with_delay(
             }
         }
     }
+    let crossings = if f.analysis().uses_branch_functions {
+        cut_crossings(f, &plans, budget)?
+    } else {
+        vec![None; plans.len()]
+    };
+    let declined = declined_times(&values, &errors, &plans, &crossings);
+    let cut_crossing = declined.iter().find_map(|&i| crossings[i]);
     let unreliable: Vec<f64> = times
         .iter()
         .zip(values.iter().zip(&errors))
-        .filter(|(_, (v, &e))| !(e <= UNRELIABLE * v.norm().max(1e-8 * largest)))
-        .map(|(&t, _)| t)
+        .enumerate()
+        .filter(|(i, (_, (v, &e)))| !(e <= UNRELIABLE * v.norm().max(1e-8 * largest)) && !declined.contains(i))
+        .map(|(_, (&t, _))| t)
         .collect();
     if let Some(&t) = unreliable.first() {
         let hint = if delay.is_some() {
@@ -199,7 +221,80 @@ pub fn invert_with_delay(
             text::real(t)
         ));
     }
-    Ok(DelayedInversion { values, errors, delay, enclosed: enclosed.to_vec(), warnings })
+    if !declined.is_empty() {
+        warnings.push(declined_warning(times, &declined, cut_crossing));
+    }
+    Ok(DelayedInversion { values, errors, delay, enclosed: enclosed.to_vec(), warnings, declined, cut_crossing })
+}
+
+/// A cut crossing per time (checked once per distinct contour).
+fn cut_crossings(f: &Function, plans: &[Option<TalbotPlan>], budget: &mut Budget) -> Result<Vec<Option<C>>, Failure> {
+    let mut seen: Vec<(TalbotPlan, Option<C>)> = Vec::new();
+    let mut out = Vec::with_capacity(plans.len());
+    for p in plans {
+        let Some(p) = *p else {
+            out.push(None);
+            continue;
+        };
+        let known = seen.iter().find(|(q, _)| *q == p).map(|(_, x)| *x);
+        let x = match known {
+            Some(x) => x,
+            None => {
+                let x = crossing(&|s: C| f.eval(s), p, budget)?;
+                seen.push((p, x));
+                x
+            }
+        };
+        out.push(x);
+    }
+    Ok(out)
+}
+
+/// The times without a meaningful value: the estimate is not below
+/// max(|value|, 10⁻³ × the largest meaningful |value|) (`meaningful`), or a cut
+/// crosses the contour. Exact values (no contour: f = 0 before a delay) stay.
+pub fn declined_times(values: &[C], errors: &[f64], plans: &[Option<TalbotPlan>], crossings: &[Option<C>]) -> Vec<usize> {
+    let own = |v: &C, e: f64| e < v.norm();
+    let largest = values
+        .iter()
+        .zip(errors)
+        .zip(crossings)
+        .filter(|((v, &e), x)| own(v, e) && x.is_none())
+        .map(|((v, _), _)| v.norm())
+        .fold(0.0, f64::max);
+    (0..values.len())
+        .filter(|&i| {
+            plans[i].is_some()
+                && (crossings[i].is_some() || !meaningful(values[i], errors[i], largest))
+        })
+        .collect()
+}
+
+/// The sentence naming the declined times.
+fn declined_warning(times: &[f64], declined: &[usize], cut: Option<C>) -> String {
+    let shown: Vec<String> = declined.iter().take(8).map(|&i| text::real(times[i])).collect();
+    let more = if declined.len() > 8 { format!(" and {} more", declined.len() - 8) } else { String::new() };
+    format!(
+        "declined at {} of the times (t = {}{more}): no meaningful value, so \"f\" is null there; {}",
+        declined.len(),
+        shown.join(", "),
+        decline_reason(cut)
+    )
+}
+
+/// Why times are declined: a cut crossing the contour near `cut`, or estimates not below the values.
+pub fn decline_reason(cut: Option<C>) -> String {
+    match cut {
+        Some(at) => format!(
+            "a branch cut of F (as typed, principal branches) crosses the inversion contour near s = {}, so the \
+             contour misses the integral across the cut (or, at other times, the error estimate is not below the \
+             value): write F with its cuts running left (e.g. sqrt(s+i)*sqrt(s-i) for sqrt(s^2+1))",
+            text::complex(at, 0.0)
+        ),
+        None => "the error estimate is not below the value (the rounding of the contour's terms, which grow like \
+                 e^(r·t), or the two rules disagree)"
+            .into(),
+    }
 }
 
 /// The sentence on a detected delay (or time advance) τ.
@@ -222,8 +317,13 @@ fn delay_warning(tau: f64) -> String {
 }
 
 /// F itself inverted at `t` on the contour enclosing `enclosed`.
-fn direct(f: &mut dyn FnMut(C) -> C, t: f64, enclosed: &[C], budget: &mut Budget) -> Result<(C, f64), TalbotError> {
-    invert(f, t, plan(t, enclosed, NODES), budget).map(|v| (v.value, v.error_estimate))
+fn direct(
+    f: &mut dyn FnMut(C) -> C,
+    t: f64,
+    enclosed: &[C],
+    budget: &mut Budget,
+) -> Result<(C, f64, Option<TalbotPlan>), TalbotError> {
+    invert(f, t, plan(t, enclosed, NODES), budget).map(|v| (v.value, v.error_estimate, Some(v.plan)))
 }
 
 /// G(s) = F(s)·e^{τs} for the delayed inversion at time `t_shifted` = t − τ.
@@ -291,6 +391,22 @@ mod tests {
             |&t| C::new(1.0 / (std::f64::consts::PI * t).sqrt(), 0.0),
             1e-9,
         );
+    }
+
+    #[test]
+    fn times_without_a_meaningful_value_are_declined() {
+        // 1/sqrt(s² + 1) ↔ J₀(t) (DLMF 10.22.43), but the principal sqrt(s² + 1) is cut on the
+        // imaginary axis beyond ±i (common practice), across every contour enclosing ±i.
+        let enclosed = [C::new(0.0, 1.0), C::new(0.0, -1.0)];
+        let r = invert_with_delay(&compile("1/sqrt(s^2+1)"), &[1.0, 5.0], &enclosed, &mut Budget::default()).unwrap();
+        assert_eq!(r.declined, vec![0, 1], "{:?}", r.warnings);
+        assert!(r.cut_crossing.is_some_and(|at| at.re.abs() < 1e-6 && at.im.abs() > 1.0), "{:?}", r.cut_crossing);
+        // With the cuts running left from ±i, t = 1 is served (J₀(1) = 0.765197686557966551,
+        // mpmath 1.3 besselj) and t = 50 declined: the rounding of e^{rt}-sized terms leaves no digit.
+        let r = invert_with_delay(&compile("1/(sqrt(s+i)*sqrt(s-i))"), &[1.0, 50.0], &enclosed, &mut Budget::default()).unwrap();
+        assert_eq!(r.declined, vec![1], "{:?}", r.warnings);
+        assert_eq!(r.cut_crossing, None);
+        crate::reference::assert_estimate_bounds(r.values[0], r.errors[0], C::new(0.765197686557966551, 0.0), "J0(1)");
     }
 
     #[test]

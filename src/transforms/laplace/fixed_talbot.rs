@@ -11,10 +11,15 @@
 //! Both halves of the contour are summed (not 2·Re of one half), so F need not
 //! be real on the real axis; the imaginary part of the result is then f's.
 //!
-//! Error estimate: the value at two node counts M and M′ < M; their difference
-//! bounds the error of the finer one (the method converges geometrically),
-//! plus a rounding bound ε·Σ|terms| (the terms grow like e^{rt}, which is
-//! what limits the method in double precision).
+//! Error estimate: the values at three node counts M″ < M′ < M. Their
+//! difference |f_M − f_M″| bounds the error of the finest when convergence is
+//! fast; when it is slow (a singularity close to the widened contour), the
+//! ratio q = |f_M − f_M′|/|f_M′ − f_M″| of successive differences measures the
+//! geometric rate, and the tail of the geometric series, |f_M − f_M′|·q/(1 − q),
+//! doubled for safety, is the estimate (Richardson's reading of a
+//! geometrically converging sequence, common practice). Plus a rounding bound
+//! ε·Σ|terms| (the terms grow like e^{rt}, which is what limits the method in
+//! double precision).
 
 use crate::budget::{Budget, BudgetExceeded};
 use crate::C;
@@ -23,6 +28,8 @@ use crate::C;
 pub const NODES: usize = 24;
 /// Nodes of the coarser rule used for the error estimate.
 pub const NODES_COARSE: usize = 18;
+/// Nodes of the middle rule (the convergence rate between coarse and fine).
+pub const NODES_MIDDLE: usize = 21;
 /// Most nodes a widened contour may use.
 pub const MAX_NODES: usize = 400;
 /// Abate–Valkó's ratio r·t/M.
@@ -145,18 +152,16 @@ pub fn invert(
 ) -> Result<TalbotValue, TalbotError> {
     let (fine, magnitude) = talbot_sum(f, t, plan, budget)?;
     let coarse_nodes = (plan.nodes * NODES_COARSE).div_ceil(NODES).max(2);
-    let (coarse, _) = talbot_sum(
-        f,
-        t,
-        TalbotPlan {
-            nodes: coarse_nodes,
-            ..plan
-        },
-        budget,
-    )?;
+    let middle_nodes = (plan.nodes * NODES_MIDDLE).div_ceil(NODES).clamp(coarse_nodes + 1, plan.nodes.max(coarse_nodes + 2) - 1);
+    let mut at = |nodes: usize, budget: &mut Budget| talbot_sum(f, t, TalbotPlan { nodes, ..plan }, budget).map(|x| x.0);
+    let coarse = at(coarse_nodes, budget)?;
+    let middle = at(middle_nodes, budget)?;
     // Rounding: each term carries a few ulps from F and from exp; the sum adds m of them.
     let rounding = 64.0 * f64::EPSILON * magnitude;
-    let error_estimate = (fine - coarse).norm() + rounding;
+    let (d_fine, d_coarse) = ((fine - middle).norm(), (middle - coarse).norm());
+    let q = d_fine / d_coarse;
+    let tail = if q < 0.9 { 2.0 * d_fine * q / (1.0 - q) } else { 10.0 * d_fine.max(d_coarse) };
+    let error_estimate = (fine - coarse).norm().max(tail) + rounding;
     Ok(TalbotValue {
         value: fine,
         // Saturate rather than report infinity ("no digits" stays a number on the wire).
@@ -168,6 +173,27 @@ pub fn invert(
         rounding,
         plan,
     })
+}
+
+/// Relative floor of [`meaningful`]: a value below this × the scale of f counts as zero.
+pub const MEANINGFUL_FLOOR: f64 = 1e-3;
+
+/// True when a contour value has at least one meaningful digit: its error
+/// estimate is below max(|value|, `MEANINGFUL_FLOOR`·`scale`), `scale` being
+/// the size of f at the other times (so a value near a zero of f is kept).
+///
+/// ```
+/// use residuary::transforms::laplace::fixed_talbot::meaningful;
+/// use residuary::C;
+/// assert!(meaningful(C::new(0.5, 0.0), 1e-9, 1.0));
+/// assert!(meaningful(C::new(1e-12, 0.0), 1e-9, 1.0)); // near a zero of f
+/// assert!(!meaningful(C::new(8.8, 0.0), 900.0, 1.0)); // the estimate swamps the value
+/// assert!(!meaningful(C::new(1.0, 0.0), f64::NAN, 1.0));
+/// assert!(meaningful(C::new(0.0, 0.0), 0.0, 0.0)); // exactly zero
+/// ```
+pub fn meaningful(value: C, error_estimate: f64, scale: f64) -> bool {
+    // An exact zero (every term vanished) is meaningful too.
+    error_estimate < value.norm().max(MEANINGFUL_FLOOR * scale) || (error_estimate == 0.0 && value.is_finite())
 }
 
 /// f(t) at every time in `times` with the contour enclosing `singular`; `None`

@@ -107,19 +107,33 @@ impl ResidueForm {
     /// assert_eq!(form.singular_radius(), 0.5);
     /// ```
     pub fn values(&self, ns: &[u64]) -> Vec<(C, f64)> {
-        ns.iter().map(|&n| self.value(n)).collect()
+        let polar = self.polar();
+        ns.iter().map(|&n| self.value_with(n, &polar)).collect()
     }
 
     /// x[n] and a bound on its error.
     pub fn value(&self, n: u64) -> (C, f64) {
+        self.value_with(n, &self.polar())
+    }
+
+    /// Per pole, what does not depend on n: (|a|, ln|a|, arg a, ln(1 + δa/|a|)).
+    fn polar(&self) -> Vec<(f64, f64, f64, f64)> {
+        self.poles
+            .iter()
+            .map(|p| {
+                let r = p.at.norm();
+                (r, r.ln(), p.at.arg(), (p.at_error / r).ln_1p())
+            })
+            .collect()
+    }
+
+    fn value_with(&self, n: u64, polar: &[(f64, f64, f64, f64)]) -> (C, f64) {
         if n == 0 {
             return (self.constant, self.constant_error);
         }
         let mut sum = C::new(0.0, 0.0);
         let mut error = 0.0;
-        for pole in &self.poles {
-            let r = pole.at.norm();
-            let theta = pole.at.arg();
+        for (pole, &(r, ln_r, theta, ln_growth)) in self.poles.iter().zip(polar) {
             for (i, (&c, &dc)) in pole
                 .coefficients
                 .iter()
@@ -145,14 +159,12 @@ impl ResidueForm {
                     error += (c.norm() + dc) * perturbed + dc + 4.0 * EPS * value.norm();
                     continue;
                 }
-                let ln_size = ln_binom + m * r.ln();
-                let size = ln_size.exp();
+                let size = (ln_binom + m * ln_r).exp();
                 let term = c * C::from_polar(size, m * theta);
                 sum += term;
-                let da = pole.at_error;
                 // (r + δ)^m − r^m = r^m·expm1(m·ln1p(δ/r)).
-                let growth = (m * (da / r).ln_1p()).exp_m1();
-                let perturbed = (ln_size + m * (da / r).ln_1p()).exp();
+                let growth = (m * ln_growth).exp_m1();
+                let perturbed = size + size * growth;
                 error += c.norm() * size * growth
                     + dc * perturbed
                     + (8.0 + 4.0 * m + 2.0 * k as f64) * EPS * c.norm() * size;

@@ -18,7 +18,8 @@
 //! other sample) plus the rounding floor ε·max|X|·ρ^n·(4 + log₂N) + 4ε(n+1)|x̃|.
 //! Two radii that disagree by more than their estimates widen the estimate to
 //! the disagreement. Positive powers c_1, c_2, c_3 (read from the same FFT) must
-//! vanish: if not, X grows at infinity or has a singularity outside the circle.
+//! vanish: if not, X grows at infinity or has a singularity outside the circle;
+//! circles up to the largest such one are then dropped when a larger one is clean.
 //! The samples and the FFT are the one circle kernel's (`cauchy::circle`).
 //!
 //! ```
@@ -56,8 +57,14 @@ pub struct ContourResult {
     /// The largest circle (where positive powers were checked).
     pub largest_radius: f64,
     pub radii: Vec<f64>,
+    /// When a circle showed positive powers inside a clean larger one: its radius
+    /// (a singularity lies farther out than it, so |z| > this is the honest ROC bound).
+    pub inner_singularity: Option<f64>,
     pub warnings: Vec<String>,
 }
+
+/// Largest |c_m|ρ^m / max|X| (m = 1..3) on a circle accepted as rounding noise.
+pub const POSITIVE_POWER_LIMIT: f64 = 1e-9;
 
 struct Circle {
     radius: f64,
@@ -103,6 +110,23 @@ pub fn inverse_z_trapezoid(
     if circles.is_empty() {
         return Err(Failure::not_finite("X could not be sampled on any circle outside its singularities; check the expression (is X finite for large |z|?)"));
     }
+    // A circle whose expansion has positive powers lies inside a singularity the
+    // caller did not know (Laurent's theorem): it and every smaller circle are dropped,
+    // as long as a larger circle is clean (else the caller's own check refuses).
+    circles.sort_by(|a, b| a.radius.total_cmp(&b.radius));
+    let mut inner_singularity = None;
+    if let Some(k) = circles.iter().rposition(|c| c.positive_power_ratio > POSITIVE_POWER_LIMIT) {
+        if k + 1 < circles.len() {
+            let (inside, outside) = (circles[k].radius, circles[k + 1].radius);
+            warnings.push(format!(
+                "X has a singularity between |z| = {} and |z| = {} that was not found (its expansion on the smaller circle has positive powers): the circles inside it were not used; give \"singular_radius\" to be sure",
+                crate::text::real(inside),
+                crate::text::real(outside)
+            ));
+            inner_singularity = Some(inside);
+            circles.drain(..=k);
+        }
+    }
     let largest = circles
         .iter()
         .max_by(|a, b| a.radius.total_cmp(&b.radius))
@@ -143,6 +167,7 @@ pub fn inverse_z_trapezoid(
         positive_power_ratio: largest.1,
         largest_radius: largest.0,
         radii,
+        inner_singularity,
         warnings,
     })
 }
@@ -225,6 +250,29 @@ mod tests {
             assert!(v.error < 1e-13, "n={n} err={}", v.error);
         }
         assert!(r.positive_power_ratio < 1e-13);
+    }
+
+    #[test]
+    fn circles_inside_an_unknown_pole_are_dropped() {
+        // e^{0.5/z}/(1 − 0.3/z) told analytic for |z| > 0: the circles inside the pole at 0.3
+        // show positive powers and are dropped; x[n] = Σ_k (0.5^k/k!)·0.3^{n−k} (the Cauchy
+        // product of the two series at infinity, by construction).
+        let mut f = |z: C| (0.5 / z).exp() / (1.0 - 0.3 / z);
+        let ns = [0u64, 1, 2, 10, 30];
+        let r = inverse_z_trapezoid(&mut f, 0.0, &ns, 1 << 16, &mut Budget::default()).unwrap();
+        let inner = r.inner_singularity.expect("the pole is seen");
+        assert!(inner < 0.3 && r.radii.iter().all(|&rho| rho > 0.3), "{inner} {:?}", r.radii);
+        for (n, v) in ns.iter().zip(&r.values) {
+            let (mut term, mut want) = (1.0f64, 0.0f64);
+            for k in 0..=*n {
+                if k > 0 {
+                    term *= 0.5 / k as f64;
+                }
+                want += term * 0.3f64.powi((n - k) as i32);
+            }
+            let v = v.unwrap();
+            assert!((v.value.re - want).abs() <= v.error + 1e-15 * want, "n={n}: {} vs {want}", v.value.re);
+        }
     }
 
     #[test]
