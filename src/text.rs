@@ -8,6 +8,11 @@
 //!
 //! The page has its own `www/js/format.js` for what it shows.
 //!
+//! No text here ever spells a non-finite number (`NaN`, `inf`): a value that
+//! is not representable is written as [`NOT_REPRESENTABLE`], and a caller that
+//! writes such a value should also say so in a warning ([`representable`]
+//! tells). Infinite places in messages are `∞` / `−∞`.
+//!
 //! Method: rounding to a fixed number of significant digits through Rust's
 //! correctly rounded `{:e}` formatting, then the shortest text that reads back
 //! as that rounded value (common practice).
@@ -22,10 +27,19 @@
 
 use crate::C;
 
+/// What stands in the text for a number that is not representable (NaN, or
+/// an infinite value where a number is due). Documented in docs/contract.md.
+pub const NOT_REPRESENTABLE: &str = "(not representable)";
+
+/// Whether both parts of `z` are finite, so its text is a number.
+pub fn representable(z: C) -> bool {
+    z.re.is_finite() && z.im.is_finite()
+}
+
 /// Compact decimal text of a real number (12 significant digits, no trailing zeros).
 pub fn real(x: f64) -> String {
     if !x.is_finite() {
-        return format!("{x}");
+        return NOT_REPRESENTABLE.into();
     }
     let r: f64 = format!("{x:.11e}").parse().unwrap_or(x);
     if r == 0.0 {
@@ -39,6 +53,9 @@ pub fn real(x: f64) -> String {
 
 /// Text of a complex number at 12 digits; parts with magnitude ≤ `err` are dropped.
 pub fn complex(z: C, err: f64) -> String {
+    if !representable(z) {
+        return NOT_REPRESENTABLE.into();
+    }
     let re = if z.re.abs() <= err { 0.0 } else { z.re };
     let im = if z.im.abs() <= err { 0.0 } else { z.im };
     match (re == 0.0, im == 0.0) {
@@ -58,6 +75,9 @@ pub fn value(z: C) -> String {
 
 /// A place for messages: "2 + 0i", "1.5 − 0.25i".
 pub fn place(z: C) -> String {
+    if z.re.is_nan() || z.im.is_nan() {
+        return NOT_REPRESENTABLE.into();
+    }
     let sign = if z.im < 0.0 { '−' } else { '+' };
     format!("{} {} {}i", place_real(z.re), sign, place_real(z.im.abs()))
 }
@@ -65,6 +85,9 @@ pub fn place(z: C) -> String {
 /// A real number for messages: 6 decimals at most, trailing zeros dropped;
 /// exponent form below 1e-4 and from 1e9.
 pub fn place_real(x: f64) -> String {
+    if x.is_nan() {
+        return NOT_REPRESENTABLE.into();
+    }
     if x.is_infinite() {
         return if x > 0.0 { "∞".into() } else { "−∞".into() };
     }
@@ -77,6 +100,22 @@ pub fn place_real(x: f64) -> String {
         "0".into()
     } else {
         s.to_string()
+    }
+}
+
+/// A size in messages (an error, a distance, a defect) for `{:.Ne}`:
+/// `format!("{:.1e}", Sci(0.000123))` is "1.2e-4", as for the bare f64, but
+/// infinity is `∞` and NaN is [`NOT_REPRESENTABLE`].
+#[derive(Debug, Clone, Copy)]
+pub struct Sci(pub f64);
+
+impl std::fmt::LowerExp for Sci {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        if self.0.is_finite() {
+            std::fmt::LowerExp::fmt(&self.0, f)
+        } else {
+            f.write_str(&place_real(self.0))
+        }
     }
 }
 
@@ -102,6 +141,23 @@ mod tests {
         assert_eq!(place_real(1.0 / 3.0), "0.333333");
         assert_eq!(place_real(2e-5), "2.000000e-5");
         assert_eq!(place_real(f64::INFINITY), "∞");
+    }
+
+    /// By construction (the contract): no text spells NaN or inf.
+    #[test]
+    fn non_finite_values_are_a_word_not_nan() {
+        let nan = f64::NAN;
+        assert_eq!(real(nan), NOT_REPRESENTABLE);
+        assert_eq!(real(f64::NEG_INFINITY), NOT_REPRESENTABLE);
+        assert_eq!(complex(C::new(1.0, nan), 0.0), NOT_REPRESENTABLE);
+        assert_eq!(value(C::new(f64::INFINITY, 0.0)), NOT_REPRESENTABLE);
+        assert_eq!(place(C::new(nan, 1.0)), NOT_REPRESENTABLE);
+        assert_eq!(place(C::new(f64::INFINITY, 1.0)), "∞ + 1i");
+        assert_eq!(place_real(nan), NOT_REPRESENTABLE);
+        assert_eq!(format!("{:.2e}", Sci(nan)), NOT_REPRESENTABLE);
+        assert_eq!(format!("{:.1e}", Sci(1.23e-4)), "1.2e-4");
+        assert_eq!(format!("{:.1e}", Sci(f64::INFINITY)), "∞");
+        assert!(!representable(C::new(0.0, nan)) && representable(C::new(0.0, 1.0)));
     }
 
     /// Slow reference: read the text back as a number; 12 significant digits

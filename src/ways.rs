@@ -254,25 +254,25 @@ impl Verdict {
 
     /// One sentence on agreement; `why` says what may cause a disagreement.
     pub fn sentence(&self, why: &str) -> String {
-        let d = self.max_discrepancy;
-        let r = self.relative_discrepancy;
+        let d = crate::text::Sci(self.max_discrepancy);
+        let r = crate::text::Sci(self.relative_discrepancy);
         let main = match (self.agreement, self.worst) {
             (Agreement::Single, _) => format!("only the {} is available", self.compared()[0].name.words()),
-            (Agreement::Agree, _) => format!("{} agree to {r:.1e} relative to the value's size {:.1e} ({d:.1e} absolute)", self.who(), self.scale),
+            (Agreement::Agree, _) => format!("{} agree to {r:.1e} relative to the value's size {:.1e} ({d:.1e} absolute)", self.who(), crate::text::Sci(self.scale)),
             (Agreement::Covered, Some((loose, _))) => format!(
                 "{} differ by up to {d:.1e} ({r:.1e} relative); only the large error estimate of the {} ({:.1e}) covers that: {why}",
                 self.who(),
                 loose.name.words(),
-                loose.error
+                crate::text::Sci(loose.error)
             ),
             (_, Some((a, b))) => format!(
                 "{} and {} differ by {:.1e} ({:.1e} relative), more than their error estimates ({:.1e}, {:.1e}) allow: {why}",
                 a.name.words(),
                 b.name.words(),
-                (a.value - b.value).norm(),
-                (a.value - b.value).norm() / self.scale.max(f64::MIN_POSITIVE),
-                a.error,
-                b.error
+                crate::text::Sci((a.value - b.value).norm()),
+                crate::text::Sci((a.value - b.value).norm() / self.scale.max(f64::MIN_POSITIVE)),
+                crate::text::Sci(a.error),
+                crate::text::Sci(b.error)
             ),
             (_, None) => format!("{} differ by up to {d:.1e} ({r:.1e} relative): {why}", self.who()),
         };

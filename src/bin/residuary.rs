@@ -175,7 +175,7 @@ fn plot(args: &[String]) {
         fail("plot needs --f EXPR");
     }
     let output = output.unwrap_or_else(|| fail("plot needs -o FILE.png"));
-    let request = PhasePlotRequest { function, view, size, options, format: Some("png".into()), rows: None };
+    let request = PhasePlotRequest { function, view, size, options, format: Some("png".into()), rows: None, max_evaluations: None };
     let pixels = api::phase_plot_rgba(&request).unwrap_or_else(|e| fail(&e.to_string()));
     let png = residuary::plot::png_encode::encode_png_rgba(pixels.width, pixels.height, &pixels.rgba)
         .unwrap_or_else(|e| fail(&e.to_string()));

@@ -196,6 +196,12 @@ impl Function {
         &self.var
     }
 
+    /// Budget units one evaluation of f costs (`crate::budget::weight_for_program`
+    /// of its program's cost).
+    pub fn weight(&self) -> u64 {
+        crate::budget::weight_for_program(self.program.cost())
+    }
+
     /// The compiled instruction list (for inspection and tests).
     pub fn program(&self) -> &Program {
         &self.program

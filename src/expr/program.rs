@@ -122,6 +122,24 @@ pub struct Program {
     pub result: Reg,
 }
 
+impl Program {
+    /// The cost of one run in arithmetic operations: 1 per instruction, and
+    /// [`CALL_COST`] for a function call or a power by a non-integer (they
+    /// run exp, log or trigonometric kernels; measured, common practice).
+    pub fn cost(&self) -> usize {
+        self.ops
+            .iter()
+            .map(|op| match op {
+                Op::Call { .. } | Op::Pow { .. } | Op::Powf { .. } | Op::Powc { .. } | Op::KPow { .. } => CALL_COST,
+                _ => 1,
+            })
+            .sum()
+    }
+}
+
+/// Arithmetic operations one call of exp, log, sin, … costs, roughly.
+pub const CALL_COST: usize = 12;
+
 /// z^n by binary powering; z^0 = 1, negative n by a reciprocal.
 #[inline]
 pub fn powi(a: C, n: i32) -> C {

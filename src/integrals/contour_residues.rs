@@ -326,7 +326,8 @@ pub fn check_on_and_near(points: &[Singular], contour: &Contour) -> Result<Vec<S
             warnings.push(format!(
                 "{what} at {} lies only {d:.1e} from the contour ({:.1e} of its size): the quadrature converges slowly and a small change of the contour would change which side it is on",
                 text::value(p.at),
-                d / size
+                text::Sci(d / size),
+                d = text::Sci(d)
             ));
         }
     }

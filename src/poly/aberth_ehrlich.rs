@@ -130,6 +130,10 @@ fn initial_points(p: &[C]) -> Vec<C> {
             out.push(C::from_polar(radius, angle));
         }
     }
+    // A hull spoilt by overflow (|c| = ∞ for a finite c) still owes n starting points.
+    if out.len() != n {
+        out = (0..n).map(|j| C::from_polar(1.0, std::f64::consts::TAU * j as f64 / n as f64 + sigma)).collect();
+    }
     out
 }
 

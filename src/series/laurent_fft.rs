@@ -34,6 +34,8 @@ use crate::cauchy::circle::CircleSamples;
 pub const MAX_COEFFICIENTS: i64 = 4096;
 /// Largest |n| accepted.
 pub const MAX_INDEX: i64 = 1_000_000;
+/// Largest |center| accepted: beyond it |z − center|² overflows double precision.
+pub const MAX_CENTER: f64 = 1e150;
 /// Most samples on one circle.
 pub const MAX_SAMPLES_PER_CIRCLE: usize = 1 << 16;
 
@@ -303,7 +305,13 @@ fn combine(
 
 fn check_request(req: &LaurentRequest) -> Result<(C, f64, f64), Failure> {
     let center = match req.center {
-        Center::Point(a) if finite(a) => a,
+        Center::Point(a) if finite(a) && a.norm() < MAX_CENTER => a,
+        Center::Point(a) if finite(a) => {
+            return Err(Failure::invalid(format!(
+                "the center {} is too far out: distances to it do not fit double precision (|center| < {MAX_CENTER:e})",
+                text::place(a)
+            )))
+        }
         Center::Point(_) => return Err(Failure::invalid("the center must be a finite complex number")),
         Center::Infinity => C::new(0.0, 0.0),
     };
@@ -315,12 +323,15 @@ fn check_request(req: &LaurentRequest) -> Result<(C, f64, f64), Failure> {
     };
     if !(inner.is_finite() && inner >= 0.0) {
         return Err(Failure::invalid(format!(
-            "the inner radius must be a finite number ≥ 0, got {inner}"
+            "the inner radius must be a finite number ≥ 0, got {}",
+            text::place_real(inner)
         )));
     }
     if outer.is_nan() || outer <= inner {
         return Err(Failure::invalid(format!(
-            "the outer radius ({outer}) must be larger than the inner radius ({inner})"
+            "the outer radius ({}) must be larger than the inner radius ({})",
+            text::place_real(outer),
+            text::place_real(inner)
         )));
     }
     if req.from > req.to {
@@ -431,11 +442,15 @@ fn round_up(x: f64) -> String {
 }
 fn round_significant(x: f64, op: fn(f64) -> f64) -> String {
     if x <= 0.0 || !x.is_finite() {
-        return format!("{x}");
+        return text::place_real(x);
     }
     let p = 10f64.powi(5 - x.log10().floor() as i32);
     let r = op(x * p) / p;
-    format!("{r}")
+    if r.is_finite() && p.is_finite() {
+        text::real(r)
+    } else {
+        text::real(x)
+    }
 }
 
 #[cfg(test)]

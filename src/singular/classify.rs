@@ -312,7 +312,7 @@ fn analyse(
             error_estimate: 0.0,
             warnings: vec![format!(
                 "no punctured disk around {{at}} free of other singularities was found (down to radius {:.1e}): singularities such as poles accumulate at {{at}}, so it is not an isolated singularity and has no residue",
-                r
+                crate::text::Sci(r)
             )],
         });
     };
@@ -349,7 +349,8 @@ fn analyse(
             principal_part: Vec::new(),
             error_estimate: 0.0,
             warnings: vec![format!(
-                "f grows so fast near {{at}} that its residue there cannot be determined (estimated error {error:.1e}); singularities may accumulate at {{at}}, in which case no residue exists"
+                "f grows so fast near {{at}} that its residue there cannot be determined (estimated error {error:.1e}); singularities may accumulate at {{at}}, in which case no residue exists",
+                error = crate::text::Sci(error)
             )],
         });
     }

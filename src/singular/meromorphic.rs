@@ -414,7 +414,9 @@ fn locate(
     let mut zs = Vec::with_capacity(SAMPLES + 64);
     let mut fs = Vec::with_capacity(SAMPLES + 64);
     for (p, len) in pieces.iter().zip(&lengths) {
-        let n = ((SAMPLES as f64 * len / total).ceil() as usize).max(16);
+        // At least a few samples per piece, but not 16 on each of 20 000 edges.
+        let least = (SAMPLES / pieces.len().max(1)).clamp(1, 16);
+        let n = ((SAMPLES as f64 * len / total).ceil() as usize).max(least);
         for k in 0..n {
             let t = if p.is_periodic() {
                 k as f64 / n as f64
@@ -432,7 +434,10 @@ fn locate(
     // Data with a jump (a cut crosses c) cannot be fitted to 1e-12; a
     // shorter fit still places the poles and zeros away from the cut.
     let terms = if counted { MAX_TERMS } else { MAX_TERMS / 3 };
+    // A fit costs ~N·m³ (one SVD per step): take no more terms than the budget pays for.
+    let terms = terms.min(crate::budget::aaa_terms_within(zs.len(), budget.remaining()));
     let r = aaa(&zs, &fs, 1e-12, terms);
+    budget.spend_units(crate::budget::units_for_aaa(zs.len(), r.support.len()))?;
     let size = c.size();
     let near = |z: C| inside(c, z) || c.distance_to_boundary(z) < 0.1 * size;
     let mut refined: Vec<(C, Target, f64)> = Vec::new();

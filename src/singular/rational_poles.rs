@@ -88,7 +88,7 @@ pub fn sensitivity_warning(at: C, residue: C, error_estimate: f64) -> Option<Str
             "the residue at {} is uncertain (error estimate {:.1e}: about {} digits are certain); close poles make \
              residues ill-conditioned, and rounding the typed numbers to double precision moves them this much",
             describe(at),
-            error_estimate,
+            text::Sci(error_estimate),
             (-relative.log10()).floor().max(0.0)
         )
     })
@@ -139,7 +139,27 @@ fn cluster_warning(c: &RootCluster, what: &str) -> Option<String> {
 /// assert!(a.residue_at_infinity.norm() < 1e-8);
 /// ```
 pub fn analyse_rational(num: &[C], den: &[C]) -> Result<RationalAnalysis, Failure> {
-    analyse(num, den, None, None)
+    analyse(num, den, None, None).and_then(all_finite)
+}
+
+/// Refuse an analysis holding a non-finite number (a root finder overflowing
+/// on coefficients that span too many magnitudes, as 1e-300 z² + 1 does): a
+/// refusal with the reason, not NaN poles.
+fn all_finite(a: RationalAnalysis) -> Result<RationalAnalysis, Failure> {
+    let ok = |z: &C| z.re.is_finite() && z.im.is_finite();
+    let finite = a.poles.iter().all(|p| ok(&p.at) && ok(&p.residue) && p.principal_part.iter().all(ok))
+        && a.zeros.iter().all(|z| ok(&z.at))
+        && a.removable.iter().all(|r| ok(&r.at) && ok(&r.value))
+        && a.polynomial_part.iter().all(ok)
+        && ok(&a.residue_at_infinity);
+    if finite {
+        Ok(a)
+    } else {
+        Err(Failure::unresolved(
+            "the poles and zeros of this rational f could not be computed in double precision: its coefficients \
+             span too many orders of magnitude; rescale the variable or the coefficients",
+        ))
+    }
 }
 
 /// Value and derivative of f as the user typed it (products of factors kept).
@@ -153,7 +173,7 @@ pub type AsTyped<'a> = &'a dyn Fn(C) -> (C, C);
 /// iteration converges near where it started; the principal parts are then
 /// computed from the polished factors.
 pub fn analyse_rational_polished(num: &[C], den: &[C], as_typed: AsTyped) -> Result<RationalAnalysis, Failure> {
-    analyse(num, den, None, Some(as_typed))
+    analyse(num, den, None, Some(as_typed)).and_then(all_finite)
 }
 
 /// Like [`analyse_rational_polished`], and the roots are found factor by
@@ -176,7 +196,7 @@ pub fn analyse_rational_polished(num: &[C], den: &[C], as_typed: AsTyped) -> Res
 /// assert!((simple.residue.re * d * d - 1.0).abs() < 1e-6, "{simple:?}");
 /// ```
 pub fn analyse_factored(r: &Rational, as_typed: AsTyped) -> Result<RationalAnalysis, Failure> {
-    analyse(&r.num, &r.den, Some(r), Some(as_typed))
+    analyse(&r.num, &r.den, Some(r), Some(as_typed)).and_then(all_finite)
 }
 
 /// [`analyse_factored`] on f's own rational form, polished on f as typed;
@@ -461,7 +481,8 @@ fn analyse(num: &[C], den: &[C], factored: Option<&Rational>, as_typed: Option<A
             * (residue_at_infinity.norm() + sum.norm() + scale);
     if !(residue_sum_defect <= 10.0 * residue_sum_tolerance) {
         warnings.push(format!(
-            "the residues do not sum to zero within their error estimates (defect {residue_sum_defect:.3e}); some residues may be inaccurate"
+            "the residues do not sum to zero within their error estimates (defect {residue_sum_defect:.3e}); some residues may be inaccurate",
+            residue_sum_defect = text::Sci(residue_sum_defect)
         ));
     }
     Ok(RationalAnalysis {

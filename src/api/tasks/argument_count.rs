@@ -52,7 +52,7 @@ pub struct ArgumentCountResponse {
 pub fn run(req: &ArgumentCountRequest) -> Result<ArgumentCountResponse, ApiError> {
     let f = compile(&req.function)?;
     let contour = &checked_contour(&req.contour, "contour")?;
-    let mut budget = budget(req.max_evaluations);
+    let mut budget = budget(req.max_evaluations).weighted(f.weight());
     let (eval, eval_d) = (|z: C| f.eval(z), |z: C| f.eval_d(z));
     let count = count_by_argument_principle(&eval, contour, &mut budget)?;
     let (wound, method) = match f.rational() {

@@ -83,7 +83,7 @@ pub struct ContourIntegralResponse {
 pub fn run(req: &ContourIntegralRequest) -> Result<ContourIntegralResponse, ApiError> {
     let f = compile(&req.function)?;
     let contour = &checked_contour(&req.contour, "contour")?;
-    let mut budget = budget(req.max_evaluations);
+    let mut budget = budget(req.max_evaluations).weighted(f.weight());
     let (eval, eval_d) = (|z: C| f.eval(z), |z: C| f.eval_d(z));
     let hints = hints(&f);
 
@@ -110,7 +110,7 @@ pub fn run(req: &ContourIntegralRequest) -> Result<ContourIntegralResponse, ApiE
     if !q.converged {
         warnings.push(format!(
             "the quadrature did not reach its tolerance (error estimate {:.1e}); a singularity may lie close to the contour or f may jump across it",
-            q.error_estimate
+            crate::text::Sci(q.error_estimate)
         ));
     }
 

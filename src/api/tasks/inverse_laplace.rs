@@ -125,7 +125,7 @@ pub fn run(req: &InverseLaplaceRequest) -> Result<InverseLaplaceResponse, ApiErr
     let var = Some(req.var.clone().unwrap_or_else(|| "s".into()));
     let input = FunctionInput { f: String::new(), var, params: req.params.clone() };
     let f = compile_text(&req.f, &input, "F")?;
-    let mut budget = budget(req.max_evaluations);
+    let mut budget = budget(req.max_evaluations).weighted(f.weight());
     if let Some(r) = f.rational() {
         return rational(&f, &r.num.clone(), &r.den.clone(), &times, &mut budget);
     }

@@ -138,7 +138,7 @@ pub fn run(req: &InverseZRequest) -> Result<InverseZResponse, ApiError> {
     let input = FunctionInput { f: String::new(), var: req.var.clone(), params: req.params.clone() };
     let f = compile_text(&req.x, &input, "X")?;
     let ns = indices(&req.n)?;
-    let mut budget = budget(req.max_evaluations);
+    let mut budget = budget(req.max_evaluations).weighted(f.weight());
     let mut response = match f.rational() {
         Some(r) => rational(&f, &r.num, &r.den, &ns, &mut budget)?,
         None => general(&f, req.singular_radius, &ns, &mut budget)?,

@@ -7,7 +7,7 @@
 use crate::api::input::{budget, compile, hints, point};
 
 use crate::contour::Contour;
-use crate::api::wire::{FunctionInput, FUNCTION_FIELDS, Point};
+use crate::api::wire::{FunctionInput, BUDGET_FIELD, FUNCTION_FIELDS, Point};
 use crate::api::shape::{Expect, Field};
 use crate::api::error::{ApiError, ErrorCode};
 use crate::expr::Function;
@@ -25,6 +25,7 @@ pub const FIELDS: &[&[Field]] = &[
         Field::optional("outer", Expect::OrNull(&Expect::Real)),
         Field::required("from", Expect::Whole),
         Field::required("to", Expect::Whole),
+        BUDGET_FIELD,
     ],
 ];
 
@@ -41,6 +42,9 @@ pub struct LaurentRequest {
     pub outer: Option<f64>,
     pub from: i64,
     pub to: i64,
+    /// The work budget (docs/contract.md); the default when omitted.
+    #[serde(default)]
+    pub max_evaluations: Option<u64>,
 }
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -82,7 +86,7 @@ pub fn run(req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
         }
     }
     let mut warnings = Vec::new();
-    let mut budget = budget(None);
+    let mut budget = budget(req.max_evaluations).weighted(f.weight());
     let known = known_singularities(&f, center, inner, outer, &mut warnings, &mut budget);
     // "outer" omitted: as far as the nearest known singularity beyond "inner" allows.
     let outer = match (req.outer, center) {

@@ -1,8 +1,8 @@
 //! `phase_plot`: colour the view box by arg f (and |f| lines), as PNG or raw RGBA.
 
-use crate::api::input::compile;
+use crate::api::input::{budget, compile};
 
-use crate::api::wire::{FunctionInput, FUNCTION_FIELDS};
+use crate::api::wire::{FunctionInput, BUDGET_FIELD, FUNCTION_FIELDS};
 use crate::api::shape::{Expect, Field};
 use crate::api::error::ApiError;
 use crate::plot::colour_wheel::Wheel;
@@ -19,6 +19,7 @@ pub const FIELDS: &[&[Field]] = &[
         Field::optional("options", Expect::Object(OPTIONS_FIELDS)),
         Field::optional("format", Expect::OrNull(&Expect::Text)),
         Field::optional("rows", Expect::OrNull(&Expect::Exactly(2, &Expect::Count32))),
+        BUDGET_FIELD,
     ],
 ];
 
@@ -47,6 +48,9 @@ pub struct PhasePlotRequest {
     /// Optional `[first, end)` rows of the full image to render (for progressive drawing).
     #[serde(default)]
     pub rows: Option<[u32; 2]>,
+    /// The work budget (docs/contract.md): one evaluation per pixel of the rows drawn.
+    #[serde(default)]
+    pub max_evaluations: Option<u64>,
 }
 
 #[derive(Debug, Clone, Default, Serialize, Deserialize)]
@@ -99,6 +103,7 @@ pub fn pixels(req: &PhasePlotRequest) -> Result<Pixels, ApiError> {
     if band > 4 * 16_777_216 {
         return Err(ApiError::invalid("the image is too large; at most 16 million pixels"));
     }
+    budget(req.max_evaluations).weighted(f.weight()).spend(band as u64 / 4)?;
     let mut rgba = vec![0u8; band];
     let mut eval = |zs: &[C], out: &mut [C]| f.eval_block(zs, out);
     render_rows(&mut eval, View { x0, x1, y0, y1 }, width, height, first, end, &opts, &mut rgba)

@@ -122,7 +122,7 @@ pub fn run(req: &RealIntegralRequest) -> Result<RealIntegralResponse, ApiError> 
         params: req.function.params.clone(),
     };
     let f = compile(&input)?;
-    let mut budget = budget(req.max_evaluations);
+    let mut budget = budget(req.max_evaluations).weighted(f.weight());
     let mut warnings = Vec::new();
     let kind = req.kind.trim().to_ascii_lowercase();
     let (side, quadrature) = match kind.as_str() {
@@ -205,7 +205,7 @@ fn mellin(f: &Function, alpha: crate::C, budget: &mut Budget, warnings: &mut Vec
 /// Reconcile the two ways (residues preferred for rational f) and write the response.
 fn assemble(side: ResidueSide, q: QuadResult, mut warnings: Vec<String>) -> RealIntegralResponse {
     if !q.converged {
-        let e = q.error_estimate;
+        let e = crate::text::Sci(q.error_estimate);
         warnings.push(format!("the quadrature did not reach its tolerance (error estimate {e:.1e}); f may vary sharply or decay slowly"));
     }
     let residues = side.sum.as_ref().map(|s| Way::new(WayName::Residues, s.value, s.error));

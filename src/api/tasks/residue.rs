@@ -58,7 +58,7 @@ fn rational_at(f: &Function, rational: &crate::expr::Rational, a: C) -> Result<R
         let all: Vec<C> = analyse_function(f)
             .map(|x| x.poles.iter().map(|p| p.at).collect())
             .unwrap_or_default();
-        let check = cross_check(&|z| f.eval(z), &[(r.at, r.residue, r.error_estimate)], &all, &mut budget(None));
+        let check = cross_check(&|z| f.eval(z), &[(r.at, r.residue, r.error_estimate)], &all, &mut budget(None).weighted(f.weight()));
         if let Some(Some(bound)) = check.bounds.first() {
             error_estimate = error_estimate.max(*bound);
         }
@@ -66,7 +66,7 @@ fn rational_at(f: &Function, rational: &crate::expr::Rational, a: C) -> Result<R
             warnings.push(format!(
                 "the residue from the expanded polynomials disagrees with the trapezoidal rule on the expression \
                  as typed by {:.2e}; the expanded coefficients are sensitive to rounding, so this residue is uncertain",
-                check.worst
+                crate::text::Sci(check.worst)
             ));
         }
     } else {
@@ -109,7 +109,7 @@ fn rational_at_infinity(num: &[C], den: &[C]) -> Result<ResidueResponse, ApiErro
 
 fn general(f: &Function, at: Option<C>) -> Result<ResidueResponse, ApiError> {
     let hints = hints(f);
-    let mut budget = budget(None);
+    let mut budget = budget(None).weighted(f.weight());
     let eval = |z: C| f.eval(z);
     let r: PointResult = match at {
         Some(a) => classify_point(&eval, a, &hints, &mut budget),

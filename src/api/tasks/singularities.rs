@@ -105,7 +105,7 @@ fn rational(f: &Function, region: &Contour) -> Result<SingularitiesResponse, Api
     // Method 2: the trapezoidal rule on the expression as typed, one circle per pole.
     let claims: Vec<(C, C, f64)> = part.poles.iter().map(|p| (p.at, p.residue, p.error_estimate)).collect();
     let all: Vec<C> = a.poles.iter().map(|p| p.at).collect();
-    let check = cross_check(&|z| f.eval(z), &claims, &all, &mut budget(None));
+    let check = cross_check(&|z| f.eval(z), &claims, &all, &mut budget(None).weighted(f.weight()));
     for ((pole, bound), p) in poles.iter_mut().zip(&check.bounds).zip(&part.poles) {
         if let Some(b) = bound {
             pole.error_estimate = Some(pole.error_estimate.unwrap_or(0.0).max(*b));
@@ -120,7 +120,7 @@ fn rational(f: &Function, region: &Contour) -> Result<SingularitiesResponse, Api
             "{} residue(s) from the expanded polynomials disagree with the trapezoidal rule on the \
              expression as typed (by up to {:.2e}); the expanded coefficients are sensitive to rounding, so \
              these poles and residues are uncertain — their error estimates now include the disagreement",
-            check.disagreeing, check.worst
+            check.disagreeing, crate::text::Sci(check.worst)
         ));
     }
     if part.poles.iter().any(|p| p.order > 1 && p.order_inferred) {
@@ -129,7 +129,7 @@ fn rational(f: &Function, region: &Contour) -> Result<SingularitiesResponse, Api
     if a.residue_sum_defect > a.residue_sum_tolerance.max(1e-300) * 10.0 {
         warnings.push(format!(
             "the residues do not add up: |Σ residues + Res∞| = {:.2e} exceeds what rounding explains ({:.2e}); treat the residues with care",
-            a.residue_sum_defect, a.residue_sum_tolerance
+            crate::text::Sci(a.residue_sum_defect), crate::text::Sci(a.residue_sum_tolerance)
         ));
     }
     Ok(SingularitiesResponse {
@@ -148,7 +148,7 @@ fn rational(f: &Function, region: &Contour) -> Result<SingularitiesResponse, Api
 
 fn general(f: &Function, region: &Contour, max_evaluations: Option<u64>) -> Result<SingularitiesResponse, ApiError> {
     let hints = hints(f);
-    let mut budget = budget(max_evaluations);
+    let mut budget = budget(max_evaluations).weighted(f.weight());
     let eval = |z: C| f.eval(z);
     // Method 1: the region search (argument principle, AAA, Newton, classification).
     let found = find_singularities(&eval, &|z| f.eval_d(z), region, &hints, &mut budget)?;

@@ -146,7 +146,7 @@ pub fn check_no_positive_powers(contour: &ContourResult, radius: f64) -> Result<
     Err(Failure::not_applicable(format!(
         "on |z| = {} X has positive powers of z (relative size {:.1e}): either X grows as |z| → ∞ (then it is not the transform of a causal sequence) or X has a singularity farther out than |z| = {}; give \"singular_radius\" at least as large as every singularity's modulus",
         text::real(contour.largest_radius),
-        contour.positive_power_ratio,
+        text::Sci(contour.positive_power_ratio),
         text::real(radius)
     )))
 }
