@@ -258,7 +258,7 @@ impl Verdict {
         let r = crate::text::Sci(self.relative_discrepancy);
         let main = match (self.agreement, self.worst) {
             (Agreement::Single, _) => format!("only the {} is available", self.compared()[0].name.words()),
-            (Agreement::Agree, _) => format!("{} agree to {r:.1e} relative to the value's size {:.1e} ({d:.1e} absolute)", self.who(), crate::text::Sci(self.scale)),
+            (Agreement::Agree, _) => format!("{} agree to {r:.1e} relative ({d:.1e} absolute; values of size {:.1e})", self.who(), crate::text::Sci(self.scale)),
             (Agreement::Covered, Some((loose, _))) => format!(
                 "{} differ by up to {d:.1e} ({r:.1e} relative); only the large error estimate of the {} ({:.1e}) covers that: {why}",
                 self.who(),
