@@ -25,7 +25,7 @@
 //! |---|---|
 //! | `evaluate`, `phase_plot` | [`expr`] (compiler and evaluator), [`plot::phase_plot`], [`plot::colour_wheel`] |
 //! | `residue` | [`singular::rational_poles`], [`singular::rational_check`] (by [`cauchy::circle`]); [`singular::classify`] for other f |
-//! | `singularities` | [`singular::rational_poles`], [`singular::rational_in_region`], [`singular::rational_check`]; for other f [`singular::meromorphic`] (with [`singular::argument_principle`], [`singular::aaa`], [`singular::newton_refine`], [`singular::classify`], [`singular::cut_crossing`]), [`singular::removable`] |
+//! | `singularities` | [`singular::rational_poles`] (roots by [`poly::multiplicity`] and [`poly::pejorative`]), [`singular::rational_in_region`], [`singular::rational_check`]; for other f [`singular::meromorphic`] (with [`singular::argument_principle`], [`singular::aaa`], [`singular::newton_refine`], [`singular::classify`], [`singular::cut_crossing`]), [`singular::removable`] |
 //! | `laurent` | [`series::laurent_fft`] (by [`cauchy::circle`]) |
 //! | `partial_fractions` | [`singular::rational_poles`], [`poly::partial_fractions`] |
 //! | `contour_integral` | [`quad::contour_quadrature`], [`quad::split_at_cuts`], [`integrals::contour_residues`], [`contour::covering`], [`singular::region_search`] |

@@ -211,18 +211,7 @@ pub fn recip(w: C) -> C {
 /// a/b by Smith's algorithm (R. L. Smith, "Algorithm 116: Complex division", CACM 1962).
 #[inline]
 pub fn div(a: C, b: C) -> C {
-    if b.re == 0.0 && b.im == 0.0 {
-        return C::new(a.re / 0.0, a.im / 0.0);
-    }
-    if b.re.abs() >= b.im.abs() {
-        let r = b.im / b.re;
-        let d = b.re + b.im * r;
-        C::new((a.re + a.im * r) / d, (a.im - a.re * r) / d)
-    } else {
-        let r = b.re / b.im;
-        let d = b.re * r + b.im;
-        C::new((a.re * r + a.im) / d, (a.im * r - a.re) / d)
-    }
+    crate::poly::cdiv(a, b)
 }
 
 /// Principal asin by Kahan's formula: with ξ = √(1−z), η = √(1+z),

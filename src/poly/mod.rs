@@ -38,12 +38,14 @@ pub fn degree(p: &[C]) -> Option<usize> {
 /// a/b by Smith's algorithm (R. L. Smith, "Algorithm 116: Complex division",
 /// Comm. ACM 5 (1962) 435): scaled by the larger component of b, so that
 /// 1/(1e-300 + 0i) is 1e300, where the textbook (ac + bd)/(c² + d²) squares
-/// 1e-300 to 0 and gives NaN.
+/// 1e-300 to 0 and gives NaN. Division by zero gives (a.re/0, a.im/0): ±∞,
+/// or NaN in a zero component. The evaluator's division is this one.
+#[inline]
 pub fn cdiv(a: C, b: C) -> C {
+    if b.re == 0.0 && b.im == 0.0 {
+        return C::new(a.re / 0.0, a.im / 0.0);
+    }
     if b.re.abs() >= b.im.abs() {
-        if b.re == 0.0 {
-            return a / b; // b = 0: the ordinary rules (∞ or NaN)
-        }
         let r = b.im / b.re;
         let d = b.re + b.im * r;
         C::new((a.re + a.im * r) / d, (a.im - a.re * r) / d)
