@@ -140,7 +140,7 @@ fn unknown_fields_are_refused_with_the_nearest_known_name() {
     let (_, message, _) = error(json!({"task": "residue", "f": "1/(z-a)", "at": [0, 0], "a": 1}));
     assert_eq!(
         message,
-        "unknown field \"a\" in the \"residue\" request; the fields are \"task\", \"f\", \"var\", \"params\" and \"at\"; \
+        "unknown field \"a\" in the \"residue\" request; the fields are \"task\", \"f\", \"var\", \"params\", \"at\" and \"max_evaluations\"; \
          a parameter of the expression goes in \"params\": {\"a\": …}"
     );
 }

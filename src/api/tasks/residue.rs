@@ -5,7 +5,7 @@
 
 use crate::api::input::{budget, compile, hints, point};
 use crate::text;
-use crate::api::wire::{pair, FunctionInput, FUNCTION_FIELDS, Point, PointKind};
+use crate::api::wire::{pair, FunctionInput, BUDGET_FIELD, FUNCTION_FIELDS, Point, PointKind};
 use crate::api::shape::{Expect, Field};
 use crate::api::error::ApiError;
 use crate::expr::Function;
@@ -16,7 +16,7 @@ use crate::C;
 use serde::{Deserialize, Serialize};
 
 /// The declared fields of [`ResidueRequest`] (checked by `api::shape`).
-pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("at", Expect::Point)]];
+pub const FIELDS: &[&[Field]] = &[FUNCTION_FIELDS, &[Field::required("at", Expect::Point), BUDGET_FIELD]];
 
 /// `residue`: the residue of f at one point or at infinity.
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -24,6 +24,8 @@ pub struct ResidueRequest {
     #[serde(flatten)]
     pub function: FunctionInput,
     pub at: Point,
+    #[serde(default)]
+    pub max_evaluations: Option<u64>,
 }
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -42,13 +44,13 @@ pub struct ResidueResponse {
 pub fn run(req: &ResidueRequest) -> Result<ResidueResponse, ApiError> {
     let f = compile(&req.function)?;
     match (point(&req.at, "at")?, f.rational()) {
-        (Some(a), Some(r)) => rational_at(&f, r, a),
+        (Some(a), Some(r)) => rational_at(&f, r, a, req.max_evaluations),
         (None, Some(r)) => rational_at_infinity(&r.num, &r.den),
-        (at, None) => general(&f, at),
+        (at, None) => general(&f, at, req.max_evaluations),
     }
 }
 
-fn rational_at(f: &Function, rational: &crate::expr::Rational, a: C) -> Result<ResidueResponse, ApiError> {
+fn rational_at(f: &Function, rational: &crate::expr::Rational, a: C, max_evaluations: Option<u64>) -> Result<ResidueResponse, ApiError> {
     // Method 1: exact algebra at the point, polished on the expression as typed.
     let r = residue_at_point_factored(rational, a, &|z| f.eval_d(z))?;
     let mut warnings = Vec::new();
@@ -58,7 +60,7 @@ fn rational_at(f: &Function, rational: &crate::expr::Rational, a: C) -> Result<R
         let all: Vec<C> = analyse_function(f)
             .map(|x| x.poles.iter().map(|p| p.at).collect())
             .unwrap_or_default();
-        let check = cross_check(&|z| f.eval(z), &[(r.at, r.residue, r.error_estimate)], &all, &mut budget(None).weighted(f.weight()));
+        let check = cross_check(&|z| f.eval(z), &[(r.at, r.residue, r.error_estimate)], &all, &mut budget(max_evaluations).weighted(f.weight()));
         if let Some(Some(bound)) = check.bounds.first() {
             error_estimate = error_estimate.max(*bound);
         }
@@ -107,9 +109,9 @@ fn rational_at_infinity(num: &[C], den: &[C]) -> Result<ResidueResponse, ApiErro
     })
 }
 
-fn general(f: &Function, at: Option<C>) -> Result<ResidueResponse, ApiError> {
+fn general(f: &Function, at: Option<C>, max_evaluations: Option<u64>) -> Result<ResidueResponse, ApiError> {
     let hints = hints(f);
-    let mut budget = budget(None).weighted(f.weight());
+    let mut budget = budget(max_evaluations).weighted(f.weight());
     let eval = |z: C| f.eval(z);
     let r: PointResult = match at {
         Some(a) => classify_point(&eval, a, &hints, &mut budget),
