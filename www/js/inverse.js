@@ -136,7 +136,7 @@ export function askInverse(page, variable, span, open) {
   if (Number.isFinite(span)) {
     page.ui.inv.span.value = String(span);
     inverseSection.spanTyped = true;
-    page.ui.inv.box.dataset.var = variable; // a new variable would otherwise forget the span
+    inverseSection.keepSpanFor = variable; // a new variable would otherwise forget the span
   }
   if (typeof open === 'boolean') inverseSection.forceOpen = open;
 }
@@ -155,7 +155,8 @@ export function prepareInverse(page, base) {
   const wasVar = box.dataset.var;
   box.hidden = !kind;
   if (!kind) { page.inverseOpenNext = null; return; }
-  if (wasVar !== base.var) inverseSection.spanTyped = false;
+  if (wasVar !== base.var && inverseSection.keepSpanFor !== base.var) inverseSection.spanTyped = false;
+  inverseSection.keepSpanFor = null;
   // Open for s; for z folded unless the chosen example is a transfer function (or the user opened it).
   if (page.inverseOpenNext !== null) box.open = base.var === 's' || page.inverseOpenNext;
   else if (wasVar !== base.var) box.open = base.var === 's';

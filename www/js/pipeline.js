@@ -80,6 +80,11 @@ export function createPipeline(page, hooks) {
     const base = functionInput(state);
     page.results = { serial, base, contour };
     ui.regionNote.textContent = '';
+    ui.find.disabled = true;
+    ui.cancel.disabled = false;
+    ui.findStatus.textContent = 'Searching…';
+    ui.findStatus.className = 'find-status busy';
+    if (ui.ci.box.dataset.state !== 'none') contourStatus(ui.ci, 'Waiting for the search…', 'stale');
     // The current view as the region: a known pole or zero on its edge moves the edge out a little.
     if (state.region.mode === 'view') {
       const known = await rationalAnalysis(base);
@@ -94,11 +99,6 @@ export function createPipeline(page, hooks) {
         }
       }
     }
-    ui.find.disabled = true;
-    ui.cancel.disabled = false;
-    ui.findStatus.textContent = 'Searching…';
-    ui.findStatus.className = 'find-status busy';
-    if (ui.ci.box.dataset.state !== 'none') contourStatus(ui.ci, 'Waiting for the search…', 'stale');
     const resp = await searchSingularities(base, contour);
     if (serial !== page.searchSerial) return superseded;
     page.results.singularities = resp;
