@@ -137,7 +137,8 @@ export function installScripting(page, hooks) {
     }
     const problem = regionProblem(hooks.contour());
     if (problem) throw scriptError('invalid_field', 'region: ' + problem);
-    if (!('view' in partial) && !next.infinity) await hooks.fit();
+    const newFunction = ['f', 'var', 'params'].some((k) => k in partial);
+    if (newFunction && !('view' in partial) && !next.infinity) await hooks.fit();
     const outcome = await hooks.pipeline.find();
     if (outcome.status === 'failed') throw scriptError(outcome.error.code, outcome.error.message);
     if (outcome.status === 'superseded') throw scriptError('cancelled', 'a newer change or Stop came in before the panels finished');
