@@ -293,18 +293,24 @@ describe('the page with the real core', () => {
   });
 
   test('contour integral of a non-rational f: the outside way is "not available" with the reason', async () => {
-    await load(b.page, withState({ f: 'exp(z)/(z^2 + 4)', var: 'z', params: [], view: [-4, 4, -4, 4],
-      region: { mode: 'circle', rect: [-4, 4, -4, 4], circle: [0, 0, 3] } }));
-    await searchDone(b.page);
-    await contourDone(b.page);
+    const out = await scriptSet(b.page, { f: 'exp(z)/(z^2 + 4)', var: 'z', params: {}, view: [-4, 4, -4, 4],
+      region: { shape: 'circle', center: [0, 0], radius: 3 } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const ci = out.results.contour_integral;
+    assert.equal(ci.stale, false);
     // 2πi (e^{2i}/(4i) + e^{−2i}/(−4i)) = πi·sin 2 (simple poles, N/D'; common practice)
-    const v = JSON.parse(await b.page.getAttribute('#ci-value', 'data-value'));
+    const v = ci.value;
     assert.ok(Math.abs(v[0]) < 1e-10 && Math.abs(v[1] - Math.PI * Math.sin(2)) < 1e-10, `integral ${v}`);
+    assert.equal(ci.by_outside_residues, null);
+    assert.ok(Math.abs(ci.by_quadrature[1] - Math.PI * Math.sin(2)) < 1e-10, JSON.stringify(ci.by_quadrature));
+    assert.ok(Math.abs(ci.by_inside_residues[1] - Math.PI * Math.sin(2)) < 1e-10, JSON.stringify(ci.by_inside_residues));
+    assert.equal(typeof ci.not_available.outside_residues, 'string');
+    assert.equal(out.results.partial_fractions.error.code, 'not_applicable', 'exp(z)/(z²+4) is not rational');
+    // what the user sees: the same value, and the missing way named with its reason
+    assert.deepEqual(JSON.parse(await b.page.getAttribute('#ci-value', 'data-value')), v);
     const ways = await contourWays(b.page);
     assert.equal(ways.outside_residues.value, null);
     assert.match(ways.outside_residues.text, /—, not available: outside residues are computed for rational f only/);
-    assert.ok(Math.abs(ways.quadrature.value[1] - Math.PI * Math.sin(2)) < 1e-10);
-    assert.ok(Math.abs(ways.inside_residues.value[1] - Math.PI * Math.sin(2)) < 1e-10);
     assert.match(await b.page.textContent('#ci-verdict'), /2 ways/);
     assert.equal(await b.page.isVisible('#ci-warnings li'), true);
   });
