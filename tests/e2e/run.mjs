@@ -97,6 +97,11 @@ function contourWays(page) {
 
 const view = (page) => page.evaluate(() => JSON.parse(decodeURIComponent(location.hash.slice(3))).view);
 
+/** The scripting interface (docs/scripting.md): set resolves {ok, results} or {ok: false, error}. */
+const scriptSet = (page, st) => page.evaluate((st) => window.residuary.set(st).then((results) => ({ ok: true, results }), (error) => ({ ok: false, error })), st);
+const scriptState = (page) => page.evaluate(() => window.residuary.state());
+const scriptResults = (page) => page.evaluate(() => window.residuary.results());
+
 async function pickDemo(page, title) {
   const options = await page.$$eval('#demo-select option', (os) => os.map((o) => o.textContent));
   const index = options.findIndex((t) => t.startsWith(title));
@@ -234,8 +239,13 @@ describe('the page with the real core', () => {
     await b.page.waitForFunction(() => document.getElementById('inv-box').dataset.state === 'done', null, { timeout: 30000 });
     assert.equal(await b.page.evaluate(() => document.getElementById('inv-box').open), true, 'the section is open for s');
     assert.match(await b.page.textContent('#inv-title'), /Inverse Laplace transform/);
-    const { x: t, y: f } = JSON.parse(await b.page.getAttribute('#inv-chart', 'data-points'));
+    await b.page.evaluate(() => window.residuary.settled());
+    const inverse = (await scriptResults(b.page)).inverse_laplace;
+    assert.equal(inverse.stale, false);
+    const { t, f } = inverse;
     assert.equal(t.length, 120);
+    // the chart draws the same numbers
+    assert.deepEqual(JSON.parse(await b.page.getAttribute('#inv-chart', 'data-points')), { x: t, y: f });
     // impulse response of a second-order low-pass: (ωn/√(1−ζ²)) e^{−ζωn t} sin(ωd t), ωd = ωn√(1−ζ²) (common practice)
     const wn = 2, zeta = 0.3, wd = wn * Math.sqrt(1 - zeta * zeta);
     for (const i of [0, 7, 30, 59, 119]) {
@@ -283,18 +293,24 @@ describe('the page with the real core', () => {
   });
 
   test('contour integral of a non-rational f: the outside way is "not available" with the reason', async () => {
-    await load(b.page, withState({ f: 'exp(z)/(z^2 + 4)', var: 'z', params: [], view: [-4, 4, -4, 4],
-      region: { mode: 'circle', rect: [-4, 4, -4, 4], circle: [0, 0, 3] } }));
-    await searchDone(b.page);
-    await contourDone(b.page);
+    const out = await scriptSet(b.page, { f: 'exp(z)/(z^2 + 4)', var: 'z', params: {}, view: [-4, 4, -4, 4],
+      region: { shape: 'circle', center: [0, 0], radius: 3 } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const ci = out.results.contour_integral;
+    assert.equal(ci.stale, false);
     // 2πi (e^{2i}/(4i) + e^{−2i}/(−4i)) = πi·sin 2 (simple poles, N/D'; common practice)
-    const v = JSON.parse(await b.page.getAttribute('#ci-value', 'data-value'));
+    const v = ci.value;
     assert.ok(Math.abs(v[0]) < 1e-10 && Math.abs(v[1] - Math.PI * Math.sin(2)) < 1e-10, `integral ${v}`);
+    assert.equal(ci.by_outside_residues, null);
+    assert.ok(Math.abs(ci.by_quadrature[1] - Math.PI * Math.sin(2)) < 1e-10, JSON.stringify(ci.by_quadrature));
+    assert.ok(Math.abs(ci.by_inside_residues[1] - Math.PI * Math.sin(2)) < 1e-10, JSON.stringify(ci.by_inside_residues));
+    assert.equal(typeof ci.not_available.outside_residues, 'string');
+    assert.equal(out.results.partial_fractions.error.code, 'not_applicable', 'exp(z)/(z²+4) is not rational');
+    // what the user sees: the same value, and the missing way named with its reason
+    assert.deepEqual(JSON.parse(await b.page.getAttribute('#ci-value', 'data-value')), v);
     const ways = await contourWays(b.page);
     assert.equal(ways.outside_residues.value, null);
     assert.match(ways.outside_residues.text, /—, not available: outside residues are computed for rational f only/);
-    assert.ok(Math.abs(ways.quadrature.value[1] - Math.PI * Math.sin(2)) < 1e-10);
-    assert.ok(Math.abs(ways.inside_residues.value[1] - Math.PI * Math.sin(2)) < 1e-10);
     assert.match(await b.page.textContent('#ci-verdict'), /2 ways/);
     assert.equal(await b.page.isVisible('#ci-warnings li'), true);
   });
@@ -459,7 +475,9 @@ describe('the page with the real core', () => {
     await pickDemo(b.page, 'Gamma');
     await searchDone(b.page);
     assert.match(await b.page.textContent('#find-status'), /numerical/);
-    const rows = await b.page.$$eval('#sing-body tr[data-index]', (trs) => trs.map((t) => ({ at: JSON.parse(t.dataset.at), residue: JSON.parse(t.dataset.residue) })));
+    const found = (await b.page.evaluate(() => window.residuary.settled())).singularities;
+    assert.equal(found.method, 'numerical');
+    const rows = found.poles;
     assert.equal(rows.length, 6, `expected the poles 0 … −5, got ${rows.length}`);
     for (const r of rows) {
       const n = Math.round(-r.at[0]);
@@ -467,6 +485,121 @@ describe('the page with the real core', () => {
       for (let k = 2; k <= n; k++) fact *= k;
       assert.ok(Math.abs(r.residue[0] - (n % 2 ? -1 : 1) / fact) < 1e-9, `residue at −${n}: ${r.residue}`);
     }
+  });
+
+  test('scripting: set → results round-trip for the low-pass filter (poles, integral, impulse response)', async () => {
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: LOWPASS, var: 's', params: { wn: 2, zeta: 0.3 }, region: { shape: 'circle', center: [0, 0], radius: 5 }, t: 5 });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const r = await scriptResults(b.page);
+    assert.deepEqual(r, out.results, 'set resolves with results()');
+    // common practice (second-order section): poles −ζωn ± iωn√(1−ζ²), residues ±ωn/(2i√(1−ζ²))
+    const wn = 2, zeta = 0.3, wd = wn * Math.sqrt(1 - zeta * zeta);
+    assert.equal(r.singularities.stale, false);
+    assert.equal(r.singularities.method, 'rational');
+    const poles = r.singularities.poles.slice().sort((p, q) => p.at[1] - q.at[1]);
+    assert.equal(poles.length, 2);
+    assert.ok(Math.abs(poles[0].at[0] + zeta * wn) < 1e-12 && Math.abs(poles[0].at[1] + wd) < 1e-12, `${poles[0].at}`);
+    assert.ok(Math.abs(poles[1].residue[1] + wn / (2 * Math.sqrt(1 - zeta * zeta))) < 1e-12, `${poles[1].residue}`);
+    // the circle of radius 5 holds both poles; Σ residues = 0 (deg den − deg num = 2), so ∮ = 0
+    assert.deepEqual(r.contour_integral.contour, { shape: 'circle', center: [0, 0], radius: 5 });
+    assert.ok(Math.hypot(...r.contour_integral.value) < 1e-10, `∮ = ${r.contour_integral.value}`);
+    assert.equal(r.argument_count.zeros_minus_poles, -2);
+    // impulse response (ωn/√(1−ζ²)) e^{−ζωn t} sin(ωd t) (common practice), on t = T/120 … T with T = 5
+    const inv = r.inverse_laplace;
+    assert.equal(inv.t.length, 120);
+    assert.ok(Math.abs(inv.t[119] - 5) < 1e-12);
+    for (const i of [0, 40, 119]) {
+      const want = (wn / Math.sqrt(1 - zeta * zeta)) * Math.exp(-zeta * wn * inv.t[i]) * Math.sin(wd * inv.t[i]);
+      assert.ok(Math.abs(inv.f[i] - want) < 1e-9, `f(${inv.t[i]}) = ${inv.f[i]} vs ${want}`);
+    }
+    assert.match(r.partial_fractions.text, /s/);
+    // what the user sees is the same search
+    assert.equal(await b.page.getAttribute('#plot', 'data-markers'), '2');
+    // a change makes every entry stale until the next search
+    await b.page.fill('#expr', '1/(s + 1)');
+    assert.equal((await scriptResults(b.page)).singularities.stale, true);
+  });
+
+  test('scripting: state() after set equals what was set (normalised)', async () => {
+    await load(b.page);
+    const want = { f: '1/(z^2 + 0.5*z + 2)', var: 'z', params: { a: [0.3, 0.1], k: 2 }, view: [-2, 2, -2, 2],
+      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true }, n: 12 };
+    const out = await scriptSet(b.page, want);
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const got = await scriptState(b.page);
+    for (const k of ['f', 'var', 'params', 'region', 'panels', 'n']) assert.deepEqual(got[k], want[k], k);
+    assert.deepEqual(got.contour, want.region, 'the contour is the region');
+    assert.equal(got.phase, true);
+    // the plot shows at least the view asked for (widened to its own aspect)
+    assert.ok(got.view[0] <= -2 + 1e-9 && got.view[1] >= 2 - 1e-9 && got.view[2] <= -2 + 1e-9 && got.view[3] >= 2 - 1e-9, `${got.view}`);
+    assert.equal(out.results.inverse_z.n.length, 13);
+    // the controls show the same state
+    assert.equal(await b.page.inputValue('#expr'), want.f);
+    assert.equal(await b.page.isChecked('#opt-phase'), true);
+    // and the link carries it in the page's own shape
+    await b.page.waitForTimeout(400); // the address is written after a short pause
+    const fromLink = await b.page.evaluate(() => JSON.parse(decodeURIComponent(location.hash.slice(3))));
+    assert.equal(fromLink.region.mode, 'circle');
+    assert.deepEqual(fromLink.params.map((p) => [p.name, p.value]), [['a', '0.3+0.1i'], ['k', '2']]);
+  });
+
+  test('scripting: a bad f rejects with code "expression"; a bad field with "bad_request"', async () => {
+    const bad = await scriptSet(b.page, { f: '(z+1', var: 'z' });
+    assert.equal(bad.ok, false);
+    assert.equal(bad.error.code, 'expression');
+    assert.match(bad.error.message, /\(/);
+    assert.equal(await b.page.getAttribute('#expr', 'aria-invalid'), 'true', 'the page shows the same error');
+    const odd = await scriptSet(b.page, { f: '1/z', colour: 'red' });
+    assert.equal(odd.ok, false);
+    assert.equal(odd.error.code, 'bad_request');
+  });
+
+  test('a 1 kHz resonator opens fitted: both poles inside the view', async () => {
+    // w = 2π·1000 ≈ 6283, ζ = 0.01: poles −ζw ± iw√(1−ζ²) (common practice: second-order section)
+    await b.page.goto(pageUrl + withState({ f: 'w^2/(s^2+2*zeta*w*s+w^2)', var: 's', params: [{ name: 'w', value: '6283' }, { name: 'zeta', value: '0.01' }] }));
+    await b.page.reload();
+    await b.page.waitForSelector('body[data-ready=true]', { timeout: 20000 });
+    const r = await b.page.evaluate(() => window.residuary.settled());
+    const v = (await scriptState(b.page)).view;
+    const w = 6283, zeta = 0.01;
+    const poles = [[-zeta * w, w * Math.sqrt(1 - zeta * zeta)], [-zeta * w, -w * Math.sqrt(1 - zeta * zeta)]];
+    for (const p of poles) assert.ok(p[0] > v[0] && p[0] < v[1] && p[1] > v[2] && p[1] < v[3], `pole ${p} outside the view ${v}`);
+    // with a margin: not squeezed against the edge, and not so wide that the poles merge
+    assert.ok(v[3] > 1.05 * poles[0][1] && v[3] < 2 * poles[0][1], `view ${v}`);
+    assert.equal(r.singularities.poles.length, 2);
+    assert.equal(await b.page.isVisible('#zoom-fit'), true);
+    assert.equal(await b.page.isVisible('#fit-note'), false, 'two poles of one modulus span no decades');
+  });
+
+  test('poles spanning decades: one line under the plot; Fit after a pan brings them back', async () => {
+    // 1/((s + 1)(s + 1e4)): poles −1 and −1e4 (by inspection), four decades apart
+    const out = await scriptSet(b.page, { f: '1/((s + 1)*(s + 1e4))', var: 's', params: {} });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    assert.equal(await b.page.isVisible('#fit-note'), true);
+    assert.match(await b.page.textContent('#fit-note'), /span 4 decades .*fitted to the largest/);
+    const fitted = (await scriptState(b.page)).view;
+    assert.ok(fitted[0] < -1e4 && fitted[1] > -1, `${fitted}`);
+    await b.page.click('#zoom-small');
+    await b.page.waitForTimeout(200);
+    const small = (await scriptState(b.page)).view;
+    assert.ok(small[1] - small[0] < 100 && small[0] < -1 && small[1] > -1, `zoom to the small pole: ${small}`);
+    await b.page.click('#zoom-fit');
+    await b.page.waitForTimeout(200);
+    assert.deepEqual((await scriptState(b.page)).view, fitted);
+  });
+
+  test('a pole on the edge of the current view: the region is widened and the panel says so', async () => {
+    // 1/(z^2 + 1): poles ±i (by inspection), on the top and bottom edges of the view [−1, 1]²
+    const out = await scriptSet(b.page, { f: '1/(z^2 + 1)', var: 'z', params: {}, view: [-1, 1, -1, 1], region: 'view' });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const s = out.results.singularities;
+    assert.ok(s.nudge && s.nudge.widened_by > 0, JSON.stringify(s.nudge));
+    assert.equal(s.poles.length, 2, 'both poles are inside the widened region');
+    const [[x0, y0], [x1, y1]] = s.region.corners;
+    assert.ok(y1 > 1 && y0 < -1 && x1 - x0 > 2, `${s.region.corners}`);
+    assert.match(await b.page.textContent('#region-note'), /^The region was widened by .* so that the pole at z = .*i is not on its edge\.$/);
+    assert.equal((await scriptState(b.page)).region, 'view');
   });
 
   test('works at 800 px wide without sideways scrolling', async () => {

@@ -129,6 +129,24 @@ function inverseSpan(page, kind) {
   return inverseSection.spanTyped && Number.isFinite(typed) && typed > 0 ? Math.min(1e6, typed) : defaultSpan(page.found.items);
 }
 
+/** For the scripting interface, before the next search for the variable `variable`: the span
+ *  (T for s, N for z; null keeps the typed or default one) and whether the section is open
+ *  (null keeps the page's usual choice). */
+export function askInverse(page, variable, span, open) {
+  if (Number.isFinite(span)) {
+    page.ui.inv.span.value = String(span);
+    inverseSection.spanTyped = true;
+    inverseSection.keepSpanFor = variable; // a new variable would otherwise forget the span
+  }
+  if (typeof open === 'boolean') inverseSection.forceOpen = open;
+}
+
+/** The span now in use, T (s) or N (z), or null for a variable with no inverse transform. */
+export function currentInverseSpan(page, variable) {
+  const kind = inverseKind(variable);
+  return kind ? inverseSpan(page, kind) : null;
+}
+
 /** After a search: show the section for s or z, in words fitting the variable, open or folded. */
 export function prepareInverse(page, base) {
   const inv = page.ui.inv;
@@ -137,11 +155,14 @@ export function prepareInverse(page, base) {
   const wasVar = box.dataset.var;
   box.hidden = !kind;
   if (!kind) { page.inverseOpenNext = null; return; }
-  if (wasVar !== base.var) inverseSection.spanTyped = false;
+  if (wasVar !== base.var && inverseSection.keepSpanFor !== base.var) inverseSection.spanTyped = false;
+  inverseSection.keepSpanFor = null;
   // Open for s; for z folded unless the chosen example is a transfer function (or the user opened it).
   if (page.inverseOpenNext !== null) box.open = base.var === 's' || page.inverseOpenNext;
   else if (wasVar !== base.var) box.open = base.var === 's';
   page.inverseOpenNext = null;
+  if (typeof inverseSection.forceOpen === 'boolean') box.open = inverseSection.forceOpen;
+  inverseSection.forceOpen = null;
   box.dataset.var = base.var;
   if (kind === 'laplace') {
     inv.title.textContent = 'Inverse Laplace transform f(t)';
@@ -178,6 +199,7 @@ export async function runInverse(page, base) {
   if (serial !== inverseSection.serial) return;
   showInverse(inv, request, resp);
   inverseSection.key = JSON.stringify(request);
+  if (page.results) { page.results.inverse = resp; page.results.inverseRequest = request; }
 }
 
 /** Stop pressed: an inverse transform in progress is dropped. */

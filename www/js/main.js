@@ -2,7 +2,7 @@
 // region editor and the search pipeline. Everything the user types is kept (see state.js).
 import { $, debounce } from './dom.js';
 import { Engine, startEngine } from './engine.js';
-import { loadState, saveState, fromHash, toHash } from './state.js';
+import { loadState, saveState, fromHash, toHash, hashGivesView, hasStoredState } from './state.js';
 import { showUnderline, syncMirror, checkExpression } from './expr-input.js';
 import { renderParams, functionInput } from './params.js';
 import { createPlot, plotDescription } from './plot.js';
@@ -13,12 +13,15 @@ import { attachInverseSection } from './inverse.js';
 import { drawInverseChart } from './inverse-chart.js';
 import { drawWheelKey, fillMarkerKey } from './legend.js';
 import { demoList, demoState, fillExampleMenu, forgetExampleIfChanged } from './demos.js';
+import { rationalAnalysis, fitView } from './fit.js';
+import { installScripting } from './scripting.js';
 
 const state = loadState();
 const ui = {
   expr: $('expr'), mirror: $('expr-mirror'), message: $('expr-message'), varName: $('var-name'),
   params: $('params'), modulus: $('opt-modulus'), phase: $('opt-phase'), infinity: $('opt-infinity'),
   wheel: $('opt-wheel'), canvas: $('plot'), readout: $('readout'), plotStatus: $('plot-status'),
+  fit: $('zoom-fit'), fitNote: $('fit-note'), fitNoteText: $('fit-note-text'), zoomSmall: $('zoom-small'), regionNote: $('region-note'),
   find: $('find'), cancel: $('cancel-find'), autoFind: $('auto-find'), findStatus: $('find-status'),
   resInf: $('res-inf'), sumCheck: $('sum-check'), stability: $('stability'), stabilityBox: $('stability-box'),
   stabilityTitle: $('stability-title'), warnings: $('warnings'), tbody: $('sing-body'), singTable: $('sing-table'),
@@ -90,15 +93,53 @@ function showNoPicture() {
   plot.draw();
 }
 
-const afterTyping = debounce(() => {
+function checkTyped() {
   page.exprOk = checkExpression(ui, state);
   if (page.exprOk) plot.render();
   else showNoPicture();
+  showFitControl();
+  return page.exprOk;
+}
+const afterTyping = debounce(() => {
+  checkTyped();
   pipeline.autoSearchSoon();
 }, 120);
 
+// ---- fitting the view to a rational f ----------------------------------------------------------
+
+/** The Fit button shows while f is rational (the core's partial fractions answer). */
+async function showFitControl() {
+  if (!page.exprOk || !Engine.ready) { ui.fit.hidden = true; return; }
+  const base = functionInput(state);
+  const known = await rationalAnalysis(base);
+  if (JSON.stringify(functionInput(state)) !== JSON.stringify(base)) return;
+  ui.fit.hidden = !(known && known.rational && fitView(known.poles, known.zeros));
+}
+
+/** Fit the view to every finite pole and zero of a rational f (10 % margin); says so under the
+ *  plot when the poles span decades. Resolves true when the view was fitted. */
+async function fitToPoints() {
+  if (!page.exprOk || !Engine.ready || state.infinity) return false;
+  const base = functionInput(state);
+  const known = await rationalAnalysis(base);
+  if (JSON.stringify(functionInput(state)) !== JSON.stringify(base) || state.infinity) return false;
+  const fit = known && known.rational ? fitView(known.poles, known.zeros) : null;
+  ui.fit.hidden = !fit;
+  if (!fit) return false;
+  ui.fitNote.hidden = !fit.decades;
+  if (fit.decades) {
+    ui.fitNoteText.textContent = fit.decades.note;
+    ui.zoomSmall.hidden = !fit.decades.smallView;
+    page.smallView = fit.decades.smallView;
+  }
+  plot.homeView = fit.view.slice();
+  plot.reset();
+  return true;
+}
+
 function inputsChanged() {
   forgetExampleIfChanged(state);
+  ui.fitNote.hidden = true;
   pipeline.markStale();
   persist();
   showUnderline(ui.mirror, state.f, null);
@@ -161,6 +202,8 @@ ui.infinity.addEventListener('change', () => {
 $('zoom-in').addEventListener('click', () => plot.zoom(1 / 1.5));
 $('zoom-out').addEventListener('click', () => plot.zoom(1.5));
 $('zoom-reset').addEventListener('click', () => plot.reset());
+ui.fit.addEventListener('click', () => fitToPoints());
+ui.zoomSmall.addEventListener('click', () => { if (page.smallView) plot.show(page.smallView); });
 ui.find.addEventListener('click', pipeline.find);
 ui.cancel.addEventListener('click', pipeline.stop);
 ui.autoFind.addEventListener('change', () => { state.autoFind = ui.autoFind.checked; persist(); });
@@ -191,6 +234,9 @@ select.addEventListener('change', () => {
   adopt(Object.assign(demoState(d), { infinity: false, region: Object.assign({}, state.region, { mode: 'view' }) }));
   $('demo-description').hidden = !d.description;
   $('demo-description').textContent = d.description || '';
+  // A rational example opens fitted to its poles and zeros.
+  afterTyping.cancel();
+  if (checkTyped()) fitToPoints().then(() => pipeline.autoSearchSoon());
 });
 
 // A link followed while the page is open (only the address hash changes).
@@ -217,13 +263,23 @@ plot.setView(state.view);
 applyStateToControls();
 ui.message.textContent = 'Loading the computing core…';
 
-startEngine().then(() => {
+// A page opened with no view of its own (no link's view, nothing kept) fits a rational f.
+const fitOnOpen = fromHash(window.location.hash) ? !hashGivesView(window.location.hash) : !hasStoredState();
+const started = startEngine().then(async () => {
   $('version').textContent = Engine.ready ? `Core version ${Engine.version}.` : '';
   drawWheelKey($('wheel'), state.wheel);
-  page.exprOk = checkExpression(ui, state);
-  if (page.exprOk) plot.render();
-  else showNoPicture();
+  checkTyped();
+  if (page.exprOk && fitOnOpen) await fitToPoints();
   if (page.exprOk && state.autoFind) pipeline.find();
   document.body.dataset.workers = String(Engine.usesWorkers);
   document.body.dataset.ready = 'true';
+});
+
+installScripting(page, {
+  started,
+  adopt,
+  checkNow: () => { afterTyping.cancel(); return checkTyped(); },
+  fit: fitToPoints,
+  contour: () => region.contour(),
+  pipeline,
 });

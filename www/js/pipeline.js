@@ -14,12 +14,18 @@ import {
 } from './singularities.js';
 import { requestContourIntegral, requestArgumentCount, showContourIntegral, showArgumentCount, contourStatus } from './contour.js';
 import { inverseStatus, prepareInverse, runInverse, stopInverse } from './inverse.js';
+import { rationalAnalysis, nudgeOffEdges, nudgeNote } from './fit.js';
 
 /** The pipeline over `page` (state, ui, plot, exprOk, found, searchSerial, readingOpenNext; see
- *  main.js). Hooks: contour() (the region's contour now), describePlot() (after the markers change). */
+ *  main.js). Hooks: contour() (the region's contour now), describePlot() (after the markers change).
+ *  Every run keeps what each panel computed in page.results ({serial, base, contour, singularities,
+ *  contour_integral, argument_count, inverse, partial_fractions}: the core's responses) and ends with
+ *  an outcome: {status: 'done'}, {status: 'failed', error: {code, message}} or {status: 'superseded'}
+ *  (a newer run, a change or Stop came in). `settled()` resolves when the latest run has ended. */
 export function createPipeline(page, hooks) {
   const { state, ui } = page;
   const plot = () => page.plot;
+  let latestRun = Promise.resolve({ status: 'done' });
 
   const autoSearch = debounce(() => { if (state.autoFind) find(); }, 700);
 
@@ -44,24 +50,58 @@ export function createPipeline(page, hooks) {
     if (st === 'done' || st === 'error') contourStatus(ui.ci, 'The region changed: the integral below is for the contour named above; search again to update it.', 'stale');
   }
 
-  async function find() {
+  /** Run the pipeline now; resolves with its outcome (see above). */
+  function find() {
+    const run = runPipeline();
+    latestRun = run;
+    return run;
+  }
+
+  /** Resolves with the outcome of the latest run once it has ended (and no newer one began). */
+  async function settled() {
+    for (;;) {
+      const run = latestRun;
+      const outcome = await run;
+      if (run === latestRun) return outcome;
+    }
+  }
+
+  async function runPipeline() {
+    const superseded = { status: 'superseded' };
     autoSearch.cancel();
     if (!Engine.ready || !page.exprOk) {
       ui.findStatus.textContent = page.exprOk ? 'The computing core is not ready.' : 'Fix the function first.';
-      return;
+      return { status: 'failed', error: Engine.ready ? { code: 'expression', message: 'fix the function first' } : { code: 'not_ready', message: 'the computing core is still loading' } };
     }
-    const contour = hooks.contour();
+    let contour = hooks.contour();
     const problem = regionProblem(contour);
-    if (problem) { ui.findStatus.textContent = 'Region: ' + problem + '.'; return; }
+    if (problem) { ui.findStatus.textContent = 'Region: ' + problem + '.'; return { status: 'failed', error: { code: 'invalid_field', message: 'region: ' + problem } }; }
     const serial = ++page.searchSerial;
     const base = functionInput(state);
+    page.results = { serial, base, contour };
+    ui.regionNote.textContent = '';
     ui.find.disabled = true;
     ui.cancel.disabled = false;
     ui.findStatus.textContent = 'Searching…';
     ui.findStatus.className = 'find-status busy';
     if (ui.ci.box.dataset.state !== 'none') contourStatus(ui.ci, 'Waiting for the search…', 'stale');
+    // The current view as the region: a known pole or zero on its edge moves the edge out a little.
+    if (state.region.mode === 'view') {
+      const known = await rationalAnalysis(base);
+      if (serial !== page.searchSerial) return superseded;
+      if (known && known.rational) {
+        const nudge = nudgeOffEdges(contour, known.poles.concat(known.zeros));
+        if (nudge.widenedBy > 0) {
+          contour = nudge.contour;
+          page.results.contour = contour;
+          page.results.nudge = { widened_by: nudge.widenedBy, at: nudge.at, note: nudgeNote(base.var, nudge, known.poles) };
+          ui.regionNote.textContent = page.results.nudge.note;
+        }
+      }
+    }
     const resp = await searchSingularities(base, contour);
-    if (serial !== page.searchSerial) return;
+    if (serial !== page.searchSerial) return superseded;
+    page.results.singularities = resp;
     ui.findStatus.className = 'find-status';
     const err = responseError(resp);
     if (err) {
@@ -69,7 +109,7 @@ export function createPipeline(page, hooks) {
       ui.cancel.disabled = true;
       ui.findStatus.textContent = err.code === 'cancelled' ? 'Search stopped.' : 'Search failed: ' + err.message;
       contourStatus(ui.ci, 'Not computed: the search did not finish.', 'stale');
-      return;
+      return { status: 'failed', error: { code: err.code, message: err.message } };
     }
     ui.singTable.classList.remove('stale');
     const size = contour.shape === 'circle' ? contour.radius
@@ -108,21 +148,24 @@ export function createPipeline(page, hooks) {
     // The contour integral three ways, then the argument-principle count (still cancellable by Stop).
     contourStatus(ui.ci, 'Computing the contour integral three ways…', 'busy');
     const ci = await requestContourIntegral(base, contour);
-    if (serial !== page.searchSerial) return;
+    if (serial !== page.searchSerial) return superseded;
+    page.results.contour_integral = ci;
     showContourIntegral(ui.ci, base.var, contour, state.region.mode === 'view', ci);
     const count = await requestArgumentCount(base, contour);
-    if (serial !== page.searchSerial) return;
+    if (serial !== page.searchSerial) return superseded;
+    page.results.argument_count = count;
     showArgumentCount(ui.ci, count);
     // Then the inverse transform (s or z), when its section is open; Stop still cancels it.
     if (!ui.inv.box.hidden && ui.inv.box.open) {
       await runInverse(page, base);
-      if (serial !== page.searchSerial) return;
+      if (serial !== page.searchSerial) return superseded;
     }
     ui.find.disabled = false;
     ui.cancel.disabled = true;
     // Partial fractions, shown only when f is rational (the task answers).
     const pf = await runHeavy(Object.assign({}, base, { task: 'partial_fractions' }));
-    if (serial !== page.searchSerial) return;
+    if (serial !== page.searchSerial) return superseded;
+    page.results.partial_fractions = pf;
     const pfErr = responseError(pf);
     ui.partial.hidden = Boolean(pfErr) || typeof pf.text !== 'string';
     ui.pfWarnings.textContent = '';
@@ -130,6 +173,7 @@ export function createPipeline(page, hooks) {
       ui.partial.textContent = 'Partial fractions: ' + pf.text;
       for (const w of Array.isArray(pf.warnings) ? pf.warnings : []) ui.pfWarnings.append(el('li', { text: 'Partial fractions: ' + String(w) }));
     }
+    return { status: 'done' };
   }
 
   /** Stop pressed: whatever is computing is dropped and the heavy worker restarted. */
@@ -168,7 +212,7 @@ export function createPipeline(page, hooks) {
   }
 
   return {
-    find, stop, pick, markStale, regionMoved,
+    find, stop, pick, markStale, regionMoved, settled,
     /** Search after a pause, when automatic search is on. */
     autoSearchSoon() { if (state.autoFind) autoSearch(); },
   };

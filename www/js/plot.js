@@ -44,6 +44,8 @@ export function createPlot(canvas, hooks) {
   }
   plot.zoom = (factor, at) => { if (zoomAbout(plot, factor, at)) viewChanged(); };
   plot.reset = () => { setView(plot, plot.homeView); viewChanged(); };
+  /** Show at least `v` = [x0, x1, y0, y1], as a pan or zoom would. */
+  plot.show = (v) => { setView(plot, v); viewChanged(); };
   attachInput(plot, viewChanged, hooks);
   return plot;
 }

@@ -74,6 +74,18 @@ export function fromHash(hash) {
   }
 }
 
+/** Does the hash carry a state with a view of its own? */
+export function hashGivesView(hash) {
+  const m = /^#s=(.*)$/.exec(hash || '');
+  if (!m) return false;
+  try { const raw = JSON.parse(decodeURIComponent(m[1])); return Boolean(raw && Array.isArray(raw.view)); } catch (e) { return false; }
+}
+
+/** Has this browser kept a state of the page? */
+export function hasStoredState() {
+  return Boolean(safeStorage.get(STORAGE_KEY));
+}
+
 /** Where the page starts: the link's hash first, then what this browser kept, then the defaults. */
 export function loadState() {
   const fromLink = fromHash(window.location.hash);

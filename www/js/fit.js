@@ -1,0 +1,127 @@
+// Fitting the view to a rational f: every finite pole and zero, found by the core's
+// partial fractions of f (its poles) and of 1/f (the poles of 1/f are the zeros of f),
+// a box around them with a margin, and a note when the poles span many decades.
+// Also the nudge that keeps a singularity off the edge of the "current view" region.
+import { runHeavy, responseError } from './engine.js';
+import { fmtReal, fmtComplex } from './format.js';
+
+/** Largest / smallest nonzero pole modulus above which the view says the poles span decades. */
+export const FIT_DECADES = 1e3;
+/** Margin around the points, as a fraction of their span. */
+export const FIT_MARGIN = 0.1;
+/** A point this close to the region's edge (relative to the region's size) counts as on it. */
+export const EDGE_RELATIVE = 1e-9;
+
+const analysisCache = { key: '', value: null };
+
+/** The key of a function input {f, var, params}. */
+function analysisKey(base) {
+  return JSON.stringify([base.f, base.var, base.params]);
+}
+
+/** The finite poles and zeros of a rational f: {rational: true, poles, zeros} (each a list of
+ *  [re, im], each point once), or {rational: false} when f is not rational, or null when the
+ *  core could not answer (stopped, still loading). Cached for the last function asked. */
+export async function rationalAnalysis(base) {
+  const key = analysisKey(base);
+  if (analysisCache.key === key) return analysisCache.value;
+  const pf = await runHeavy(Object.assign({}, base, { task: 'partial_fractions' }));
+  const err = responseError(pf);
+  let value;
+  if (err) {
+    if (err.code !== 'not_applicable') return null;
+    value = { rational: false };
+  } else {
+    const inv = await runHeavy(Object.assign({}, base, { f: `1/(${base.f})`, task: 'partial_fractions' }));
+    const invErr = responseError(inv);
+    if (invErr && invErr.code !== 'not_applicable') return null;
+    const atOf = (resp) => distinct((Array.isArray(resp.terms) ? resp.terms : []).map((t) => t.at));
+    value = { rational: true, poles: atOf(pf), zeros: invErr ? [] : atOf(inv) };
+  }
+  analysisCache.key = key;
+  analysisCache.value = value;
+  return value;
+}
+
+/** The same points once each (partial fractions list a pole of order m m times). */
+function distinct(points) {
+  const out = [];
+  for (const p of points) {
+    if (!Array.isArray(p) || !p.every(Number.isFinite)) continue;
+    if (!out.some((q) => q[0] === p[0] && q[1] === p[1])) out.push(p);
+  }
+  return out;
+}
+
+/** The view [x0, x1, y0, y1] (square: the plot widens it to its own aspect) holding every point
+ *  with a margin of FIT_MARGIN of the span, and at least a minimal size; with `decades` set (and
+ *  a one-line `note`) when the nonzero pole moduli span more than FIT_DECADES. Null for no point. */
+export function fitView(poles, zeros) {
+  const pts = poles.concat(zeros);
+  if (!pts.length) return null;
+  const xs = pts.map((p) => p[0]);
+  const ys = pts.map((p) => p[1]);
+  const [x0, x1, y0, y1] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
+  const largest = Math.max(...pts.map((p) => Math.hypot(p[0], p[1])));
+  let span = Math.max(x1 - x0, y1 - y0);
+  // One point, or points closer together than their distance from 0 can show: a box of the
+  // size of their modulus (or 2 around the origin), so that the neighbourhood is seen.
+  const minimal = Math.max(largest > 0 ? 0.5 * largest : 2, 1e-12);
+  if (!(span >= minimal * 1e-6)) span = minimal;
+  const half = (span * (1 + 2 * FIT_MARGIN)) / 2;
+  const cx = (x0 + x1) / 2;
+  const cy = (y0 + y1) / 2;
+  const view = [cx - half, cx + half, cy - half, cy + half];
+  const moduli = poles.map((p) => Math.hypot(p[0], p[1])).filter((m) => m > 0);
+  let decades = null;
+  if (moduli.length > 1) {
+    const big = Math.max(...moduli);
+    const small = Math.min(...moduli);
+    if (big / small > FIT_DECADES) {
+      decades = { largest: big, smallest: small };
+      decades.note = `The poles span ${fmtReal(Math.log10(big / small), 2)} decades (|p| from ${fmtReal(small, 3)} to ${fmtReal(big, 3)}): ` +
+        'the view is fitted to the largest, so the small ones sit near the origin.';
+      // the view that holds the small ones: those within FIT_DECADES of the smallest
+      const isNear = (p) => Math.hypot(p[0], p[1]) <= small * FIT_DECADES;
+      const nearPoles = poles.filter(isNear);
+      const nearZeros = zeros.filter(isNear);
+      decades.smallView = nearPoles.length + nearZeros.length < pts.length ? fitView(nearPoles, nearZeros).view : null;
+    }
+  }
+  return { view, decades };
+}
+
+/** The region's contour moved off the points that lie on its edge: a rectangle whose edge passes
+ *  within EDGE_RELATIVE (of its size) of a point is widened on every side by a small amount.
+ *  Returns {contour, widenedBy, at} (widenedBy 0 when nothing moved). */
+export function nudgeOffEdges(contour, points) {
+  if (contour.shape !== 'rectangle' || !points.length) return { contour, widenedBy: 0, at: null };
+  let [[a, b], [c, d]] = contour.corners;
+  let x0 = Math.min(a, c), x1 = Math.max(a, c), y0 = Math.min(b, d), y1 = Math.max(b, d);
+  const size = Math.max(x1 - x0, y1 - y0);
+  const onEdge = () => points.find((p) => {
+    const tol = EDGE_RELATIVE * Math.max(size, Math.abs(p[0]), Math.abs(p[1]));
+    const inX = p[0] >= x0 - tol && p[0] <= x1 + tol;
+    const inY = p[1] >= y0 - tol && p[1] <= y1 + tol;
+    return (inY && (Math.abs(p[0] - x0) <= tol || Math.abs(p[0] - x1) <= tol)) ||
+      (inX && (Math.abs(p[1] - y0) <= tol || Math.abs(p[1] - y1) <= tol));
+  });
+  let at = onEdge();
+  if (!at) return { contour, widenedBy: 0, at: null };
+  const first = at;
+  let step = 1e-4 * size;
+  let widened = 0;
+  for (let k = 0; k < 8 && at; k++) {
+    x0 -= step; x1 += step; y0 -= step; y1 += step;
+    widened += step;
+    step *= 1.618; // a new edge that lands on another point moves again, by a different amount
+    at = onEdge();
+  }
+  return { contour: { shape: 'rectangle', corners: [[x0, y0], [x1, y1]] }, widenedBy: widened, at: first };
+}
+
+/** The sentence for the singularities panel after a nudge. */
+export function nudgeNote(variable, nudge, poles) {
+  const what = poles.includes(nudge.at) ? 'pole' : 'zero';
+  return `The region was widened by ${fmtReal(nudge.widenedBy, 3)} on every side so that the ${what} at ${variable} = ${fmtComplex(nudge.at, 6)} is not on its edge.`;
+}
