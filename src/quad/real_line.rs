@@ -64,6 +64,11 @@ pub fn pv_kernel_integral(a: f64, b: f64) -> f64 {
 /// on the path (`Divergent`) at `what` = the point.
 fn on_path(e: QuadError, what: &str) -> Failure {
     match e {
+        QuadError::NotFinite { at } if at.is_infinite() => Failure::not_finite(format!(
+            "f gives no finite number as {what} → {}∞ (the expression cannot be evaluated that far out in double precision); \
+             check the expression, or integrate over a finite range where it is negligible",
+            if at < 0.0 { "−" } else { "+" }
+        )),
         QuadError::NotFinite { at } => Failure::divergent(format!(
             "f is not finite at {what} = {at:.6e}: a singularity lies on the path of integration, so the integral diverges there; check the expression"
         )),

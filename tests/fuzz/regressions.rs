@@ -43,6 +43,9 @@ const CASES: &[&str] = &[
     // factors overflows the residues' error estimates.
     r#"{"contour":{"center":[-2.375,-2.5],"radius":0.9619366422684023,"shape":"circle"},"f":"1e308/((z-(1+1*i))^2*(z-(0+0*i))^2*(z-(2))^1)","max_evaluations":2000,"task":"contour_integral"}"#,
     r#"{"f":"1e308/((z-(-2))^1*(z-(2))^2*(z-(1+2*i))^2)","region":{"shape":"circle","center":[0,0],"radius":5},"task":"singularities"}"#,
+    // "x = inf" in the real-integral refusal (seed 23 of the long run): coth(w) is NaN at w = ∞,
+    // where the substituted line integral samples its end point.
+    r#"{"f":"1e-320/(coth(w))","kind":"line","max_evaluations":2000,"omega":3.25,"task":"real_integral","var":"w"}"#,
 ];
 
 /// A budget bounds the three tasks that had none: work far beyond a budget of
