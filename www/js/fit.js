@@ -53,6 +53,13 @@ function distinct(points) {
   return out;
 }
 
+/** The smallest of 1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 6, 8 (× a power of ten) at least x > 0. */
+function niceUp(x) {
+  const p = Math.pow(10, Math.floor(Math.log10(x)));
+  const m = [1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 6, 8, 10].find((v) => v * p >= x * (1 - 1e-12));
+  return m * p;
+}
+
 /** The view [x0, x1, y0, y1] (square: the plot widens it to its own aspect) holding every point
  *  with a margin of FIT_MARGIN of the span, and at least a minimal size; with `decades` set (and
  *  a one-line `note`) when the nonzero pole moduli span more than FIT_DECADES. Null for no point. */
@@ -68,9 +75,12 @@ export function fitView(poles, zeros) {
   // size of their modulus (or 2 around the origin), so that the neighbourhood is seen.
   const minimal = Math.max(largest > 0 ? 0.5 * largest : 2, 1e-12);
   if (!(span >= minimal * 1e-6)) span = minimal;
-  const half = (span * (1 + 2 * FIT_MARGIN)) / 2;
-  const cx = (x0 + x1) / 2;
-  const cy = (y0 + y1) / 2;
+  // Round to numbers a reader can take in: the half-width up to 1, 1.2, 1.5, 2, 2.5, 3, 4, 5,
+  // 6 or 8 times a power of ten, the centre to a twentieth of it (the margin absorbs the shift).
+  const half = niceUp((span * (1 + 2 * FIT_MARGIN)) / 2);
+  const step = half / 20;
+  const cx = Math.round((x0 + x1) / 2 / step) * step;
+  const cy = Math.round((y0 + y1) / 2 / step) * step;
   const view = [cx - half, cx + half, cy - half, cy + half];
   const moduli = poles.map((p) => Math.hypot(p[0], p[1])).filter((m) => m > 0);
   let decades = null;
