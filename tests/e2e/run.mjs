@@ -572,6 +572,24 @@ describe('the page with the real core', () => {
     assert.equal(await b.page.isVisible('#fit-note'), false, 'two poles of one modulus span no decades');
   });
 
+  test('the 1 kHz resonator\'s impulse response is sampled densely enough not to alias', async () => {
+    // h(t) = (wn/√(1−ζ²)) e^{−ζ wn t} sin(wd t), wd = wn√(1−ζ²) (impulse response of the standard
+    // second-order system, e.g. Ogata, Modern Control Engineering, from memory); ≥ 20 samples per
+    // period 2π/wd (issue 9), up to the page's cap of 4000 times.
+    const w = 6283, zeta = 0.01, wd = w * Math.sqrt(1 - zeta * zeta);
+    const out = await scriptSet(b.page, { f: 'w^2/(s^2+2*zeta*w*s+w^2)', var: 's', params: { w, zeta }, panels: { inverse: true } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const inv = out.results.inverse_laplace;
+    const T = inv.t[inv.t.length - 1];
+    const periods = (T * wd) / (2 * Math.PI);
+    assert.ok(inv.t.length >= Math.min(4000, 20 * periods), `${inv.t.length} samples for ${periods.toFixed(0)} periods`);
+    for (const k of [0, 7, Math.floor(inv.t.length / 2), inv.t.length - 1]) {
+      const t = inv.t[k];
+      const want = (w / Math.sqrt(1 - zeta * zeta)) * Math.exp(-zeta * w * t) * Math.sin(wd * t);
+      assert.ok(Math.abs(inv.f[k] - want) <= 1e-8 * w, `h(${t}) = ${inv.f[k]}, want ${want}`);
+    }
+  });
+
   test('poles spanning decades: one line under the plot; Fit after a pan brings them back', async () => {
     // 1/((s + 1)(s + 1e4)): poles −1 and −1e4 (by inspection), four decades apart
     const out = await scriptSet(b.page, { f: '1/((s + 1)*(s + 1e4))', var: 's', params: {} });

@@ -9,8 +9,21 @@ import { fmtReal } from './format.js';
 import { runHeavy, responseError } from './engine.js';
 import { drawInverseChart } from './inverse-chart.js';
 
-/** How many times t the s-chart samples in (0, T]. */
+/** Fewest times t the s-chart samples in (0, T]; more when the poles oscillate (see timeCount). */
 export const INVERSE_TIMES = 120;
+/** Most times one chart asks for (the contract allows 10 000). */
+export const INVERSE_MAX_TIMES = 4000;
+/** Samples per period of the fastest oscillation, so that none aliases (issue: ≥ 20). */
+const PER_PERIOD = 20;
+
+/** How many times to sample (0, T]: at least INVERSE_TIMES, and PER_PERIOD per period 2π/|Im p|
+ *  of the fastest-oscillating pole found, up to INVERSE_MAX_TIMES. */
+export function timeCount(items, span) {
+  const poles = (items || []).filter((it) => it.kind === 'pole' && Array.isArray(it.at));
+  const fastest = Math.max(0, ...poles.map((p) => Math.abs(p.at[1])));
+  const wanted = Math.ceil((PER_PERIOD * span * fastest) / (2 * Math.PI));
+  return Math.min(INVERSE_MAX_TIMES, Math.max(INVERSE_TIMES, Number.isFinite(wanted) ? wanted : INVERSE_TIMES));
+}
 /** Default last index N of the z-chart. */
 export const INVERSE_DEFAULT_N = 40;
 
@@ -29,11 +42,13 @@ export function defaultSpan(items) {
   return Number(Math.min(1e4, Math.max(1e-3, 10 / a)).toPrecision(3));
 }
 
-/** The request for the current function; `span` is T (s) or N (z). */
-export function inverseRequest(base, span) {
+/** The request for the current function; `span` is T (s) or N (z); `items` the singularities
+ *  found (their oscillation sets how densely t is sampled). */
+export function inverseRequest(base, span, items) {
   if (base.var === 's') {
     const t = [];
-    for (let k = 1; k <= INVERSE_TIMES; k++) t.push((span * k) / INVERSE_TIMES);
+    const count = timeCount(items, span);
+    for (let k = 1; k <= count; k++) t.push((span * k) / count);
     return { task: 'inverse_laplace', F: base.f, var: 's', params: base.params, t };
   }
   const n = [];
@@ -41,8 +56,8 @@ export function inverseRequest(base, span) {
   return { task: 'inverse_z', X: base.f, var: 'z', params: base.params, n };
 }
 
-export function requestInverse(base, span) {
-  return runHeavy(inverseRequest(base, span));
+export function requestInverse(base, span, items) {
+  return runHeavy(inverseRequest(base, span, items));
 }
 
 /** A status line and a look ('busy', 'stale', 'done', 'error', 'closed'). */
@@ -192,10 +207,10 @@ export async function runInverse(page, base) {
   if (!kind) return;
   const span = inverseSpan(page, kind);
   if (!inverseSection.spanTyped) inv.span.value = String(span);
-  const request = inverseRequest(base, span);
+  const request = inverseRequest(base, span, page.found.items);
   const serial = ++inverseSection.serial;
   inverseStatus(inv, kind === 'laplace' ? 'Computing f(t)…' : 'Computing x[n]…', 'busy');
-  const resp = await requestInverse(base, span);
+  const resp = await requestInverse(base, span, page.found.items);
   if (serial !== inverseSection.serial) return;
   showInverse(inv, request, resp);
   inverseSection.key = JSON.stringify(request);
@@ -217,7 +232,7 @@ async function inverseOnDemand(page) {
   if (ui.singTable.classList.contains('stale') || !page.found.base) { inverseStatus(ui.inv, 'Computed with the next search.', 'stale'); return; }
   const kind = inverseKind(page.found.base.var);
   if (!kind) return;
-  if (inverseSection.key === JSON.stringify(inverseRequest(page.found.base, inverseSpan(page, kind)))) {
+  if (inverseSection.key === JSON.stringify(inverseRequest(page.found.base, inverseSpan(page, kind), page.found.items))) {
     if (!ui.inv.result.hidden) drawInverseChart(ui.inv.chart); // its width may have changed while folded
     return;
   }
