@@ -4,4 +4,5 @@
 //! z-transform (long division, residues, the trapezoidal rule on circles).
 
 pub mod laplace;
+pub mod system;
 pub mod z;
