@@ -10,7 +10,8 @@
 //! pole of F lies in the open left half-plane (else none, and no metric);
 //! the rise time from 10 % to 90 % of y∞ (first crossings, by bisection); the
 //! peak time and overshoot 100·(y_max − y∞)/|y∞| (largest sample, refined by a
-//! golden-section search between its neighbours; 0 when y never exceeds y∞);
+//! the zero of y′ = L⁻¹[F] between its neighbours by bisection, else a
+//! golden-section search there; 0 when y never exceeds y∞);
 //! the settling time, the last time |y − y∞| = 2 % |y∞| (by bisection), or none
 //! when the response has not settled by the end of the span.
 //!
@@ -131,7 +132,9 @@ pub fn metrics(f: &RationalAnalysis, step: &RationalAnalysis, steady_state: Opti
     let k = (0..ys.len()).max_by(|&i, &j| ys[i].total_cmp(&ys[j])).unwrap_or(0);
     let (peak_time, overshoot_percent) = if ys[k] > 1.0 && k + 1 < ys.len() {
         let lo = if k == 0 { 0.0 } else { t[k - 1] };
-        let tp = golden_max(&y, lo, t[k + 1]);
+        // The peak is a zero of y′ = the impulse response (F itself): bisection where it changes sign.
+        let slope = |x: f64| value(f, x);
+        let tp = if slope(lo) > 0.0 && slope(t[k + 1]) < 0.0 { bisect(&slope, lo, t[k + 1]) } else { golden_max(&y, lo, t[k + 1]) };
         (Some(tp), Some(100.0 * (y(tp) - 1.0)))
     } else {
         (None, Some(0.0))
