@@ -12,6 +12,7 @@
 use crate::api::error::ApiError;
 use crate::api::input::{compile_text, CAUTION};
 use crate::api::shape::{Expect, Field};
+use crate::error::Failure;
 use crate::api::wire::{pair, FunctionInput, Number, BUDGET_FIELD, FUNCTION_FIELDS};
 use crate::poly::{mul, trim};
 use crate::singular::rational_poles::{analyse_function, RationalAnalysis};
@@ -69,7 +70,8 @@ pub struct TransferFunctionRequest {
     /// The point the encirclement is counted about (default −1).
     #[serde(default)]
     pub point: Option<Number>,
-    /// Times for the step and impulse samples (t ≥ 0); default a grid.
+    /// Times for the step and impulse samples (t ≥ 0; at 0 the limit from the right; in z rounded to
+    /// the nearest sample n = t/T); default a grid.
     #[serde(default)]
     pub t: Option<Vec<f64>>,
     /// Accepted for symmetry with the other tasks: the work here is bounded by the grid caps.
@@ -179,6 +181,9 @@ pub fn run(req: &TransferFunctionRequest) -> Result<TransferFunctionResponse, Ap
     let a = analyse_function(&f)?;
     let r = f.rational().expect("analyse_function refuses a non-rational f");
     let (num, den) = (trim(&r.num), trim(&r.den));
+    if num.is_empty() {
+        return Err(Failure::not_applicable("F is identically zero: it has no frequency response, poles or zeros to read").into());
+    }
     let mut warnings = a.warnings.clone();
     if !has_real_coefficients(&num, &den) {
         warnings.push("F has complex coefficients: the responses below are the real parts".into());
@@ -366,7 +371,8 @@ fn continuous_responses(
     }
     let t = times(t, thin(grid(a)))?;
     let at = |x: &RationalAnalysis| -> Vec<f64> {
-        residue_series(x, &t).iter().zip(&t).map(|(v, &x)| if x > 0.0 { v.0.re } else { f64::NAN }).collect()
+        // At t = 0 the residue sum is the limit from the right.
+        residue_series(x, &t).iter().map(|v| v.0.re).collect()
     };
     let (ys, yi) = (at(&s), at(a));
     Ok((

@@ -12,8 +12,9 @@
 //! which is Z − P with Z, P counted outside the unit circle when L − a and L
 //! have as many finite poles as zeros. The roots are the exact roots of the
 //! rational analysis; the count is cross-checked by the winding of the image
-//! sampled along the contour (steps halved until each turns by less than 0.3
-//! rad). A zero of L − a on the contour (the image passes through a) has no
+//! sampled along the contour (2048 steps a piece, the axis spaced as
+//! ω = c sinh(u), each step halved until it turns by less than 0.3 rad and its
+//! halves agree). A zero of L − a on the contour (the image passes through a) has no
 //! count: `None`.
 //!
 //! ```
@@ -99,7 +100,8 @@ pub fn count(num: &[C], den: &[C], point: C, domain: Domain) -> Result<Encirclem
 /// One piece of the contour: a straight segment or a circular arc.
 #[derive(Clone, Copy)]
 enum Piece {
-    Line(C, C),
+    /// The imaginary axis from y0 to y1, spaced as ω = c sinh(u) (dense near 0, sparse far out).
+    Line(f64, f64, f64),
     /// centre, radius, angle from, angle to.
     Arc(C, f64, f64, f64),
 }
@@ -107,26 +109,31 @@ enum Piece {
 impl Piece {
     fn at(self, t: f64) -> C {
         match self {
-            Piece::Line(a, b) => a + (b - a) * t,
+            Piece::Line(y0, y1, c) => {
+                let (u0, u1) = ((y0 / c).asinh(), (y1 / c).asinh());
+                C::new(0.0, c * (u0 + (u1 - u0) * t).sinh())
+            }
             Piece::Arc(c, r, a, b) => c + C::from_polar(r, a + (b - a) * t),
         }
     }
 }
 
-/// The turn of g along a piece, halving steps until each turns by less than 0.3 rad (depth ≤ 40).
+/// The turn of g along a piece between parameters t0 and t1: the principal step, accepted when it
+/// is below 0.3 rad and the two halves agree with it, else the sum over the halves (depth ≤ 40).
 fn turn(g: &dyn Fn(C) -> C, piece: Piece, t0: f64, t1: f64, g0: C, g1: C, depth: u32) -> Option<f64> {
     let step = (g1 / g0).arg();
-    if !step.is_finite() {
+    let tm = 0.5 * (t0 + t1);
+    let gm = g(piece.at(tm));
+    let (a, b) = ((gm / g0).arg(), (g1 / gm).arg());
+    if !(step.is_finite() && a.is_finite() && b.is_finite()) {
         return None;
     }
-    if step.abs() < 0.3 {
+    if step.abs() < 0.3 && (a + b - step).abs() < 1e-6 {
         return Some(step);
     }
     if depth == 0 {
         return None;
     }
-    let tm = 0.5 * (t0 + t1);
-    let gm = g(piece.at(tm));
     Some(turn(g, piece, t0, tm, g0, gm, depth - 1)? + turn(g, piece, tm, t1, gm, g1, depth - 1)?)
 }
 
@@ -143,6 +150,9 @@ fn sampled(g: &dyn Fn(C) -> C, axis_poles: &[C], roots: &[C], domain: Domain) ->
         }
     }
     let size = roots.iter().map(|q| q.norm()).fold(1.0, f64::max);
+    let smallest = roots.iter().map(|q| q.norm()).filter(|&r| r > 0.0).fold(f64::INFINITY, f64::min);
+    // The axis spacing scale: a tenth of the smallest nonzero root size.
+    let c = if smallest.is_finite() { smallest / 10.0 } else { 0.1 };
     let eps = if gap.is_finite() { gap * 1e-3 } else { 1e-3 * size }.min(1e-3);
     let mut pieces = Vec::new();
     match domain {
@@ -152,12 +162,12 @@ fn sampled(g: &dyn Fn(C) -> C, axis_poles: &[C], roots: &[C], domain: Domain) ->
             ys.sort_by(f64::total_cmp);
             let mut y = -big;
             for &yp in &ys {
-                pieces.push(Piece::Line(C::new(0.0, y), C::new(0.0, yp - eps)));
+                pieces.push(Piece::Line(y, yp - eps, c));
                 // To the right of the pole: from below, counterclockwise through Re > 0.
                 pieces.push(Piece::Arc(C::new(0.0, yp), eps, -PI / 2.0, PI / 2.0));
                 y = yp + eps;
             }
-            pieces.push(Piece::Line(C::new(0.0, y), C::new(0.0, big)));
+            pieces.push(Piece::Line(y, big, c));
             pieces.push(Piece::Arc(C::new(0.0, 0.0), big, PI / 2.0, -PI / 2.0));
         }
         Domain::Z { .. } => {
@@ -179,7 +189,7 @@ fn sampled(g: &dyn Fn(C) -> C, axis_poles: &[C], roots: &[C], domain: Domain) ->
     }
     let mut total = 0.0;
     for piece in pieces {
-        let n = 64;
+        let n = 2048;
         let mut prev = g(piece.at(0.0));
         for k in 1..=n {
             let t0 = (k - 1) as f64 / n as f64;
@@ -197,4 +207,48 @@ fn sampled(g: &dyn Fn(C) -> C, axis_poles: &[C], roots: &[C], domain: Domain) ->
     // s: the contour is clockwise, so N = −(counterclockwise turns of the image); z: the
     // circle runs counterclockwise, and N is the clockwise count, also −ccw.
     Some(-(rounded as i32))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::sampled_winding;
+
+    fn re(x: f64) -> C {
+        C::new(x, 0.0)
+    }
+
+    #[test]
+    fn the_count_agrees_with_a_dense_polyline_winding() {
+        // L = K/((s+1)(s+2)(s+3)): closed loop s³ + 6s² + 11s + 6 + K, stable for K < 60 (Routh, from
+        // memory): K = 10 gives N = 0, K = 100 gives N = 2. The reference: the winding of the image of the
+        // imaginary axis sampled densely (the large semicircle maps to L(∞) = 0, a point), taken
+        // counterclockwise as ω increases, is −N (the contour is clockwise).
+        let den = crate::poly::from_roots(re(1.0), &[re(-1.0), re(-2.0), re(-3.0)]);
+        for (k, want) in [(10.0, 0), (100.0, 2)] {
+            let num = [re(k)];
+            let e = count(&num, &den, re(-1.0), Domain::S).unwrap();
+            let image: Vec<C> = (-200_000..=200_000)
+                .map(|i| {
+                    let w = (i as f64 / 1000.0).powi(3);
+                    let s = C::new(0.0, w);
+                    eval(&num, s) / eval(&den, s)
+                })
+                .collect();
+            assert_eq!(-sampled_winding(&image, re(-1.0)), want, "K = {k}: dense polyline");
+            assert_eq!(e.winding, Some(want), "K = {k}");
+            assert_eq!(e.sampled_winding, Some(want), "K = {k}");
+            assert_eq!(e.closed_loop_unstable as i32, want, "K = {k}: Z = N + P with P = 0");
+        }
+    }
+
+    #[test]
+    fn a_pole_on_the_unit_circle_is_indented_outward() {
+        // L = 0.5/(z − 1): 1 + L ∝ z − 0.5, inside; the pole at 1 counts as inside (indented outward),
+        // so N = P_in − Z_in = 1 − 1 = 0 (by hand); a gain 3 moves the root to −2: N = 1 − 0 = 1.
+        for (k, want) in [(0.5, 0), (3.0, 1)] {
+            let e = count(&[re(k)], &[re(-1.0), re(1.0)], re(-1.0), Domain::Z { period: 1.0 }).unwrap();
+            assert_eq!((e.winding, e.sampled_winding), (Some(want), Some(want)), "gain {k}");
+        }
+    }
 }

@@ -142,7 +142,7 @@ pub fn margins(f: &dyn Fn(C) -> C, r: &FrequencyResponse, domain: Domain) -> Mar
         // Gain crossover: log|F| changes sign (a zero at the right end belongs to the next interval).
         let log_mag = |w: f64| f(axis_point(w, domain)).norm().ln();
         let (la, lb) = (r.magnitude_db[k], r.magnitude_db[k + 1]);
-        if (la > 0.0 && lb <= 0.0) || (la < 0.0 && lb >= 0.0) || (k == 0 && la == 0.0) {
+        if (la > 0.0 && lb <= 0.0) || (la < 0.0 && lb >= 0.0) {
             let w = bisect(&log_mag, a, b);
             let phase = r.phase_deg[k] + (f(axis_point(w, domain)) / r.value[k]).arg().to_degrees();
             m.gain_crossovers.push(w);
@@ -151,9 +151,8 @@ pub fn margins(f: &dyn Fn(C) -> C, r: &FrequencyResponse, domain: Domain) -> Mar
         // Phase crossover: the unwrapped phase passes −180° + 360°·n.
         let (pa, pb) = (r.phase_deg[k], r.phase_deg[k + 1]);
         let (na, nb) = (((pa + 180.0) / 360.0).floor(), ((pb + 180.0) / 360.0).floor());
-        if na != nb || (k == 0 && (pa + 180.0).rem_euclid(360.0) == 0.0) {
+        if na != nb {
             let target = 360.0 * na.max(nb) - 180.0;
-            let target = if na == nb { pa } else { target };
             let phase = |w: f64| r.phase_deg[k] + (f(axis_point(w, domain)) / r.value[k]).arg().to_degrees() - target;
             let w = bisect(&phase, a, b);
             m.phase_crossovers.push(w);
@@ -161,4 +160,33 @@ pub fn margins(f: &dyn Fn(C) -> C, r: &FrequencyResponse, domain: Domain) -> Mar
         }
     }
     m
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::check_method;
+
+    #[test]
+    fn magnitude_and_unwrapped_phase_of_three_lags() {
+        // F = 1000/((s+1)(s+10)(s+100)): |F| = 1000/Π√(ω² + a²), phase −Σ atan(ω/a), reaching −270°
+        // (first-order lags, common practice): the unwrapped phase must pass −180° continuously.
+        let f = |s: C| C::new(1000.0, 0.0) / ((s + 1.0) * (s + 10.0) * (s + 100.0));
+        let grid = default_grid(&[1.0, 10.0, 100.0], Domain::S);
+        assert_eq!(grid.len(), 801, "0.1 to 1000: 4 decades at 200 per decade");
+        let r = response(&f, &grid, Domain::S);
+        let cases: Vec<(String, usize)> = (0..grid.len()).step_by(97).map(|k| (format!("ω = {}", grid[k]), k)).collect();
+        let cases: Vec<(&str, usize)> = cases.iter().map(|(n, k)| (n.as_str(), *k)).collect();
+        check_method(&cases, |&k| (C::new(r.magnitude_db[k], r.phase_deg[k]), None), |&k| {
+            let w = grid[k];
+            let mag: f64 = [1.0f64, 10.0, 100.0].iter().map(|a| (w * w + a * a).sqrt()).product();
+            let phase: f64 = [1.0f64, 10.0, 100.0].iter().map(|a| -(w / a).atan().to_degrees()).sum();
+            C::new(20.0 * (1000.0 / mag).log10(), phase)
+        }, 1e-12);
+        // Phase crossover where Σ atan(ω/a) = 180°: at ω² = 1110 (the product of the sums rule,
+        // ω² = a b + b c + c a for three lags; by hand).
+        let m = margins(&f, &r, Domain::S);
+        assert_eq!(m.phase_crossovers.len(), 1);
+        assert!((m.phase_crossovers[0] - 1110f64.sqrt()).abs() < 1e-10, "{m:?}");
+    }
 }

@@ -148,3 +148,27 @@ pub fn metrics(f: &RationalAnalysis, step: &RationalAnalysis, steady_state: Opti
     };
     StepMetrics { steady_state, rise_time, overshoot_percent, settling_time, peak_time }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::reference::bromwich;
+
+    #[test]
+    fn step_values_agree_with_the_bromwich_integral_as_written() {
+        // y = L⁻¹[F/s] for F = 5/(s² + 2s + 5), against the Bromwich integral on Re s = 1 taken by Simpson's rule.
+        let re = |x: f64| C::new(x, 0.0);
+        let (num, den) = ([re(5.0)], [re(5.0), re(2.0), re(1.0)]);
+        let step = step_analysis(&num, &den).unwrap();
+        for t in [0.5, 1.0, 3.0] {
+            let want = bromwich(|s| re(5.0) / ((s * s + s * 2.0 + 5.0) * s), 1.0, t, 4000.0, 400_000).re;
+            assert!((value(&step, t) - want).abs() < 2e-4, "t = {t}: {} vs {want}", value(&step, t));
+        }
+        // Overshoot e^{−πζ/√(1−ζ²)} with ωn = √5, ζ = 1/√5 (second-order step, from memory).
+        let f = analyse_rational(&num, &den).unwrap();
+        let m = metrics(&f, &step, Some(1.0));
+        let zeta = 1.0 / 5f64.sqrt();
+        let want = 100.0 * (-std::f64::consts::PI * zeta / (1.0 - zeta * zeta).sqrt()).exp();
+        assert!((m.overshoot_percent.unwrap() - want).abs() < 1e-9 * want);
+    }
+}
