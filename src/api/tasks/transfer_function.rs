@@ -288,7 +288,7 @@ fn domain_of(req: &TransferFunctionRequest) -> Result<(Domain, String), ApiError
 
 fn root_out(d: RootData, to_unit: f64) -> RootOut {
     RootOut {
-        at: pair(d.at),
+        at: pair(d.at + 0.0),
         order: d.order,
         time_constant: d.time_constant,
         natural_frequency: d.natural_frequency.map(|w| w * to_unit),
