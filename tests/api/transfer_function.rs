@@ -196,6 +196,8 @@ fn refusals() {
     assert!(error_message(json!({"task": "transfer_function", "f": "1/(s+1)", "domain": "w"})).contains("\"domain\""));
     // Beyond the Nyquist frequency π/T.
     assert!(error_message(json!({"task": "transfer_function", "f": "1/(z-0.5)", "var": "z", "omega": [4]})).contains("Nyquist"));
+    // A discrete time beyond a million samples is refused, not run.
+    assert!(error_message(json!({"task": "transfer_function", "f": "1/(z-0.5)", "var": "z", "t": [1e300]})).contains("beyond sample"));
     // A field that is not declared.
     assert!(error_message(json!({"task": "transfer_function", "f": "1/(s+1)", "omegas": [1]})).contains("omegas"));
 }

@@ -20,7 +20,9 @@ use crate::text;
 use crate::transforms::laplace::residues::{has_real_coefficients, residue_series};
 use crate::transforms::system::encirclement::count;
 use crate::transforms::system::frequency_response::{default_grid, margins, response};
-use crate::transforms::system::pole_data::{dc_gain, high_frequency_gain, relative_degree, root_data, Gain, RootData};
+use crate::transforms::system::pole_data::{
+    all_stable, dc_gain, discrete_span, high_frequency_gain, relative_degree, root_data, root_sizes, Gain, RootData,
+};
 use crate::transforms::system::step_response::{grid, metrics, step_analysis};
 use crate::transforms::system::Domain;
 use crate::transforms::z::recurrence::impulse_response;
@@ -31,6 +33,8 @@ use std::f64::consts::PI;
 
 /// Most frequencies or times one request may list.
 pub const MAX_POINTS: usize = 10_000;
+/// Largest sample index n = t/T of a discrete response.
+pub const MAX_SAMPLE_INDEX: usize = 1_000_000;
 /// Most samples returned for the step and impulse responses when `t` is not given.
 pub const MAX_RESPONSE_SAMPLES: usize = 2_000;
 
@@ -303,16 +307,6 @@ fn gain_out(g: Gain) -> GainOut {
     GainOut { value: g.value.map(pair), infinite: g.value.is_none(), pole_order: g.pole_order }
 }
 
-/// Nonzero sizes of the s-plane roots (z: of ln(p)/T), for the default grid.
-fn root_sizes(a: &RationalAnalysis, domain: Domain) -> Vec<f64> {
-    let all = a.poles.iter().map(|p| p.at).chain(a.zeros.iter().map(|z| z.at));
-    all.filter_map(|q| match domain {
-        Domain::S => Some(q.norm()),
-        Domain::Z { period } => (q.norm() > 0.0).then(|| (q.ln() / period).norm()),
-    })
-    .collect()
-}
-
 fn frequencies(w: &[f64], hz: bool, domain: Domain) -> Result<Vec<f64>, ApiError> {
     if w.is_empty() {
         return Err(ApiError::invalid("\"omega\" is empty; omit it for the default grid"));
@@ -353,7 +347,7 @@ fn continuous_responses(
     warnings: &mut Vec<String>,
 ) -> Result<(StepOut, ImpulseOut), ApiError> {
     let s = step_analysis(num, den)?;
-    let stable = a.poles.iter().all(|p| p.at.re < -1e-9 * p.at.norm());
+    let stable = all_stable(a, Domain::S);
     let steady = dc.value.filter(|_| stable).map(|v| v.re);
     let m = metrics(a, &s, steady);
     if !stable {
@@ -398,21 +392,25 @@ fn discrete_responses(
     period: f64,
     t: Option<&[f64]>,
 ) -> Result<(StepOut, ImpulseOut), ApiError> {
-    let slowest = a.poles.iter().filter(|p| p.at.norm() > 0.0).map(|p| -p.at.norm().ln()).filter(|&r| r > 0.0).fold(f64::INFINITY, f64::min);
-    let default_n = if slowest.is_finite() { (8.0 / slowest).ceil() as usize + 1 } else { 64 }.clamp(16, MAX_RESPONSE_SAMPLES);
+    let default_n = discrete_span(a, MAX_RESPONSE_SAMPLES);
     let n: Vec<usize> = match t {
-        Some(_) => times(t, Vec::new())?.iter().map(|x| (x / period).round() as usize).collect(),
+        Some(_) => {
+            let t = times(t, Vec::new())?;
+            if t.iter().any(|x| x / period > MAX_SAMPLE_INDEX as f64) {
+                return Err(ApiError::invalid(format!(
+                    "a time in \"t\" is beyond sample {MAX_SAMPLE_INDEX} (t/T); ask for earlier times"
+                )));
+            }
+            t.iter().map(|x| (x / period).round() as usize).collect()
+        }
         None => (0..default_n).collect(),
     };
     let count = n.iter().copied().max().unwrap_or(0) + 1;
-    if count > 1_000_000 {
-        return Err(ApiError::invalid("the largest t is beyond a million samples; ask for fewer or earlier times"));
-    }
     let h = impulse_response(num, den, count, &[1.0])?;
     let step_num = mul(num, &[C::new(0.0, 0.0), C::new(1.0, 0.0)]);
     let step_den = mul(den, &[C::new(-1.0, 0.0), C::new(1.0, 0.0)]);
     let s = impulse_response(&step_num, &step_den, count, &[1.0])?;
-    let stable = a.poles.iter().all(|p| p.at.norm() < 1.0 - 1e-9);
+    let stable = all_stable(a, Domain::Z { period });
     let tk: Vec<f64> = n.iter().map(|&k| k as f64 * period).collect();
     Ok((
         StepOut {

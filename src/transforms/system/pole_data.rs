@@ -134,3 +134,28 @@ pub fn high_frequency_gain(a: &RationalAnalysis, f: &dyn Fn(C) -> C, lead_ratio:
         },
     }
 }
+
+/// True when every pole of `a` is strictly on the stable side: Re p < 0 (s) or |p| < 1 (z),
+/// beyond rounding at the pole's size (common practice).
+pub fn all_stable(a: &RationalAnalysis, domain: Domain) -> bool {
+    a.poles.iter().all(|p| match domain {
+        Domain::S => p.at.re < -1e-9 * p.at.norm() - 4.0 * p.location_error,
+        Domain::Z { .. } => p.at.norm() < 1.0 - 1e-9 - 4.0 * p.location_error,
+    })
+}
+
+/// Nonzero sizes of the s-plane roots (poles and zeros; in z of ln(p)/T), for the default frequency grid.
+pub fn root_sizes(a: &RationalAnalysis, domain: Domain) -> Vec<f64> {
+    let all = a.poles.iter().map(|p| p.at).chain(a.zeros.iter().map(|z| z.at));
+    all.filter_map(|q| match domain {
+        Domain::S => Some(q.norm()),
+        Domain::Z { period } => (q.norm() > 0.0).then(|| (q.ln() / period).norm()),
+    })
+    .collect()
+}
+
+/// Samples spanning 8 slowest time constants of a discrete system (16 to `cap`; 64 without a decaying pole).
+pub fn discrete_span(a: &RationalAnalysis, cap: usize) -> usize {
+    let slowest = a.poles.iter().filter(|p| p.at.norm() > 0.0).map(|p| -p.at.norm().ln()).filter(|&r| r > 0.0).fold(f64::INFINITY, f64::min);
+    if slowest.is_finite() { (8.0 / slowest).ceil() as usize + 1 } else { 64 }.clamp(16, cap)
+}
