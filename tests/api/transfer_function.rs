@@ -185,6 +185,12 @@ fn second_order_iir_in_z() {
     // √(0.91/1.2) < 1 (quadratic formula, by hand): Z = P = 0, N = 0.
     assert_eq!(r["encirclement"]["winding"], 0);
     assert_eq!(r["encirclement"]["sampled_winding"], 0);
+    // Step metrics read on the samples, against the same readings of 200 scipy lfilter samples (fixture).
+    let sm = &fx["step_metrics"];
+    for key in ["rise_time", "peak_time", "settling_time"] {
+        assert_eq!(f(&r["step"][key]), f(&sm[key]), "{key}");
+    }
+    close(f(&r["step"]["overshoot_percent"]), f(&sm["overshoot_percent"]), 1e-10, "overshoot");
 }
 
 #[test]

@@ -23,7 +23,7 @@ use crate::transforms::system::frequency_response::{default_grid, margins, respo
 use crate::transforms::system::pole_data::{
     all_stable, dc_gain, discrete_span, high_frequency_gain, relative_degree, root_data, root_sizes, Gain, RootData,
 };
-use crate::transforms::system::step_response::{grid, metrics, step_analysis};
+use crate::transforms::system::step_response::{grid, metrics, sequence_metrics, step_analysis};
 use crate::transforms::system::Domain;
 use crate::transforms::z::recurrence::impulse_response;
 use crate::C;
@@ -412,15 +412,20 @@ fn discrete_responses(
     let s = impulse_response(&step_num, &step_den, count, &[1.0])?;
     let stable = all_stable(a, Domain::Z { period });
     let tk: Vec<f64> = n.iter().map(|&k| k as f64 * period).collect();
+    // The metrics read on the default span of samples (or up to the largest requested one, if longer).
+    let span = count.max(discrete_span(a, MAX_RESPONSE_SAMPLES));
+    let whole = if span > count { impulse_response(&step_num, &step_den, span, &[1.0])? } else { s.clone() };
+    let sequence: Vec<f64> = whole.values.iter().map(|v| v.re).collect();
+    let m = sequence_metrics(&sequence, period, dc.value.filter(|_| stable).map(|v| v.re));
     Ok((
         StepOut {
             t: tk.clone(),
             y: n.iter().map(|&k| s.values[k].re).collect(),
-            steady_state: dc.value.filter(|_| stable).map(|v| v.re),
-            rise_time: None,
-            overshoot_percent: None,
-            settling_time: None,
-            peak_time: None,
+            steady_state: m.steady_state,
+            rise_time: m.rise_time,
+            overshoot_percent: m.overshoot_percent,
+            settling_time: m.settling_time,
+            peak_time: m.peak_time,
         },
         ImpulseOut { t: tk, y: n.iter().map(|&k| h.values[k].re).collect() },
     ))

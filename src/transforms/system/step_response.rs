@@ -172,3 +172,40 @@ mod tests {
         assert!((m.overshoot_percent.unwrap() - want).abs() < 1e-9 * want);
     }
 }
+
+/// The step metrics of a sampled (discrete) step response y[n] at t = nT, read on the samples
+/// themselves (same definitions): the rise time from the first sample ≥ 10 % to the first ≥ 90 %
+/// of y∞, the largest sample and its time for the overshoot and peak, and the settling time as
+/// the first sample after the last one outside the 2 % band (none when that is the last sample).
+///
+/// ```
+/// use residuary::transforms::system::step_response::sequence_metrics;
+/// // y[n] = 1 − 0.5^(n+1), the step response of 0.5z/(z − 0.5)·… read by hand: 0.5, 0.75, 0.875, …
+/// let y: Vec<f64> = (0..20).map(|n| 1.0 - 0.5f64.powi(n + 1)).collect();
+/// let m = sequence_metrics(&y, 1.0, Some(1.0));
+/// assert_eq!(m.rise_time, Some(3.0)); // 0.5 ≥ 0.1 at n = 0; 0.9375 ≥ 0.9 at n = 3
+/// assert_eq!(m.settling_time, Some(5.0)); // |y − 1| = 0.03125 > 0.02 at n = 4, then 0.016
+/// assert_eq!(m.overshoot_percent, Some(0.0));
+/// ```
+pub fn sequence_metrics(y: &[f64], period: f64, steady_state: Option<f64>) -> StepMetrics {
+    let Some(yinf) = steady_state.filter(|y| *y != 0.0 && y.is_finite()) else {
+        return StepMetrics { steady_state, ..Default::default() };
+    };
+    let r: Vec<f64> = y.iter().map(|v| v / yinf).collect();
+    let first = |level: f64| r.iter().position(|&v| v >= level);
+    let rise_time = match (first(0.1), first(0.9)) {
+        (Some(a), Some(b)) => Some((b - a) as f64 * period),
+        _ => None,
+    };
+    let k = (0..r.len()).max_by(|&i, &j| r[i].total_cmp(&r[j]));
+    let (peak_time, overshoot_percent) = match k {
+        Some(k) if r[k] > 1.0 => (Some(k as f64 * period), Some(100.0 * (r[k] - 1.0))),
+        _ => (None, Some(0.0)),
+    };
+    let settling_time = match (0..r.len()).rev().find(|&i| (r[i] - 1.0).abs() > 0.02) {
+        None => Some(0.0),
+        Some(i) if i + 1 < r.len() => Some((i + 1) as f64 * period),
+        Some(_) => None,
+    };
+    StepMetrics { steady_state, rise_time, overshoot_percent, settling_time, peak_time }
+}
