@@ -33,6 +33,7 @@
 //! | `real_integral` | [`integrals::real_line`], [`integrals::unit_circle`], [`integrals::keyhole`], [`integrals::product_residue`], [`quad::real_line`], [`singular::decay`] |
 //! | `inverse_laplace` | [`transforms::laplace::residues`], [`transforms::laplace::fixed_talbot`], [`transforms::laplace::delayed_inversion`], [`transforms::laplace::delay_estimate`], [`transforms::laplace::delay_terms`], [`transforms::laplace::delayed_residues`], [`transforms::laplace::contour_cuts`] |
 //! | `inverse_z` | [`transforms::z::recurrence`], [`transforms::z::residues`], [`transforms::z::trapezoid`] (by [`cauchy::circle`]), [`transforms::z::singular_radius`] |
+//! | `transfer_function` | [`transforms::system::pole_data`], [`transforms::system::frequency_response`], [`transforms::system::encirclement`], [`transforms::system::step_response`] (on [`singular::rational_poles`], [`transforms::laplace::residues`], [`transforms::z::recurrence`]) |
 //!
 //! One kernel per idea: [`ways`] is the one rule by which independent ways
 //! agree; [`cauchy::circle`] the one sampler and FFT on a circle; [`text`]

@@ -28,6 +28,7 @@ pub use tasks::partial_fractions::{FractionTerm, PartialFractionsRequest, Partia
 pub use tasks::phase_plot::{phase_plot_rgba, PhasePlotRequest, Pixels, PlotOptionsInput};
 pub use tasks::real_integral::{RealIntegralRequest, RealIntegralResponse};
 pub use tasks::residue::{ResidueRequest, ResidueResponse};
+pub use tasks::transfer_function::{TransferFunctionRequest, TransferFunctionResponse};
 pub use tasks::singularities::{PointOut, PoleOut, SingularitiesRequest, SingularitiesResponse, ZeroOut};
 pub use wire::{pair, ContourRequest, ContourShape, FunctionInput, Number, Point};
 
@@ -48,6 +49,7 @@ pub enum Request {
     RealIntegral(RealIntegralRequest),
     InverseLaplace(InverseLaplaceRequest),
     InverseZ(InverseZRequest),
+    TransferFunction(TransferFunctionRequest),
 }
 
 /// A response: serialises to the task's own JSON object.
@@ -64,6 +66,7 @@ pub enum Response {
     RealIntegral(RealIntegralResponse),
     InverseLaplace(InverseLaplaceResponse),
     InverseZ(InverseZResponse),
+    TransferFunction(TransferFunctionResponse),
     Json(Value),
 }
 
@@ -84,6 +87,7 @@ pub const TASKS: &[&str] = &[
     "real_integral",
     "inverse_laplace",
     "inverse_z",
+    "transfer_function",
 ];
 
 impl Request {
@@ -119,6 +123,7 @@ impl Request {
             "real_integral" => Request::RealIntegral(body(&task, value)?),
             "inverse_laplace" => Request::InverseLaplace(body(&task, value)?),
             "inverse_z" => Request::InverseZ(body(&task, value)?),
+            "transfer_function" => Request::TransferFunction(body(&task, value)?),
             _ => {
                 return Err(ApiError::new(
                     ErrorCode::UnknownTask,
@@ -142,6 +147,7 @@ pub fn fields_of(task: &str) -> &'static [&'static [shape::Field]] {
         "real_integral" => tasks::real_integral::FIELDS,
         "inverse_laplace" => tasks::inverse_laplace::FIELDS,
         "inverse_z" => tasks::inverse_z::FIELDS,
+        "transfer_function" => tasks::transfer_function::FIELDS,
         _ => &[],
     }
 }
@@ -178,6 +184,7 @@ pub fn run(request: Request) -> Result<Response, ApiError> {
         Request::RealIntegral(r) => tasks::real_integral::run(&r).map(Response::RealIntegral),
         Request::InverseLaplace(r) => tasks::inverse_laplace::run(&r).map(Response::InverseLaplace),
         Request::InverseZ(r) => tasks::inverse_z::run(&r).map(Response::InverseZ),
+        Request::TransferFunction(r) => tasks::transfer_function::run(&r).map(Response::TransferFunction),
     }
 }
 

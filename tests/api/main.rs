@@ -15,3 +15,4 @@ mod overflow_and_scale;
 mod partial_fractions;
 mod real_integral;
 mod request_errors;
+mod transfer_function;

@@ -14,3 +14,4 @@ pub mod phase_plot;
 pub mod real_integral;
 pub mod residue;
 pub mod singularities;
+pub mod transfer_function;

@@ -1,0 +1,209 @@
+//! `transfer_function` through the doorway. Sources beside every check; the
+//! numpy/scipy/mpmath digits come from tests/fixtures/gen_transfer_function.py.
+
+use crate::common::{error_message, fixture, floats, ok_response};
+use serde_json::{json, Value};
+use std::f64::consts::PI;
+
+fn close(got: f64, want: f64, rel: f64, what: &str) {
+    assert!((got - want).abs() <= rel * want.abs().max(1e-300), "{what}: got {got}, want {want}");
+}
+
+fn f(v: &Value) -> f64 {
+    v.as_f64().unwrap_or_else(|| panic!("expected a number, got {v}"))
+}
+
+#[test]
+fn second_order_low_pass_closed_forms() {
+    let r = ok_response(json!({"task": "transfer_function", "f": "wn^2/(s^2+2*zeta*wn*s+wn^2)",
+        "params": {"wn": 2, "zeta": 0.3}}));
+    let (wn, zeta) = (2.0f64, 0.3f64);
+    let root = (1.0 - zeta * zeta).sqrt();
+    // Poles −ζωn ± jωn√(1−ζ²) (quadratic formula); ωn, ζ, Q = 1/(2ζ) read back (definitions, Ogata, from memory).
+    assert_eq!(r["poles"].as_array().unwrap().len(), 2);
+    for p in r["poles"].as_array().unwrap() {
+        close(f(&p["at"][0]), -zeta * wn, 1e-12, "Re pole");
+        close(f(&p["at"][1]).abs(), wn * root, 1e-12, "|Im pole|");
+        close(f(&p["natural_frequency"]), wn, 1e-12, "ωn");
+        close(f(&p["damping_ratio"]), zeta, 1e-12, "ζ");
+        close(f(&p["quality_factor"]), 1.0 / (2.0 * zeta), 1e-12, "Q");
+        assert!(p["time_constant"].is_null());
+    }
+    // F(0) = 1, F → 0 with relative degree 2 (by inspection).
+    assert_eq!(r["dc_gain"]["value"], json!([1.0, 0.0]));
+    assert_eq!(r["high_frequency_gain"]["value"], json!([0.0, 0.0]));
+    assert_eq!(r["relative_degree"], 2);
+    // Overshoot e^{−πζ/√(1−ζ²)}, peak time π/(ωn√(1−ζ²)) (second-order step response, Ogata, from memory).
+    let s = &r["step"];
+    close(f(&s["overshoot_percent"]), 100.0 * (-PI * zeta / root).exp(), 1e-9, "overshoot");
+    close(f(&s["peak_time"]), PI / (wn * root), 1e-9, "peak time");
+    close(f(&s["steady_state"]), 1.0, 1e-12, "steady state");
+    // Settling: the last 2 % crossing of the exact step response, mpmath 1.3 findroot (fixture);
+    // the rough rule 4/(ζωn) = 6.67 is only approximate.
+    let fx = fixture("transfer_function");
+    close(f(&s["settling_time"]), f(&fx["second_order"]["settling_time"]), 1e-9, "settling time");
+    // Rise time 10–90 %: bisection on the exact closed form y = 1 − e^{−ζωn t} sin(ωd t + acos ζ)/√(1−ζ²) (by hand).
+    let y = |t: f64| 1.0 - (-zeta * wn * t).exp() * (wn * root * t + zeta.acos()).sin() / root;
+    let first = |level: f64| {
+        let (mut a, mut b) = (0.0, 1.6);
+        for _ in 0..100 {
+            let m = 0.5 * (a + b);
+            if y(m) < level { a = m } else { b = m }
+        }
+        a
+    };
+    close(f(&s["rise_time"]), first(0.9) - first(0.1), 1e-9, "rise time");
+    // The step samples against scipy 1.17.1 signal.step (fixture; scipy's lsim is accurate to ~1e-9 here).
+    let r2 = ok_response(json!({"task": "transfer_function", "f": "4/(s^2+1.2*s+4)", "t": fx["second_order"]["t"]}));
+    for (got, want) in floats(&r2["step"]["y"]).iter().zip(floats(&fx["second_order"]["scipy_step"])) {
+        close(*got, want, 1e-7, "step sample vs scipy");
+    }
+    // Impulse = dy/dt of the step: 4/(ωd) e^{−0.6t} sin(ωd t) for this F (transform table, from memory).
+    let wd = 2.0 * root;
+    for (t, h) in floats(&r2["impulse"]["t"]).iter().zip(floats(&r2["impulse"]["y"])) {
+        close(h, 4.0 / wd * (-0.6 * t).exp() * (wd * t).sin(), 1e-10, "impulse sample");
+    }
+}
+
+#[test]
+fn a_1_khz_resonator_in_hz() {
+    let wn = 2.0 * PI * 1000.0;
+    let zeta = 0.01f64;
+    let r = ok_response(json!({"task": "transfer_function", "f": "w^2/(s^2+2*z*w*s+w^2)",
+        "params": {"w": wn, "z": zeta}, "hz": true}));
+    assert_eq!(r["frequency_response"]["unit"], "Hz");
+    assert_eq!(r["margins"]["unit"], "Hz");
+    // ωn/2π = 1000 Hz; Q = 1/(2ζ) = 50 (definitions, from memory).
+    close(f(&r["poles"][0]["natural_frequency"]), 1000.0, 1e-12, "natural frequency in Hz");
+    close(f(&r["poles"][0]["quality_factor"]), 50.0, 1e-10, "Q");
+    // |F(jω)| = 1 where (1 − x)² + 4ζ²x = 1, x = (ω/ωn)²: x = 2 − 4ζ² (by hand); in Hz.
+    let crossings = floats(&r["margins"]["gain_crossovers"]);
+    assert_eq!(crossings.len(), 1, "{crossings:?}");
+    close(crossings[0], 1000.0 * (2.0 - 4.0 * zeta * zeta).sqrt(), 1e-10, "gain crossover in Hz");
+    // The grid's largest magnitude sits near the resonance, |F| peak 1/(2ζ√(1−ζ²)) ≈ 34 dB (Ogata, from memory).
+    let mag = floats(&r["frequency_response"]["magnitude_db"]);
+    let peak = mag.iter().cloned().fold(f64::MIN, f64::max);
+    let want = 20.0 * (1.0 / (2.0 * zeta * (1.0 - zeta * zeta).sqrt())).log10();
+    assert!(peak <= want + 1e-9 && peak > want - 0.5, "peak {peak} dB, resonance {want} dB");
+    // Frequencies given in Hz are read in Hz: |F| at 1000 Hz is 1/(2ζ) (by hand).
+    let r = ok_response(json!({"task": "transfer_function", "f": "w^2/(s^2+2*z*w*s+w^2)",
+        "params": {"w": wn, "z": zeta}, "hz": true, "omega": [1000]}));
+    close(f(&r["frequency_response"]["magnitude_db"][0]), 20.0 * 50f64.log10(), 1e-9, "|F| at 1 kHz");
+    close(f(&r["frequency_response"]["phase_deg"][0]), -90.0, 1e-9, "phase at resonance");
+    // Step overshoot and peak time of the 1 kHz resonator (second-order closed forms, from memory).
+    let root = (1.0 - zeta * zeta).sqrt();
+    close(f(&r["step"]["overshoot_percent"]), 100.0 * (-PI * zeta / root).exp(), 1e-8, "overshoot");
+    close(f(&r["step"]["peak_time"]), PI / (wn * root), 1e-8, "peak time (seconds)");
+}
+
+#[test]
+fn integrator_plant_margins() {
+    // K/(s(s+1)(s+2)): phase −180° at ω = √2 where |L| = K/6, so the closed loop is marginal at K = 6
+    // (Routh: s³ + 3s² + 2s + K, 3·2 = K; from memory).
+    let r = ok_response(json!({"task": "transfer_function", "f": "6/(s*(s+1)*(s+2))"}));
+    assert!(r["encirclement"]["winding"].is_null(), "K = 6 passes through −1: {}", r["encirclement"]);
+    let r = ok_response(json!({"task": "transfer_function", "f": "2/(s*(s+1)*(s+2))"}));
+    let m = &r["margins"];
+    close(f(&m["phase_crossovers"][0]), 2f64.sqrt(), 1e-12, "phase crossover √2");
+    close(f(&m["gain_margins"][0]), 20.0 * 3f64.log10(), 1e-10, "gain margin 20 log10(6/2) dB");
+    // Gain crossover and phase margin: numpy.roots of x(x+1)(x+4) = 4 (fixture).
+    let fx = &fixture("transfer_function")["integrator_k2"];
+    close(f(&m["gain_crossovers"][0]), f(&fx["gain_crossover"]), 1e-12, "gain crossover");
+    close(f(&m["phase_margins"][0]), f(&fx["phase_margin"]), 1e-10, "phase margin");
+    // One integrator: DC gain infinite; relative degree 3 (by inspection).
+    assert_eq!(r["dc_gain"]["infinite"], true);
+    assert_eq!(r["dc_gain"]["pole_order"], 1);
+    assert_eq!(r["relative_degree"], 3);
+    // Closed loop s³ + 3s² + 2s + 2 is stable (Routh, 3·2 > 2): N = 0, P = 0 (the s = 0 pole is indented around).
+    let e = &r["encirclement"];
+    assert_eq!((e["winding"].as_i64(), e["open_loop_rhp_poles"].as_i64(), e["closed_loop_rhp_poles"].as_i64()), (Some(0), Some(0), Some(0)));
+    assert_eq!(e["sampled_winding"], 0);
+    // K = 10 > 6: two closed-loop right-half-plane poles (Routh sign changes), N = 2.
+    let r = ok_response(json!({"task": "transfer_function", "f": "10/(s*(s+1)*(s+2))"}));
+    assert_eq!(r["encirclement"]["winding"], 2);
+    assert_eq!(r["encirclement"]["sampled_winding"], 2);
+    assert_eq!(r["encirclement"]["closed_loop_rhp_poles"], 2);
+    assert!(r["encirclement"]["caution"].as_str().unwrap().contains("verify them independently"));
+}
+
+#[test]
+fn unstable_open_loop_stable_closed_loop() {
+    // L = 2(s+1)/(s(s−1)): P = 1; 1 + L ∝ s² + s + 2, no right-half-plane root (numpy.roots, fixture) so Z = 0, N = −1.
+    let fx = &fixture("transfer_function")["unstable_open_loop"];
+    let r = ok_response(json!({"task": "transfer_function", "f": "2*(s+1)/(s*(s-1))"}));
+    let e = &r["encirclement"];
+    assert_eq!(e["open_loop_rhp_poles"], 1);
+    assert_eq!(e["closed_loop_rhp_poles"], fx["closed_loop_rhp"]);
+    assert_eq!(e["winding"], -1);
+    assert_eq!(e["sampled_winding"], -1);
+    assert_eq!(e["direction"], "clockwise");
+    // About the point a = 10: L − 10 ∝ 10s² − 12s − 2, roots (12 ± √224)/20, one positive (quadratic
+    // formula, by hand): Z = 1, P = 1, N = 0.
+    let r = ok_response(json!({"task": "transfer_function", "f": "2*(s+1)/(s*(s-1))", "point": 10}));
+    assert_eq!(r["encirclement"]["closed_loop_rhp_poles"], 1);
+    assert_eq!(r["encirclement"]["winding"], 0);
+    assert_eq!(r["encirclement"]["sampled_winding"], 0);
+}
+
+#[test]
+fn second_order_iir_in_z() {
+    let fx = &fixture("transfer_function")["iir2"];
+    let a = floats(&fx["a"]);
+    let req = json!({"task": "transfer_function", "var": "z", "f": format!("(0.2*z^2+0.3*z+0.1)/(z^2+({})*z+({}))", a[1], a[2]),
+        "omega": fx["omega"]});
+    let r = ok_response(req);
+    assert_eq!(r["domain"], "z");
+    // Poles 0.9 e^{±jπ/4}: |p| = 0.9, ln(p)/T = ln 0.9 ± jπ/4 (the mapping z = e^{sT}, from memory).
+    for p in r["poles"].as_array().unwrap() {
+        close(f(&p["magnitude"]), 0.9, 1e-12, "|p|");
+        close(f(&p["s_equivalent"][0]), 0.9f64.ln(), 1e-12, "Re ln p");
+        close(f(&p["s_equivalent"][1]).abs(), PI / 4.0, 1e-12, "|Im ln p|");
+        close(f(&p["natural_frequency"]), (0.9f64.ln().powi(2) + PI * PI / 16.0).sqrt(), 1e-12, "ωn");
+    }
+    // Magnitude and (wrapped) phase against scipy 1.17.1 signal.freqz (fixture).
+    for (got, want) in floats(&r["frequency_response"]["magnitude_db"]).iter().zip(floats(&fx["magnitude_db"])) {
+        close(*got, want, 1e-10, "magnitude dB vs freqz");
+    }
+    for (got, want) in floats(&r["frequency_response"]["phase_deg"]).iter().zip(floats(&fx["phase_wrapped_deg"])) {
+        let d = (got - want).rem_euclid(360.0);
+        assert!(d.min(360.0 - d) < 1e-9, "phase vs freqz: {got} vs {want}");
+    }
+    // Impulse and step sequences against scipy signal.lfilter (fixture).
+    let r = ok_response(json!({"task": "transfer_function", "var": "z", "f": format!("(0.2*z^2+0.3*z+0.1)/(z^2+({})*z+({}))", a[1], a[2]),
+        "t": (0..40).map(|n| n as f64).collect::<Vec<_>>()}));
+    for (got, want) in floats(&r["impulse"]["y"]).iter().zip(floats(&fx["impulse"])) {
+        close(*got, want, 1e-12, "impulse vs lfilter");
+    }
+    for (got, want) in floats(&r["step"]["y"]).iter().zip(floats(&fx["step"])) {
+        close(*got, want, 1e-12, "step vs lfilter");
+    }
+    // DC gain H(1) = 0.6/(1 − 2·0.9 cos(π/4) + 0.81) (by hand); stable, so the step settles there.
+    let dc = 0.6 / (1.0 + a[1] + a[2]);
+    close(f(&r["dc_gain"]["value"][0]), dc, 1e-12, "H(1)");
+    close(f(&r["step"]["steady_state"]), dc, 1e-12, "steady state");
+    // Poles inside the unit circle; 1 + H ∝ 1.2z² − 0.9728z + 0.91, a complex pair (discriminant < 0) of modulus
+    // √(0.91/1.2) < 1 (quadratic formula, by hand): Z = P = 0, N = 0.
+    assert_eq!(r["encirclement"]["winding"], 0);
+    assert_eq!(r["encirclement"]["sampled_winding"], 0);
+    // Step metrics read on the samples, against the same readings of 200 scipy lfilter samples (fixture).
+    let sm = &fx["step_metrics"];
+    for key in ["rise_time", "peak_time", "settling_time"] {
+        assert_eq!(f(&r["step"][key]), f(&sm[key]), "{key}");
+    }
+    close(f(&r["step"]["overshoot_percent"]), f(&sm["overshoot_percent"]), 1e-10, "overshoot");
+}
+
+#[test]
+fn refusals() {
+    // Not rational: not_applicable with the reason.
+    let (text, is_error) = residuary::api::run_json_text(&json!({"task": "transfer_function", "f": "exp(-s)/(s+1)"}).to_string());
+    assert!(is_error);
+    assert!(text.contains("not_applicable"), "{text}");
+    assert!(error_message(json!({"task": "transfer_function", "f": "1/(s+1)", "domain": "w"})).contains("\"domain\""));
+    // Beyond the Nyquist frequency π/T.
+    assert!(error_message(json!({"task": "transfer_function", "f": "1/(z-0.5)", "var": "z", "omega": [4]})).contains("Nyquist"));
+    // A discrete time beyond a million samples is refused, not run.
+    assert!(error_message(json!({"task": "transfer_function", "f": "1/(z-0.5)", "var": "z", "t": [1e300]})).contains("beyond sample"));
+    // A field that is not declared.
+    assert!(error_message(json!({"task": "transfer_function", "f": "1/(s+1)", "omegas": [1]})).contains("omegas"));
+}
