@@ -174,13 +174,14 @@ pub fn budget(rng: &mut Rng) -> Option<u64> {
 pub fn request(rng: &mut Rng, task: &str) -> Value {
     let (var, default_var) = match task {
         "inverse_laplace" => ("s", "s"),
+        "transfer_function" if rng.chance(0.7) => ("s", "s"),
         _ => ("z", "z"),
     };
     let custom_var = rng.chance(0.05);
     let var = if custom_var { "w" } else { var };
     let params: Vec<&str> = if rng.chance(0.2) { vec!["a", "b"] } else { vec![] };
     let depth = 1 + rng.below(6) as u32;
-    let f = if rng.chance(0.35) || task == "partial_fractions" && rng.chance(0.7) {
+    let f = if rng.chance(0.35) || (task == "partial_fractions" || task == "transfer_function") && rng.chance(0.7) {
         rational(rng, var)
     } else {
         expression(rng, depth, var, &params)
@@ -284,6 +285,32 @@ pub fn request(rng: &mut Rng, task: &str) -> Value {
             m.insert("n".into(), Value::Array((0..n).map(|_| json!(rng.below(40))).collect()));
             if rng.chance(0.3) {
                 m.insert("singular_radius".into(), json!(positive(rng)));
+            }
+            put_budget(&mut m);
+        }
+        "transfer_function" => {
+            if var == "z" && !custom_var {
+                m.insert("var".into(), json!("z"));
+            }
+            if rng.chance(0.3) {
+                m.insert("domain".into(), json!(if rng.chance(0.5) { "s" } else { "z" }));
+            }
+            if rng.chance(0.2) {
+                m.insert("sample_period".into(), json!(positive(rng)));
+            }
+            if rng.chance(0.2) {
+                let n = rng.below(6);
+                m.insert("omega".into(), Value::Array((0..n).map(|_| json!(positive(rng))).collect()));
+            }
+            if rng.chance(0.2) {
+                m.insert("hz".into(), json!(rng.chance(0.5)));
+            }
+            if rng.chance(0.2) {
+                m.insert("point".into(), complex(rng));
+            }
+            if rng.chance(0.3) {
+                let n = rng.below(5);
+                m.insert("t".into(), Value::Array((0..n).map(|_| json!(real(rng).abs())).collect()));
             }
             put_budget(&mut m);
         }
