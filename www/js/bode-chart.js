@@ -65,7 +65,9 @@ export function drawBodeChart(canvas, cursor = -1) {
     const pad = 0.06 * (hi - lo);
     return [lo - pad, hi + pad];
   };
-  const [dbLo, dbHi] = range(db, 10);
+  // a zero on the axis sends |F| to −∞: the magnitude pane shows at most 120 dB below its top
+  const dbTop = Math.max(...db.filter((v) => v !== null && Number.isFinite(v)), -Infinity);
+  const [dbLo, dbHi] = range(db.map((v) => (v !== null && Number.isFinite(v) ? Math.max(v, dbTop - 120) : null)), 10);
   const [phLo, phHi] = range(deg, 45);
   const dbT = linearTicks(dbLo, dbHi, 4, [1, 2, 2.5, 5, 10]);
   const phT = phaseTicks(phLo, phHi);

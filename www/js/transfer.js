@@ -40,6 +40,7 @@ function status(parts, text, look) {
 
 const cap = (s) => s.charAt(0).toUpperCase() + s.slice(1);
 const num = (x, d = 5) => (x === null || x === undefined ? '—' : fmtReal(x, d));
+const int = (n) => (n === null || n === undefined ? '—' : String(n).replace('-', '−'));
 const times = (n) => (Math.abs(n) === 1 ? 'time' : 'times');
 
 /** A gain {value, infinite, pole_order} as text. */
@@ -70,15 +71,15 @@ function marginLines(m) {
 /** The encirclement sentence. */
 function encirclementText(e, domain) {
   const about = fmtComplex(e.about, 6);
-  const image = domain === 'z' ? 'F(e^{jωT})' : 'F(jω)';
+  const image = domain === 'z' ? 'F(e^(jωT))' : 'F(jω)';
   const where = domain === 'z' ? 'outside the unit circle' : 'in the right half-plane';
   const P = e.open_loop_rhp_poles, Z = e.closed_loop_rhp_poles;
   if (e.winding === null || e.winding === undefined) {
-    return `${image} passes through ${about} (or the count was not resolved), so the encirclements are not counted; open-loop poles ${where} P = ${P ?? '—'} (see the warnings).`;
+    return `${image} passes through ${about} (or the count was not resolved), so the encirclements are not counted; open-loop poles ${where} P = ${int(P)} (see the warnings).`;
   }
   const N = e.winding;
-  return `${image} encircles ${about} N = ${N} ${times(N)} clockwise` + (N < 0 ? ` (${-N} counterclockwise)` : '') +
-    `; open-loop poles ${where} P = ${P}; closed-loop poles ${where} Z = N + P = ${Z}.`;
+  return `${image} encircles ${about} N = ${int(N)} ${times(N)} clockwise` + (N < 0 ? ` (${-N} counterclockwise)` : '') +
+    `; open-loop poles ${where} P = ${int(P)}; closed-loop poles ${where} Z = N + P = ${int(Z)}.`;
 }
 
 /** Fill the section from the response (or error object) of `request`. */
