@@ -63,8 +63,8 @@ function marginLines(m) {
     : 'Gain crossover (|F| = 0 dB): none on the frequency grid, so no phase margin');
   const pc = m.phase_crossovers || [], gm = m.gain_margins || [];
   out.push(pc.length
-    ? 'Phase crossover (phase −180°): ' + pc.map((w, i) => `${num(w)} ${u}, gain margin ${num(gm[i], 4)} dB`).join('; ')
-    : 'Phase crossover (phase −180°): none on the frequency grid, so no gain margin');
+    ? 'Phase crossover (phase −180° mod 360°): ' + pc.map((w, i) => `${num(w)} ${u}, gain margin ${num(gm[i], 4)} dB`).join('; ')
+    : 'Phase crossover (phase −180° mod 360°): none on the frequency grid, so no gain margin');
   return out;
 }
 
@@ -119,7 +119,7 @@ export function showTransfer(parts, request, resp) {
   // the poles and zeros
   const u = fr.unit;
   parts.rootsHead.textContent = '';
-  const heads = ['', 'at', 'order', `ωn (${u})`, 'ζ', 'Q', 'τ'].concat(domain === 'z' ? ['|p|', 's = ln(p)/T'] : []);
+  const heads = ['', 'at', 'order', u === 'Hz' ? 'fn (Hz)' : `ωn (${u})`, 'ζ', 'Q', 'τ'].concat(domain === 'z' ? ['|p|', 's = ln(p)/T'] : []);
   parts.rootsHead.append(el('tr', {}, ...heads.map((h) => el('th', { scope: 'col', text: h }))));
   parts.roots.textContent = '';
   const rows = [...(resp.poles || []).map((r) => ['pole', r]), ...(resp.zeros || []).map((r) => ['zero', r])];
