@@ -622,6 +622,7 @@ describe('the page with the real core', () => {
 
   test('transfer function: the second-order low-pass opened through set(panels.transfer)', async () => {
     // wn^2/(s^2 + 2 zeta wn s + wn^2), wn = 2, zeta = 0.3 (the standard second-order low-pass)
+    await load(b.page);
     const wn = 2, zeta = 0.3;
     const out = await scriptSet(b.page, { f: LOWPASS, var: 's', params: { wn, zeta }, panels: { transfer: true } });
     assert.ok(out.ok, JSON.stringify(out.error));
