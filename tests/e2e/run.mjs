@@ -524,7 +524,7 @@ describe('the page with the real core', () => {
   test('scripting: state() after set equals what was set (normalised)', async () => {
     await load(b.page);
     const want = { f: '1/(z^2 + 0.5*z + 2)', var: 'z', params: { a: [0.3, 0.1], k: 2 }, view: [-2, 2, -2, 2],
-      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true }, n: 12 };
+      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true, transfer: false }, n: 12 };
     const out = await scriptSet(b.page, want);
     assert.ok(out.ok, JSON.stringify(out.error));
     const got = await scriptState(b.page);
@@ -618,6 +618,86 @@ describe('the page with the real core', () => {
     assert.ok(y1 > 1 && y0 < -1 && x1 - x0 > 2, `${s.region.corners}`);
     assert.match(await b.page.textContent('#region-note'), /^The region was widened by .* so that the pole at z = .*i is not on its edge\.$/);
     assert.equal((await scriptState(b.page)).region, 'view');
+  });
+
+  test('transfer function: the second-order low-pass opened through set(panels.transfer)', async () => {
+    // wn^2/(s^2 + 2 zeta wn s + wn^2), wn = 2, zeta = 0.3 (the standard second-order low-pass)
+    await load(b.page);
+    const wn = 2, zeta = 0.3;
+    const out = await scriptSet(b.page, { f: LOWPASS, var: 's', params: { wn, zeta }, panels: { transfer: true } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    assert.equal(await b.page.isVisible('#tf-box'), true);
+    assert.equal((await scriptState(b.page)).panels.transfer, true);
+    const tf = out.results.transfer_function;
+    assert.ok(tf, 'results() has transfer_function');
+    assert.equal(tf.stale, false);
+    for (const k of ['domain', 'poles', 'zeros', 'dc_gain', 'high_frequency_gain', 'relative_degree', 'frequency_response', 'margins', 'encirclement', 'step', 'impulse', 'warnings']) {
+      assert.ok(k in tf, `contract field ${k}`);
+    }
+    assert.equal(tf.domain, 's');
+    assert.equal(tf.relative_degree, 2);
+    const fr = tf.frequency_response;
+    assert.equal(fr.unit, 'rad/s');
+    // phase −atan2(2 zeta wn w, wn^2 − w^2) (standard second-order phase, from memory): → −180° at high ω
+    const last = fr.omega.length - 1, w = fr.omega[last];
+    const want = -Math.atan2(2 * zeta * wn * w, wn * wn - w * w) * 180 / Math.PI;
+    assert.ok(Math.abs(fr.phase_deg[last] - want) < 1e-6 && Math.abs(fr.phase_deg[last] + 180) < 5, `phase ${fr.phase_deg[last]}° at ω = ${w}`);
+    // resonance peak −20 log10(2 zeta √(1 − zeta²)) dB (standard second-order formula, from memory)
+    const peak = Math.max(...fr.magnitude_db.filter(Number.isFinite));
+    const peakWant = -20 * Math.log10(2 * zeta * Math.sqrt(1 - zeta * zeta));
+    assert.ok(Math.abs(peak - peakWant) < 0.1, `peak ${peak} dB, want ${peakWant}`);
+    // the panel shows the same: N = P = Z = 0, the poles' ωn = 2 and ζ = 0.3, the step metrics
+    assert.match(await b.page.textContent('#tf-encircle'), /N = 0 .*P = 0.*Z = N \+ P = 0/);
+    assert.match(await b.page.textContent('#tf-caution'), /numerical aids/);
+    const rows = await b.page.$$eval('#tf-roots tr', (trs) => trs.map((t) => [...t.cells].map((c) => c.textContent)));
+    assert.equal(rows.length, 2);
+    for (const r of rows) { assert.equal(r[0], 'pole'); assert.equal(r[3], '2'); assert.equal(r[4], '0.3'); }
+    // overshoot 100 exp(−zeta π/√(1 − zeta²)) % (standard second-order step response, from memory)
+    const os = 100 * Math.exp(-zeta * Math.PI / Math.sqrt(1 - zeta * zeta));
+    assert.ok(Math.abs(tf.step.overshoot_percent - os) < 1e-6, `overshoot ${tf.step.overshoot_percent} vs ${os}`);
+    assert.match(await b.page.textContent('#tf-step'), /Overshoot\s*37\.23/);
+    // the pointer on the chart reads a frequency, |F| in dB and the phase
+    const chart = await b.page.$('#tf-chart');
+    await chart.scrollIntoViewIfNeeded();
+    const box = await chart.boundingBox();
+    await b.page.mouse.move(box.x + box.width * 0.6, box.y + 40);
+    await b.page.mouse.move(box.x + box.width * 0.62, box.y + 40);
+    assert.match(await b.page.textContent('#tf-readout'), /^ω = [\d.]+ rad\/s: \|F\| = −?[\d.]+ dB, phase = −[\d.]+°$/);
+    // Hz: the gain crossover divides by 2π (f = ω/2π)
+    const radCross = tf.margins.gain_crossovers[0];
+    await b.page.selectOption('#tf-unit', 'Hz');
+    await b.page.waitForFunction(() => { const r = window.residuary.results().transfer_function; return r && r.frequency_response.unit === 'Hz'; }, null, { timeout: 20000 });
+    const hz = (await scriptResults(b.page)).transfer_function;
+    assert.ok(Math.abs(hz.margins.gain_crossovers[0] - radCross / (2 * Math.PI)) < 1e-9 * radCross, `${hz.margins.gain_crossovers[0]} Hz`);
+    assert.match(await b.page.textContent('#tf-margins'), /Hz, phase margin 50\.2/);
+    await b.page.selectOption('#tf-unit', 'rad/s');
+  });
+
+  test('transfer function: an unstable open loop 2(s + 1)/(s(s − 1)) is stabilised by the loop', async () => {
+    // P = 1 (the pole at s = 1); closed loop s(s − 1) + 2(s + 1) = s^2 + s + 2, both roots in the
+    // left half-plane (Routh, by hand): Z = 0, so N = Z − P = −1 (one counterclockwise turn)
+    const out = await scriptSet(b.page, { f: '2*(s+1)/(s*(s-1))', var: 's', params: {}, panels: { transfer: true } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const e = out.results.transfer_function.encirclement;
+    assert.deepEqual([e.winding, e.open_loop_rhp_poles, e.closed_loop_rhp_poles], [-1, 1, 0]);
+    const text = await b.page.textContent('#tf-encircle');
+    assert.match(text, /N = −1 /);
+    assert.match(text, /P = 1;/);
+    assert.match(text, /Z = N \+ P = 0\./);
+    assert.match(await b.page.textContent('#tf-step'), /no steady state/);
+    // folding it through set() drops it from results()
+    const folded = await scriptSet(b.page, { panels: { transfer: false } });
+    assert.ok(folded.ok, JSON.stringify(folded.error));
+    assert.equal('transfer_function' in folded.results, false);
+    assert.equal((await scriptState(b.page)).panels.transfer, false);
+  });
+
+  test('transfer function: not shown for a function that is not rational', async () => {
+    // exp(−s)/(s + 1) has a delay factor: not rational (by inspection)
+    const out = await scriptSet(b.page, { f: 'exp(-s)/(s+1)', var: 's', params: {}, panels: { transfer: true } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    assert.equal(await b.page.isVisible('#tf-box'), false);
+    assert.equal('transfer_function' in out.results, false);
   });
 
   test('works at 800 px wide without sideways scrolling', async () => {

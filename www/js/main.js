@@ -11,6 +11,7 @@ import { createRegionEditor } from './region.js';
 import { createPipeline } from './pipeline.js';
 import { attachInverseSection } from './inverse.js';
 import { drawInverseChart } from './inverse-chart.js';
+import { attachTransferSection, redrawTransfer } from './transfer.js';
 import { drawWheelKey, fillMarkerKey } from './legend.js';
 import { demoList, demoState, fillExampleMenu, forgetExampleIfChanged } from './demos.js';
 import { rationalAnalysis, fitView } from './fit.js';
@@ -33,6 +34,10 @@ const ui = {
   inv: { box: $('inv-box'), title: $('inv-title'), what: $('inv-what'), span: $('inv-span'), spanLabel: $('inv-span-label'),
     spanHint: $('inv-span-hint'), status: $('inv-status'), warnings: $('inv-warnings'), result: $('inv-result'),
     chart: $('inv-chart'), closed: $('inv-closed'), facts: $('inv-facts') },
+  tf: { box: $('tf-box'), unit: $('tf-unit'), period: $('tf-period'), periodRow: $('tf-period-row'), status: $('tf-status'),
+    warnings: $('tf-warnings'), result: $('tf-result'), chart: $('tf-chart'), readout: $('tf-readout'), margins: $('tf-margins'),
+    encircle: $('tf-encircle'), caution: $('tf-caution'), rootsHead: $('tf-roots-head'), roots: $('tf-roots'), facts: $('tf-facts'),
+    stepFigure: $('tf-step-figure'), stepChart: $('tf-step-chart'), step: $('tf-step') },
 };
 
 /** What the parts of the page share. */
@@ -74,6 +79,7 @@ const readoutAt = createReadout(page);
 const region = createRegionEditor(page, () => { pipeline.regionMoved(); plot.draw(); persist(); pipeline.autoSearchSoon(); });
 const pipeline = createPipeline(page, { contour: () => region.contour(), describePlot: () => describePlot() });
 attachInverseSection(page);
+attachTransferSection(page);
 
 function applyAxisName() {
   plot.axisName = state.infinity ? 'w' : (state.var.trim() || 'z');
@@ -249,7 +255,7 @@ window.addEventListener('hashchange', () => {
 let resizeTimer = 0;
 const resized = () => {
   clearTimeout(resizeTimer);
-  resizeTimer = setTimeout(() => { plot.resize(); if (page.exprOk) plot.scheduleRender(0); if (!ui.inv.result.hidden) drawInverseChart(ui.inv.chart); }, 80);
+  resizeTimer = setTimeout(() => { plot.resize(); if (page.exprOk) plot.scheduleRender(0); if (!ui.inv.result.hidden) drawInverseChart(ui.inv.chart); redrawTransfer(page); }, 80);
 };
 if (typeof ResizeObserver === 'function') new ResizeObserver(resized).observe(ui.canvas.parentElement);
 window.addEventListener('resize', resized); // the height limit follows the window height

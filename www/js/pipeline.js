@@ -14,12 +14,13 @@ import {
 } from './singularities.js';
 import { requestContourIntegral, requestArgumentCount, showContourIntegral, showArgumentCount, contourStatus } from './contour.js';
 import { inverseStatus, prepareInverse, runInverse, stopInverse } from './inverse.js';
+import { prepareTransfer, runTransfer, stopTransfer, transferOpen } from './transfer.js';
 import { rationalAnalysis, nudgeOffEdges, nudgeNote } from './fit.js';
 
 /** The pipeline over `page` (state, ui, plot, exprOk, found, searchSerial, readingOpenNext; see
  *  main.js). Hooks: contour() (the region's contour now), describePlot() (after the markers change).
  *  Every run keeps what each panel computed in page.results ({serial, base, contour, singularities,
- *  contour_integral, argument_count, inverse, partial_fractions}: the core's responses) and ends with
+ *  contour_integral, argument_count, inverse, transfer_function, partial_fractions}: the core's responses) and ends with
  *  an outcome: {status: 'done'}, {status: 'failed', error: {code, message}} or {status: 'superseded'}
  *  (a newer run, a change or Stop came in). `settled()` resolves when the latest run has ended. */
 export function createPipeline(page, hooks) {
@@ -160,6 +161,13 @@ export function createPipeline(page, hooks) {
       await runInverse(page, base);
       if (serial !== page.searchSerial) return superseded;
     }
+    // Then the transfer-function reading (rational f in s or z), when its section is open.
+    await prepareTransfer(page, base);
+    if (serial !== page.searchSerial) return superseded;
+    if (transferOpen(page)) {
+      await runTransfer(page, base);
+      if (serial !== page.searchSerial) return superseded;
+    }
     ui.find.disabled = false;
     ui.cancel.disabled = true;
     // Partial fractions, shown only when f is rational (the task answers).
@@ -185,6 +193,7 @@ export function createPipeline(page, hooks) {
     ui.findStatus.textContent = 'Search stopped.';
     if (ui.ci.box.dataset.state === 'busy') contourStatus(ui.ci, 'Stopped before the contour integral finished.', 'stale');
     stopInverse(page);
+    stopTransfer(page);
     await cancelHeavy();
   }
 

@@ -8,6 +8,7 @@ import { paramsForRequest, functionInput } from './params.js';
 import { sanitize } from './state.js';
 import { regionProblem } from './region.js';
 import { askInverse, currentInverseSpan } from './inverse.js';
+import { askTransfer, transferOpen } from './transfer.js';
 
 /** A failure of set(): rejects with {code, message} (the contract's codes, plus the page's). */
 function scriptError(code, message) {
@@ -86,7 +87,7 @@ export function installScripting(page, hooks) {
         : r.mode === 'rect' ? { shape: 'rectangle', corners: [[r.rect[0], r.rect[2]], [r.rect[1], r.rect[3]]] }
           : { shape: 'circle', center: [r.circle[0], r.circle[1]], radius: r.circle[2] },
       contour: hooks.contour(),
-      panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open },
+      panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page) },
       modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, autoFind: state.autoFind,
     };
     const res = page.results;
@@ -112,6 +113,7 @@ export function installScripting(page, hooks) {
       const key = res.inverseRequest.task;
       out[key] = entry(res.inverse, key === 'inverse_laplace' ? { t: res.inverseRequest.t } : { n: res.inverseRequest.n });
     }
+    if (res.transfer_function && transferOpen(page)) out.transfer_function = entry(res.transfer_function);
     if (res.partial_fractions) out.partial_fractions = entry(res.partial_fractions);
     return out;
   }
@@ -124,9 +126,11 @@ export function installScripting(page, hooks) {
     const span = v === 's' ? partial.t : v === 'z' ? partial.n : undefined;
     if (span !== undefined && !(isNum(span) && span > 0)) throw scriptError('invalid_field', v === 's' ? 't must be T > 0 (the page samples t = T/120 … T)' : 'n must be N > 0 (the page computes n = 0 … N)');
     const panels = partial.panels;
-    if (panels !== undefined && (typeof panels !== 'object' || (panels.inverse !== undefined && typeof panels.inverse !== 'boolean'))) throw scriptError('bad_request', 'panels must be {inverse: true | false}');
+    if (panels !== undefined && (!panels || typeof panels !== 'object' || Object.keys(panels).some((k) => !['inverse', 'transfer'].includes(k)) ||
+      ['inverse', 'transfer'].some((k) => panels[k] !== undefined && typeof panels[k] !== 'boolean'))) throw scriptError('bad_request', 'panels must be {inverse: true | false, transfer: true | false}');
     hooks.adopt(next);
     askInverse(page, v, span, panels ? panels.inverse : null);
+    askTransfer(panels ? panels.transfer : null);
     if (!hooks.checkNow()) {
       const { problems } = paramsForRequest(state.params);
       const resp = runNow(Object.assign(functionInput(state), { task: 'evaluate', at: [[0.31, 0.17]] }));
