@@ -46,6 +46,10 @@ const CASES: &[&str] = &[
     // "x = inf" in the real-integral refusal (seed 23 of the long run): coth(w) is NaN at w = ∞,
     // where the substituted line integral samples its end point.
     r#"{"f":"1e-320/(coth(w))","kind":"line","max_evaluations":2000,"omega":3.25,"task":"real_integral","var":"w"}"#,
+    // A panic (usize overflow) in the default frequency grid: a root of size 1e308 made the
+    // grid's upper end 1e309 = ∞ (seed 8 of `make test`, the day transfer_function came in).
+    r#"{"f":"(s-1e308)","hz":false,"task":"transfer_function"}"#,
+    r#"{"f":"1/(s-1e-308)","task":"transfer_function"}"#,
 ];
 
 /// A budget bounds the three tasks that had none: work far beyond a budget of

@@ -65,8 +65,11 @@ pub fn default_grid(root_sizes: &[f64], domain: Domain) -> Vec<f64> {
         hi = nyquist;
         lo = lo.clamp(nyquist * 1e-6, nyquist * 1e-2);
     }
+    // Root sizes near the ends of double precision (1e308 × 10 overflows): keep the grid finite.
+    let (lo, hi) = (lo.clamp(1e-300, 1e300), hi.clamp(1e-300, 1e300));
+    let (lo, hi) = if hi > lo { (lo, hi) } else { (lo, lo * 10.0) };
     let decades = (hi / lo).log10();
-    let n = ((decades * PER_DECADE).ceil() as usize + 1).clamp(2, MAX_GRID);
+    let n = ((decades * PER_DECADE).ceil().min(MAX_GRID as f64) as usize).saturating_add(1).clamp(2, MAX_GRID);
     (0..n).map(|k| lo * (hi / lo).powf(k as f64 / (n - 1) as f64)).collect()
 }
 
