@@ -572,6 +572,25 @@ describe('the page with the real core', () => {
     assert.equal(await b.page.isVisible('#fit-note'), false, 'two poles of one modulus span no decades');
   });
 
+  test('pole and zero symbols: × and ○ of a pole–zero diagram as an option, kept in the state', async () => {
+    // The convention (× pole, ○ zero) is common practice in control texts; the default stays ours.
+    const out = await scriptSet(b.page, { f: '(s+1)/(s^2+2*s+5)', var: 's', params: {}, symbols: 'diagram' });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    assert.equal((await scriptState(b.page)).symbols, 'diagram');
+    assert.equal(await b.page.inputValue('#opt-symbols'), 'diagram');
+    // the key and the table draw the pole as two crossed lines (an SVG path), the zero as a bare ring
+    const poleIcon = await b.page.$eval('#marker-key svg.marker-icon[data-kind=pole]', (s) => s.innerHTML);
+    assert.match(poleIcon, /<path d="M-5 -5L5 5M5 -5L-5 5"/);
+    const tableIcons = await b.page.$$eval('table svg.marker-icon[data-kind=pole] path', (xs) => xs.length);
+    assert.ok(tableIcons >= 2, `${tableIcons} × icons in the table`);
+    const bad = await scriptSet(b.page, { symbols: 'stars' });
+    assert.equal(bad.ok, false);
+    assert.equal(bad.error.code, 'invalid_field');
+    await b.page.selectOption('#opt-symbols', 'own');
+    assert.equal((await scriptState(b.page)).symbols, 'own');
+    assert.match(await b.page.$eval('#marker-key svg.marker-icon[data-kind=pole]', (s) => s.innerHTML), /<polygon/);
+  });
+
   test('the 1 kHz resonator\'s impulse response is sampled densely enough not to alias', async () => {
     // h(t) = (wn/√(1−ζ²)) e^{−ζ wn t} sin(wd t), wd = wn√(1−ζ²) (impulse response of the standard
     // second-order system, e.g. Ogata, Modern Control Engineering, from memory); ≥ 20 samples per

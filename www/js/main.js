@@ -13,6 +13,7 @@ import { attachInverseSection } from './inverse.js';
 import { drawInverseChart } from './inverse-chart.js';
 import { attachTransferSection, redrawTransfer } from './transfer.js';
 import { drawWheelKey, fillMarkerKey } from './legend.js';
+import { setSymbols, refreshMarkerIcons } from './markers.js';
 import { demoList, demoState, fillExampleMenu, forgetExampleIfChanged } from './demos.js';
 import { rationalAnalysis, fitView } from './fit.js';
 import { installScripting } from './scripting.js';
@@ -21,7 +22,7 @@ const state = loadState();
 const ui = {
   expr: $('expr'), mirror: $('expr-mirror'), message: $('expr-message'), varName: $('var-name'),
   params: $('params'), modulus: $('opt-modulus'), phase: $('opt-phase'), infinity: $('opt-infinity'),
-  wheel: $('opt-wheel'), canvas: $('plot'), readout: $('readout'), plotStatus: $('plot-status'),
+  wheel: $('opt-wheel'), symbols: $('opt-symbols'), canvas: $('plot'), readout: $('readout'), plotStatus: $('plot-status'),
   fit: $('zoom-fit'), fitNote: $('fit-note'), fitNoteText: $('fit-note-text'), zoomSmall: $('zoom-small'), regionNote: $('region-note'),
   find: $('find'), cancel: $('cancel-find'), autoFind: $('auto-find'), findStatus: $('find-status'),
   resInf: $('res-inf'), sumCheck: $('sum-check'), stability: $('stability'), stabilityBox: $('stability-box'),
@@ -160,6 +161,8 @@ function applyStateToControls() {
   ui.phase.checked = state.phase;
   ui.infinity.checked = state.infinity;
   ui.wheel.value = state.wheel;
+  ui.symbols.value = state.symbols;
+  applySymbols();
   ui.autoFind.checked = state.autoFind;
   renderParams(ui.params, state.params, inputsChanged);
   applyAxisName();
@@ -192,6 +195,13 @@ const optionChanged = () => {
 ui.modulus.addEventListener('change', optionChanged);
 ui.phase.addEventListener('change', optionChanged);
 ui.wheel.addEventListener('change', () => { optionChanged(); drawWheelKey($('wheel'), state.wheel); });
+/** Pole and zero symbols: ours, or × and ○ as in a pole–zero diagram; the plot, key and table follow. */
+function applySymbols() {
+  setSymbols(state.symbols);
+  refreshMarkerIcons(document.body);
+  plot.draw();
+}
+ui.symbols.addEventListener('change', () => { state.symbols = ui.symbols.value; persist(); applySymbols(); });
 ui.infinity.addEventListener('change', () => {
   state.infinity = ui.infinity.checked;
   if (state.infinity) { page.lastZView = plot.getView(); plot.homeView = [-1, 1, -1, 1]; plot.setView([-1, 1, -1, 1]); }

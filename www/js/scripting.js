@@ -41,7 +41,7 @@ function regionFrom(value, region) {
   throw scriptError('bad_request', 'region must be "view", {"shape": "rectangle", "corners": [[x0, y0], [x1, y1]]} or {"shape": "circle", "center": [x, y], "radius": r}');
 }
 
-const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'autoFind'];
+const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind'];
 
 /** The page state after `partial` (checked field by field; throws {code, message}). */
 function nextPageState(current, partial) {
@@ -64,6 +64,7 @@ function nextPageState(current, partial) {
   for (const k of ['modulus', 'phase', 'infinity', 'autoFind']) {
     if (k in partial) { if (typeof partial[k] !== 'boolean') throw scriptError('bad_request', `${k} must be true or false`); next[k] = partial[k]; }
   }
+  if ('symbols' in partial) { if (!['own', 'diagram'].includes(partial.symbols)) throw scriptError('invalid_field', 'symbols must be "own" or "diagram"'); next.symbols = partial.symbols; }
   if ('wheel' in partial) { if (!['oklch', 'hsv'].includes(partial.wheel)) throw scriptError('invalid_field', 'wheel must be "oklch" or "hsv"'); next.wheel = partial.wheel; }
   return sanitize(next);
 }
@@ -88,7 +89,7 @@ export function installScripting(page, hooks) {
           : { shape: 'circle', center: [r.circle[0], r.circle[1]], radius: r.circle[2] },
       contour: hooks.contour(),
       panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page) },
-      modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, autoFind: state.autoFind,
+      modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, symbols: state.symbols, autoFind: state.autoFind,
     };
     const res = page.results;
     if (res && res.contour && !ui.singTable.classList.contains('stale')) out.contour = res.contour; // as searched (a nudge moves it)

@@ -23,6 +23,7 @@ export function defaultState() {
     phase: false,
     infinity: false,
     wheel: 'oklch',
+    symbols: 'own',
     region: { mode: 'view', rect: [-3, 3, -3, 3], circle: [0, 0, 2] },
     autoFind: true,
   };
@@ -49,6 +50,7 @@ export function sanitize(raw) {
   if (num4(raw.view) && raw.view[1] > raw.view[0] && raw.view[3] > raw.view[2]) s.view = raw.view;
   for (const k of ['modulus', 'phase', 'infinity', 'autoFind']) if (typeof raw[k] === 'boolean') s[k] = raw[k];
   if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
+  if (raw.symbols === 'own' || raw.symbols === 'diagram') s.symbols = raw.symbols;
   const r = raw.region;
   if (r && typeof r === 'object') {
     if (['view', 'rect', 'circle'].includes(r.mode)) s.region.mode = r.mode;
