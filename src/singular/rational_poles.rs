@@ -302,14 +302,13 @@ fn analyse(num: &[C], den: &[C], factored: Option<&Rational>, as_typed: Option<A
         });
     }
     // Roots side by side: factor by factor when a product form is known.
-    let roots_of = |p: &[C], denominator: bool| match factored {
-        Some(r) if !r.side(denominator).is_empty() => distinct_roots_of_product(&r.side(denominator)),
-        _ => distinct_roots(p),
+    let (den_factors, num_factors) = factored.map_or((Vec::new(), Vec::new()), |r| (r.side(true), r.side(false)));
+    let roots_of = |p: &[C], factors: &[(&[C], u32)]| {
+        if factors.is_empty() { distinct_roots(p) } else { distinct_roots_of_product(factors) }
     };
-    let factor_count = |denominator: bool| factored.map_or(1, |r| r.side(denominator).len());
-    let (mut den_clusters, den_ok) = roots_of(&den, true).map_err(|e| e.context("denominator: "))?;
+    let (mut den_clusters, den_ok) = roots_of(&den, &den_factors).map_err(|e| e.context("denominator: "))?;
     let (mut num_clusters, num_ok) = if num.len() > 1 {
-        roots_of(&num, false).map_err(|e| e.context("numerator: "))?
+        roots_of(&num, &num_factors).map_err(|e| e.context("numerator: "))?
     } else {
         (Vec::new(), true)
     };
@@ -412,7 +411,7 @@ fn analyse(num: &[C], den: &[C], factored: Option<&Rational>, as_typed: Option<A
         let k = zero_order_at[i];
         // The direct route divides the expanded denominator's Taylor series: a
         // check only when the expanded coefficients are what the user typed.
-        let check_direct = !polished_all && factor_count(true) <= 1;
+        let check_direct = !polished_all && den_factors.len() <= 1;
         let e = local_expansion(&num, &den, lead, &factors, &factor_errors, i, k, check_direct);
         match e.limit {
             None => {

@@ -3,18 +3,7 @@
 // canvas (data-points: {omega, db, deg, unit, nyquist}) so that a resize or the pointer can
 // redraw without asking the core again; `cursor` is the index the pointer is nearest.
 import { fmtReal } from './format.js';
-
-/** "Nice" linear tick positions covering [lo, hi]. */
-function linearTicks(lo, hi, count, steps = [1, 2, 5, 10]) {
-  const span = hi - lo;
-  if (!(span > 0)) return [lo];
-  const raw = span / count;
-  const mag = Math.pow(10, Math.floor(Math.log10(raw)));
-  const step = steps.map((m) => m * mag).find((s) => s >= raw) || 10 * mag;
-  const out = [];
-  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
-  return out;
-}
+import { sizedCanvas, niceTicks, tickText } from './chart-kit.js';
 
 /** Phase ticks: multiples of 45° or 90° (more for a wide span). */
 function phaseTicks(lo, hi) {
@@ -31,8 +20,6 @@ export function decadeText(k) {
   return '1e' + String(k).replace('-', '−');
 }
 
-const bodeTickText = (v) => fmtReal(Number(v.toPrecision(6)), 4);
-
 /** The index of the grid frequency nearest (on the log axis) to `w`. */
 export function nearestIndex(omega, w) {
   let best = 0, bestD = Infinity;
@@ -43,16 +30,7 @@ export function nearestIndex(omega, w) {
 
 /** Draw (or redraw) the chart from its data attribute; returns the x mapping for the pointer. */
 export function drawBodeChart(canvas, cursor = -1) {
-  const box = canvas.parentElement.getBoundingClientRect();
-  const cssW = Math.max(200, Math.floor(box.width));
-  const cssH = Math.round(Math.min(380, Math.max(260, cssW * 0.62)));
-  const dpr = window.devicePixelRatio || 1;
-  canvas.style.height = cssH + 'px';
-  canvas.width = Math.round(cssW * dpr);
-  canvas.height = Math.round(cssH * dpr);
-  const g = canvas.getContext('2d');
-  g.setTransform(dpr, 0, 0, dpr, 0, 0);
-  g.clearRect(0, 0, cssW, cssH);
+  const { g, cssW, cssH } = sizedCanvas(canvas, { minW: 200, minH: 260, maxH: 380, aspect: 0.62 });
   if (!canvas.dataset.points) return null;
   const { omega, db, deg, unit, nyquist } = JSON.parse(canvas.dataset.points);
   if (!omega.length) return null;
@@ -69,10 +47,10 @@ export function drawBodeChart(canvas, cursor = -1) {
   const dbTop = Math.max(...db.filter((v) => v !== null && Number.isFinite(v)), -Infinity);
   const [dbLo, dbHi] = range(db.map((v) => (v !== null && Number.isFinite(v) ? Math.max(v, dbTop - 120) : null)), 10);
   const [phLo, phHi] = range(deg, 45);
-  const dbT = linearTicks(dbLo, dbHi, 4, [1, 2, 2.5, 5, 10]);
+  const dbT = niceTicks(dbLo, dbHi, 4, [1, 2, 2.5, 5, 10]);
   const phT = phaseTicks(phLo, phHi);
   g.font = '11px system-ui, sans-serif';
-  const labelW = Math.max(...dbT.concat(phT).map((v) => g.measureText(bodeTickText(v)).width));
+  const labelW = Math.max(...dbT.concat(phT).map((v) => g.measureText(tickText(v)).width));
   const left = 24 + labelW, right = 12, top = 8, gap = 26, bottom = 34;
   const paneH = (cssH - top - gap - bottom) / 2;
   const panes = [
@@ -108,7 +86,7 @@ export function drawBodeChart(canvas, cursor = -1) {
       const yy = Math.round(py(v)) + 0.5;
       g.strokeStyle = v === 0 ? '#9aa5ae' : '#e3e8ec';
       g.beginPath(); g.moveTo(left, yy); g.lineTo(cssW - right, yy); g.stroke();
-      g.fillText(bodeTickText(v), left - 4, yy);
+      g.fillText(tickText(v), left - 4, yy);
     }
     g.strokeStyle = '#7d8891';
     g.strokeRect(left + 0.5, p.y0 + 0.5, cssW - left - right - 1, paneH - 1);

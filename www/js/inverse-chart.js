@@ -1,34 +1,11 @@
 // The inverse transform's chart: f(t) as a line over 0 < t ≤ T, or x[n] as stems
 // for n = 0 … N, with a light grid and tick labels. The data sit on the canvas
 // (data-points, data-kind) so a resize can redraw without asking the core again.
-import { fmtReal } from './format.js';
-
-/** "Nice" tick positions covering [lo, hi]. */
-function ticks(lo, hi, count) {
-  const span = hi - lo;
-  if (!(span > 0)) return [lo];
-  const raw = span / count;
-  const mag = Math.pow(10, Math.floor(Math.log10(raw)));
-  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) || 10 * mag;
-  const out = [];
-  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
-  return out;
-}
-
-const tickText = (v) => fmtReal(Number(v.toPrecision(6)), 4);
+import { sizedCanvas, niceTicks, tickText } from './chart-kit.js';
 
 /** Draw (or redraw, after a resize) the chart from its data attribute. */
 export function drawInverseChart(canvas) {
-  const box = canvas.parentElement.getBoundingClientRect();
-  const cssW = Math.max(160, Math.floor(box.width));
-  const cssH = Math.round(Math.min(220, Math.max(140, cssW * 0.45)));
-  const dpr = window.devicePixelRatio || 1;
-  canvas.style.height = cssH + 'px';
-  canvas.width = Math.round(cssW * dpr);
-  canvas.height = Math.round(cssH * dpr);
-  const g = canvas.getContext('2d');
-  g.setTransform(dpr, 0, 0, dpr, 0, 0);
-  g.clearRect(0, 0, cssW, cssH);
+  const { g, cssW, cssH } = sizedCanvas(canvas, { minW: 160, minH: 140, maxH: 220, aspect: 0.45 });
   if (!canvas.dataset.points) return;
   const { x, y } = JSON.parse(canvas.dataset.points);
   const stems = canvas.dataset.kind === 'z';
@@ -40,7 +17,7 @@ export function drawInverseChart(canvas) {
   lo -= stems && lo === 0 ? 0 : pad;
   hi += pad;
   const x0 = stems ? -0.5 : 0, x1 = stems ? x[x.length - 1] + 0.5 : x[x.length - 1];
-  const yt = ticks(lo, hi, 4), xt = stems ? ticks(0, x[x.length - 1], 6).filter((v) => Number.isInteger(v)) : ticks(0, x1, 6);
+  const yt = niceTicks(lo, hi, 4), xt = stems ? niceTicks(0, x[x.length - 1], 6).filter((v) => Number.isInteger(v)) : niceTicks(0, x1, 6);
   g.font = '11px system-ui, sans-serif';
   const left = 8 + Math.max(...yt.map((v) => g.measureText(tickText(v)).width)), right = 10, top = 8, bottom = 22;
   const px = (v) => left + ((v - x0) / (x1 - x0)) * (cssW - left - right);
