@@ -156,20 +156,6 @@ fn growth_radius(f: &dyn Fn(C) -> C, a: C, mut r: f64, budget: &mut Budget) -> R
     Ok(r)
 }
 
-/// True when f is infinite (overflowed, not NaN) at most points of the circle
-/// of radius `r` about `a`: samples on a circle miss an isolated pole, so
-/// infinity at most of them is overflow.
-fn overflows_near(f: &dyn Fn(C) -> C, a: C, r: f64, budget: &mut Budget) -> Result<bool, Failure> {
-    let mut infinite = 0;
-    for k in 0..8 {
-        let v = eval(f, a + C::from_polar(r, 0.7 + k as f64 * std::f64::consts::TAU / 8.0), budget)?;
-        if v.re.is_infinite() || v.im.is_infinite() || (v.re.is_nan() && v.im.is_nan()) {
-            infinite += 1;
-        }
-    }
-    Ok(infinite >= 2)
-}
-
 fn analyse(
     f: &dyn Fn(C) -> C,
     a: C,
@@ -295,7 +281,8 @@ fn analyse(
         chosen = Some(rings);
         break;
     }
-    if chosen.is_none() && every_ring_overflowed && overflows_near(f, a, r, budget)? {
+    // Every ring failed on non-finite samples: overflow (the shared probe) or true singularities?
+    if chosen.is_none() && every_ring_overflowed && crate::overflow::overflows_near(&mut |z| f(z), a + C::from_polar(r, 0.7)) {
         return Err(Failure::not_finite(format!(
             "f overflows double precision (|f| > 1.8e308) on every sampling circle around {}, down to radius {r:.1e}: \
              this is overflow, not a singularity, and the residue cannot be computed by sampling; divide f by a \
