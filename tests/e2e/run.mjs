@@ -692,6 +692,108 @@ describe('the page with the real core', () => {
     await b.page.selectOption('#tf-unit', 'rad/s');
   });
 
+  test('transfer function: polar plot data, chart cursors by keyboard, a point picked on the polar plot', async () => {
+    // the second-order low-pass again, F(s) = wn^2/(s^2 + 2 zeta wn s + wn^2), wn = 2, zeta = 0.3
+    await load(b.page);
+    const wn = 2, zeta = 0.3;
+    const out = await scriptSet(b.page, { f: LOWPASS, var: 's', params: { wn, zeta }, panels: { transfer: true } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const tf = out.results.transfer_function;
+    // independent evaluation of the typed ratio at s = jω (complex arithmetic written out here)
+    const F = (w) => {
+      const dr = wn * wn - w * w, di = 2 * zeta * wn * w, d2 = dr * dr + di * di;
+      return [wn * wn * dr / d2, -wn * wn * di / d2];
+    };
+    const num = (t) => Number(t.replace(/−/g, '-'));
+    const close = (a, b, what) => assert.ok(Math.abs(a - b) <= 1e-7 * Math.max(1, Math.abs(b)), `${what}: ${a} vs ${b}`);
+    assert.equal(await b.page.isVisible('#tf-polar'), true);
+    assert.equal(await b.page.getAttribute('#tf-polar', 'tabindex'), '0');
+    // the polar table: built on opening, 200 rows a page, Re and Im equal to F(jω)
+    assert.equal(await b.page.$$eval('#tf-polar-data tbody tr', (r) => r.length), 0, 'built only when opened');
+    await b.page.click('#tf-polar-data > summary');
+    const heads = await b.page.$$eval('#tf-polar-data thead th', (t) => t.map((x) => x.textContent));
+    assert.deepEqual(heads, ['ω (rad/s)', 'piece', 'Re F', 'Im F']);
+    const n = Number((await b.page.textContent('#tf-polar-data > summary')).match(/Data \((\d+) samples\)/)[1]);
+    assert.ok(n >= 2 * tf.frequency_response.omega.length - 2, `${n} polar samples`);
+    const checkPage = async () => {
+      const rows = await b.page.$$eval('#tf-polar-data tbody tr', (trs) => trs.map((t) => [...t.cells].map((c) => c.textContent)));
+      assert.equal(rows.length, Math.min(200, n));
+      let checked = 0;
+      for (const [w, , re, im] of rows) {
+        if (w === '—') continue;
+        const [fr, fi] = F(num(w));
+        close(num(re), fr, `Re F(j${w})`);
+        close(num(im), fi, `Im F(j${w})`);
+        checked++;
+      }
+      assert.ok(checked > 100, `${checked} rows checked`);
+    };
+    await checkPage();
+    await b.page.click('#tf-polar-data .data-next');
+    assert.match(await b.page.textContent('#tf-polar-data .data-where'), new RegExp(`^rows 201–400 of ${n}$`));
+    await checkPage();
+    // the frequency-response table: 20 log10 |F(jω)| and the phase at its first row
+    await b.page.click('#tf-bode-data > summary');
+    const first = await b.page.$$eval('#tf-bode-data tbody tr:first-child td', (c) => c.map((x) => x.textContent));
+    const w0 = num(first[0]), [r0, i0] = F(w0);
+    close(w0, tf.frequency_response.omega[0], 'first frequency');
+    close(num(first[1]), 20 * Math.log10(Math.hypot(r0, i0)), 'dB');
+    close(num(first[2]), Math.atan2(i0, r0) * 180 / Math.PI, 'degrees');
+    // the keys move the cursor and the (aria-live) readout follows
+    assert.equal(await b.page.getAttribute('#tf-polar-readout', 'aria-live'), 'polite');
+    await b.page.focus('#tf-polar');
+    await b.page.keyboard.press('Home');
+    const atHome = await b.page.textContent('#tf-polar-readout');
+    await b.page.keyboard.press('ArrowRight');
+    const next = await b.page.textContent('#tf-polar-readout');
+    await b.page.keyboard.press('Shift+ArrowRight');
+    const ten = await b.page.textContent('#tf-polar-readout');
+    assert.notEqual(atHome, next);
+    assert.notEqual(next, ten);
+    assert.match(ten, /^ω = −[\d.]+ rad\/s: F = /);
+    await b.page.focus('#tf-chart');
+    await b.page.keyboard.press('End');
+    const last = tf.frequency_response.omega.length - 1;
+    const bodeText = await b.page.textContent('#tf-readout');
+    close(num(bodeText.match(/^ω = (\S+) rad\/s/)[1]), tf.frequency_response.omega[last], 'End: the last frequency');
+    await b.page.keyboard.press('ArrowLeft');
+    assert.notEqual(await b.page.textContent('#tf-readout'), bodeText);
+    for (const [chart, readout, series, sym] of [['#tf-step-chart', '#tf-step-readout', tf.step, 'y'], ['#tf-impulse-chart', '#tf-impulse-readout', tf.impulse, 'h']]) {
+      await b.page.focus(chart);
+      await b.page.keyboard.press('End');
+      const m = (await b.page.textContent(readout)).match(new RegExp(`^t = (\\S+) s: ${sym}\\(t\\) = (\\S+)$`));
+      assert.ok(m, await b.page.textContent(readout));
+      const k = series.t.length - 1;
+      assert.ok(Math.abs(num(m[1]) - series.t[k]) <= 1e-4 * series.t[k] && Math.abs(num(m[2]) - series.y[k]) <= 1e-5 * Math.max(1, Math.abs(series.y[k])), m[0]);
+    }
+    // a click on the polar plot counts about the point clicked
+    const polar = await b.page.$('#tf-polar');
+    await polar.scrollIntoViewIfNeeded();
+    const box = await polar.boundingBox();
+    await b.page.mouse.click(box.x + box.width * 0.55, box.y + box.height * 0.45);
+    await b.page.waitForFunction(() => { const r = window.residuary.results().transfer_function; return r && (r.encirclement.about[0] !== -1 || r.encirclement.about[1] !== 0); }, null, { timeout: 20000 });
+    const e = (await scriptResults(b.page)).transfer_function.encirclement;
+    assert.deepEqual(JSON.parse(await b.page.getAttribute('#tf-about', 'data-point')), e.about);
+    assert.match(await b.page.textContent('#tf-about'), /^about /);
+    // N = Z − P with P = 0: Z the roots of F − p in Re s > 0, i.e. of −p s² − 2 p zeta wn s + wn²(1 − p)
+    // (quadratic formula in complex arithmetic, written out here)
+    const [pr, pi] = e.about;
+    const mul = (a, c) => [a[0] * c[0] - a[1] * c[1], a[0] * c[1] + a[1] * c[0]];
+    const div = (a, c) => { const d = c[0] * c[0] + c[1] * c[1]; return [(a[0] * c[0] + a[1] * c[1]) / d, (a[1] * c[0] - a[0] * c[1]) / d]; };
+    const sqrtC = ([x, y]) => { const r = Math.hypot(x, y); const u = Math.sqrt((r + x) / 2), v = Math.sign(y || 1) * Math.sqrt(Math.max(0, (r - x) / 2)); return [u, v]; };
+    const A = [-pr, -pi], B = [-2 * zeta * wn * pr, -2 * zeta * wn * pi], C = [wn * wn * (1 - pr), -wn * wn * pi];
+    const disc = sqrtC([mul(B, B)[0] - 4 * mul(A, C)[0], mul(B, B)[1] - 4 * mul(A, C)[1]]);
+    const roots = [div([-B[0] + disc[0], -B[1] + disc[1]], [2 * A[0], 2 * A[1]]), div([-B[0] - disc[0], -B[1] - disc[1]], [2 * A[0], 2 * A[1]])];
+    const Z = roots.filter((r) => r[0] > 0).length;
+    assert.ok(roots.every((r) => Math.abs(r[0]) > 1e-6), `a root on the axis: ${JSON.stringify(roots)}`);
+    assert.equal(e.winding, Z, `about ${e.about}: roots ${JSON.stringify(roots)}`);
+    assert.match(await b.page.textContent('#tf-encircle-head'), /^Encirclement of /);
+    // back to −1
+    await b.page.click('#tf-point-reset');
+    await b.page.waitForFunction(() => { const r = window.residuary.results().transfer_function; return r && r.encirclement.about[0] === -1 && r.encirclement.about[1] === 0; }, null, { timeout: 20000 });
+    assert.equal(await b.page.textContent('#tf-about'), 'about −1');
+  });
+
   test('transfer function: an unstable open loop 2(s + 1)/(s(s − 1)) is stabilised by the loop', async () => {
     // P = 1 (the pole at s = 1); closed loop s(s − 1) + 2(s + 1) = s^2 + s + 2, both roots in the
     // left half-plane (Routh, by hand): Z = 0, so N = Z − P = −1 (one counterclockwise turn)

@@ -33,3 +33,57 @@ export function niceTicks(lo, hi, count, steps = [1, 2, 5, 10]) {
 
 /** A tick label: up to four significant digits, the page's minus sign. */
 export const tickText = (v) => fmtReal(Number(v.toPrecision(6)), 4);
+
+/** The cursor of a chart: the pointer picks the nearest sample, and the focused canvas
+ *  (tabindex 0) moves it with ArrowLeft / ArrowRight (Shift: 10 samples), Home and End.
+ *  `view` gives `count()` (samples now shown, 0 when none), `pick(x, y)` (the sample nearest the
+ *  canvas point in CSS pixels, or −1), `draw(i)` (redraw with the cursor at i, −1 for none) and
+ *  `read(i)` (the readout's text for sample i). The readout (an aria-live region) shows it.
+ *  Returns {index, show(i), reset()}: reset forgets the cursor when new data arrive. */
+export function attachCursor(canvas, readout, view) {
+  const cur = { index: -1 };
+  canvas.tabIndex = 0;
+  readout.setAttribute('aria-live', 'polite');
+  cur.show = (i) => {
+    const n = view.count();
+    if (!n) return;
+    cur.index = Math.max(0, Math.min(n - 1, i));
+    view.draw(cur.index);
+    readout.textContent = view.read(cur.index);
+  };
+  cur.reset = () => { cur.index = -1; };
+  canvas.addEventListener('pointermove', (ev) => {
+    if (!view.count()) return;
+    const r = canvas.getBoundingClientRect();
+    const i = view.pick(ev.clientX - r.left, ev.clientY - r.top);
+    if (i >= 0) cur.show(i);
+  });
+  canvas.addEventListener('keydown', (ev) => {
+    const n = view.count();
+    if (!n) return;
+    const step = ev.shiftKey ? 10 : 1;
+    const at = cur.index < 0 ? -1 : cur.index;
+    let next;
+    if (ev.key === 'ArrowRight') next = at < 0 ? 0 : at + step;
+    else if (ev.key === 'ArrowLeft') next = at < 0 ? n - 1 : at - step;
+    else if (ev.key === 'Home') next = 0;
+    else if (ev.key === 'End') next = n - 1;
+    else return;
+    ev.preventDefault();
+    cur.show(next);
+  });
+  return cur;
+}
+
+/** The index of the sample nearest to (x, y) among `n` samples whose canvas positions `at(i)`
+ *  gives as [px, py] (or null for a sample not drawn); −1 when none is drawn. */
+export function nearestPixel(n, at, x, y) {
+  let best = -1, bestD = Infinity;
+  for (let i = 0; i < n; i++) {
+    const p = at(i);
+    if (!p) continue;
+    const d = (p[0] - x) ** 2 + (p[1] - y) ** 2;
+    if (d < bestD) { bestD = d; best = i; }
+  }
+  return best;
+}

@@ -1,17 +1,20 @@
 // The inverse transform's chart: f(t) as a line over 0 < t ≤ T, or x[n] as stems
 // for n = 0 … N, with a light grid and tick labels. The data sit on the canvas
 // (data-points, data-kind) so a resize can redraw without asking the core again.
+// `opts` (the transfer section's charts): `cursor` (a sample index to mark), `xLabel` (the axis
+// name with its unit), `extraY` (values the y range must include), `decorate(g, map)` (drawn
+// under the data: the step metrics); returns the map {px, py, left, right, top, bottom, toX}.
 import { sizedCanvas, niceTicks, tickText } from './chart-kit.js';
 
 /** Draw (or redraw, after a resize) the chart from its data attribute. */
-export function drawInverseChart(canvas) {
+export function drawInverseChart(canvas, opts = {}) {
   const { g, cssW, cssH } = sizedCanvas(canvas, { minW: 160, minH: 140, maxH: 220, aspect: 0.45 });
-  if (!canvas.dataset.points) return;
+  if (!canvas.dataset.points) return null;
   const { x, y } = JSON.parse(canvas.dataset.points);
   const stems = canvas.dataset.kind === 'z';
-  const finite = y.filter((v) => v !== null);
-  if (!finite.length) return;
-  let lo = Math.min(0, ...finite), hi = Math.max(0, ...finite);
+  const finite = y.filter((v) => v !== null).concat((opts.extraY || []).filter(Number.isFinite));
+  if (!finite.length) return null;
+  let lo = finite.reduce((a, v) => Math.min(a, v), 0), hi = finite.reduce((a, v) => Math.max(a, v), 0);
   if (hi - lo < 1e-300) { hi += 1; lo -= 1; }
   const pad = 0.06 * (hi - lo);
   lo -= stems && lo === 0 ? 0 : pad;
@@ -48,7 +51,10 @@ export function drawInverseChart(canvas) {
   g.stroke();
   g.textAlign = 'right';
   g.textBaseline = 'bottom';
-  g.fillText(stems ? 'n' : 't', cssW - right, cssH - bottom - 2);
+  g.fillText(opts.xLabel || (stems ? 'n' : 't'), cssW - right, cssH - bottom - 2);
+  const map = { px, py, left, right: cssW - right, top, bottom: cssH - bottom,
+    toX: (xx) => x0 + ((xx - left) / (cssW - left - right)) * (x1 - x0) };
+  if (opts.decorate) { g.save(); opts.decorate(g, map); g.restore(); }
   // the data
   g.strokeStyle = '#1f5f8b';
   g.fillStyle = '#1f5f8b';
@@ -70,4 +76,14 @@ export function drawInverseChart(canvas) {
     });
     g.stroke();
   }
+  const c = opts.cursor;
+  if (Number.isInteger(c) && c >= 0 && c < x.length && y[c] !== null) {
+    const xx = Math.round(px(x[c])) + 0.5;
+    g.strokeStyle = '#444';
+    g.lineWidth = 1;
+    g.beginPath(); g.moveTo(xx, top); g.lineTo(xx, cssH - bottom); g.stroke();
+    g.fillStyle = '#c0392b';
+    g.beginPath(); g.arc(px(x[c]), py(y[c]), 3.5, 0, 2 * Math.PI); g.fill();
+  }
+  return map;
 }
