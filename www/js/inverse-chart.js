@@ -22,7 +22,7 @@ export function drawInverseChart(canvas, opts = {}) {
   const x0 = stems ? -0.5 : 0, x1 = stems ? x[x.length - 1] + 0.5 : x[x.length - 1];
   const yt = niceTicks(lo, hi, 4), xt = stems ? niceTicks(0, x[x.length - 1], 6).filter((v) => Number.isInteger(v)) : niceTicks(0, x1, 6);
   g.font = '11px system-ui, sans-serif';
-  const left = 8 + Math.max(...yt.map((v) => g.measureText(tickText(v)).width)), right = 10, top = 8, bottom = 22;
+  const left = 8 + Math.max(...yt.map((v) => g.measureText(tickText(v)).width)), right = 10, top = 8, bottom = opts.xLabel ? 34 : 22;
   const px = (v) => left + ((v - x0) / (x1 - x0)) * (cssW - left - right);
   const py = (v) => top + ((hi - v) / (hi - lo)) * (cssH - top - bottom);
   // grid and tick labels
@@ -51,7 +51,8 @@ export function drawInverseChart(canvas, opts = {}) {
   g.stroke();
   g.textAlign = 'right';
   g.textBaseline = 'bottom';
-  g.fillText(opts.xLabel || (stems ? 'n' : 't'), cssW - right, cssH - bottom - 2);
+  if (opts.xLabel) g.fillText(opts.xLabel, cssW - right, cssH - 1); // under the tick labels
+  else g.fillText(stems ? 'n' : 't', cssW - right, cssH - bottom - 2);
   const map = { px, py, left, right: cssW - right, top, bottom: cssH - bottom,
     toX: (xx) => x0 + ((xx - left) / (cssW - left - right)) * (x1 - x0) };
   if (opts.decorate) { g.save(); opts.decorate(g, map); g.restore(); }

@@ -49,7 +49,12 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
   const squeezed = mode === 'compressed';
   const R = compressionRadius(about);
   g.font = '11px system-ui, sans-serif';
-  const left = 44, right = 10, top = 30, bottom = 30;
+  // what is shown, above the plot: the view, then the line styles (on two lines when narrow)
+  const left = 44, right = 10, bottom = 30;
+  const title = squeezed ? `Compressed view: w drawn at w/(1 + |w|/R), R = ${fmtReal(R, 4)}` : 'Linear view, equal scales';
+  const styles = 'solid ω > 0, dashed ω < 0, brown: detours and closing arc';
+  const lines = g.measureText(styles).width > cssW - left - right ? [title, 'solid ω > 0, dashed ω < 0', 'brown: detours and closing arc'] : [title, styles];
+  const top = 4 + 13 * lines.length;
   const W = cssW - left - right, H = cssH - top - bottom;
   let [x0, x1, y0, y1] = squeezed ? [-1.06 * R, 1.06 * R, -1.06 * R, 1.06 * R] : linearBox(samples, about);
   // equal scales: widen the shorter side about its centre
@@ -161,11 +166,9 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
   g.restore();
   g.strokeStyle = '#7d8891'; g.lineWidth = 1;
   g.strokeRect(left + 0.5, top + 0.5, W - 1, H - 1);
-  // what is shown: the view, the axes' names, the line styles
-  g.fillStyle = '#3b4650'; g.textAlign = 'left'; g.textBaseline = 'top';
-  g.fillText(squeezed ? `Compressed view: w drawn at w/(1 + |w|/R), R = ${fmtReal(R, 4)}` : 'Linear view, equal scales', left, 2);
-  g.fillStyle = '#5b6670';
-  g.fillText('solid ω > 0, dashed ω < 0, brown: detours and closing arc', left, 15);
+  // the lines above the plot and the axes' names
+  g.textAlign = 'left'; g.textBaseline = 'top';
+  lines.forEach((t, k) => { g.fillStyle = k ? '#5b6670' : '#3b4650'; g.fillText(t, left, 2 + 13 * k); });
   g.textAlign = 'right'; g.textBaseline = 'bottom';
   g.fillText('Re F', left + W, cssH - 2);
   g.save(); g.translate(10, top + H / 2); g.rotate(-Math.PI / 2); g.textAlign = 'center'; g.textBaseline = 'middle'; g.fillText('Im F', 0, 0); g.restore();

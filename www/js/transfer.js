@@ -27,6 +27,7 @@ export function transferDomain(variable) {
 const section = { key: '', serial: 0, forceOpen: null, chart: null,
   point: null,        // the point the encirclements are counted about ([re, im]); null: −1
   polar: null,        // {samples: [{re, im, w, kind}], about, unit, domain}: the polar plot's data
+  shown: 0,           // counts the responses shown (a deferred drawing of an older one is dropped)
   bode: null,         // the frequency response shown (the chart's data-points, parsed)
   polarMap: null, stepMap: null, impulseMap: null,
   time: { step: null, impulse: null }, // {x, t, y, isZ, T, metrics}: the time charts' data
@@ -247,7 +248,8 @@ function showTime(parts, which, d) {
   canvas.dataset.kind = d.isZ ? 'z' : 'laplace';
   canvas.dataset.points = JSON.stringify({ x: d.x, y: d.y });
   figure.hidden = false;
-  drawTime(parts, which);
+  if (which === 'step') section.stepMap = null; else section.impulseMap = null;
+  later(() => drawTime(parts, which));
   readout.textContent = 'Point at the chart, or focus it and use the arrow keys, for the values at a time.';
   const name = which === 'step' ? 'y' : 'h';
   setDataTable(table, `${which === 'step' ? 'Step' : 'Impulse'} response samples`, {
@@ -255,6 +257,13 @@ function showTime(parts, which, d) {
     count: d.t.length,
     row: (i) => (d.isZ ? [String(d.x[i]), cell(d.t[i]), cell(d.y[i])] : [cell(d.t[i]), cell(d.y[i])]),
   });
+}
+
+/** Run `fn` in a task of its own (so that no one task draws every chart), unless newer data
+ *  arrived meanwhile. */
+function later(fn) {
+  const serial = section.shown;
+  setTimeout(() => { if (serial === section.shown) fn(); }, 0);
 }
 
 /** Draw the polar plot with its cursor. */
@@ -275,6 +284,7 @@ export function showTransfer(parts, request, resp) {
   }
   status(parts, '', 'done');
   parts.result.hidden = false;
+  section.shown++;
   const domain = resp.domain;
   const fr = resp.frequency_response;
   const T = resp.sample_period;
@@ -312,7 +322,8 @@ export function showTransfer(parts, request, resp) {
   section.polar = { samples: polarSamples(resp), about: e.about, unit: fr.unit, domain, fromImage: Boolean(resp.image && resp.image.segments) };
   const image = domain === 'z' ? 'F(e^(jωT))' : 'F(jω)';
   parts.polar.setAttribute('aria-label', `Polar plot of ${image} with the point ${aboutText} marked; ${parts.encircle.textContent}`);
-  drawPolar(parts);
+  section.polarMap = null;
+  later(() => drawPolar(parts));
   parts.polarReadout.textContent = 'Point at the plot, or focus it and use the arrow keys, for the values along the contour.';
   const ps = section.polar.samples;
   setDataTable(parts.polarData, 'Polar plot samples in contour order', {
@@ -471,7 +482,7 @@ export function attachTransferSection(page) {
     count: () => (section.time[which] && !canvas.closest('[hidden]') ? section.time[which].t.length : 0),
     pick: (x) => {
       const m = which === 'step' ? section.stepMap : section.impulseMap, d = section.time[which];
-      if (!m || x < m.left || x > m.right) return -1;
+      if (!m || !d || x < m.left || x > m.right) return -1;
       const want = m.toX(x);
       let best = 0;
       d.x.forEach((v, i) => { if (Math.abs(v - want) < Math.abs(d.x[best] - want)) best = i; });
@@ -491,8 +502,8 @@ export function attachTransferSection(page) {
       },
     }),
     polar: attachCursor(tf.polar, tf.polarReadout, {
-      count: () => (section.polar && section.polarMap ? section.polar.samples.length : 0),
-      pick: (x, y) => section.polarMap.nearest(x, y),
+      count: () => (section.polar ? section.polar.samples.length : 0),
+      pick: (x, y) => (section.polarMap ? section.polarMap.nearest(x, y) : -1),
       draw: (i) => drawPolar(tf, i),
       read: polarRead,
     }),
