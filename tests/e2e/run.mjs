@@ -711,6 +711,7 @@ describe('the page with the real core', () => {
     // the polar table: built on opening, 200 rows a page, Re and Im equal to F(jω)
     assert.equal(await b.page.$$eval('#tf-polar-data tbody tr', (r) => r.length), 0, 'built only when opened');
     await b.page.click('#tf-polar-data > summary');
+    await b.page.waitForSelector('#tf-polar-data tbody tr');
     const heads = await b.page.$$eval('#tf-polar-data thead th', (t) => t.map((x) => x.textContent));
     assert.deepEqual(heads, ['ω (rad/s)', 'piece', 'Re F', 'Im F']);
     const n = Number((await b.page.textContent('#tf-polar-data > summary')).match(/Data \((\d+) samples\)/)[1]);
@@ -734,6 +735,7 @@ describe('the page with the real core', () => {
     await checkPage();
     // the frequency-response table: 20 log10 |F(jω)| and the phase at its first row
     await b.page.click('#tf-bode-data > summary');
+    await b.page.waitForSelector('#tf-bode-data tbody tr');
     const first = await b.page.$$eval('#tf-bode-data tbody tr:first-child td', (c) => c.map((x) => x.textContent));
     const w0 = num(first[0]), [r0, i0] = F(w0);
     close(w0, tf.frequency_response.omega[0], 'first frequency');
