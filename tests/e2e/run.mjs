@@ -715,7 +715,9 @@ describe('the page with the real core', () => {
     const heads = await b.page.$$eval('#tf-polar-data thead th', (t) => t.map((x) => x.textContent));
     assert.deepEqual(heads, ['ω (rad/s)', 'piece', 'Re F', 'Im F']);
     const n = Number((await b.page.textContent('#tf-polar-data > summary')).match(/Data \((\d+) samples\)/)[1]);
-    assert.ok(n >= 2 * tf.frequency_response.omega.length - 2, `${n} polar samples`);
+    // one row per point of the core's image of the contour (else of F(jω) and its mirror)
+    const points = tf.image ? tf.image.segments.reduce((a, seg) => a + seg.value.length, 0) : 2 * tf.frequency_response.omega.length;
+    assert.ok(n === points && n > 200, `${n} polar samples, ${points} points`);
     const checkPage = async () => {
       const rows = await b.page.$$eval('#tf-polar-data tbody tr', (trs) => trs.map((t) => [...t.cells].map((c) => c.textContent)));
       assert.equal(rows.length, Math.min(200, n));

@@ -24,22 +24,30 @@ function unsqueeze(x, y, R) {
   return [x * s, y * s];
 }
 
-/** The linear view's box: the point, the origin and the samples no larger than a cap (3 max(1, |p|)
- *  or the 75th percentile of |F|, the larger), padded by 8 %. */
-function linearBox(samples, about) {
-  const mags = samples.filter((s) => s.re !== null).map((s) => Math.hypot(s.re, s.im)).filter(Number.isFinite).sort((a, b) => a - b);
-  const q = mags.length ? mags[Math.floor(0.75 * (mags.length - 1))] : 1;
-  const cap = Math.max(3 * Math.max(1, Math.hypot(about[0], about[1])), q);
+/** The linear view's box: the point, the origin and the curve's finite part, padded by 8 %. The
+ *  finite part: the samples no larger than a cap (3 max(1, |p|) or the 75th percentile of |F|, the
+ *  larger); with `fit` {cap, wLo, wHi} (from the frequency response's grid, which spreads its
+ *  points evenly over the decades where F changes) the cap is given and only the axis samples with
+ *  wLo ≤ |ω| ≤ wHi count, so that the points crowded near a pole on the contour do not widen it. */
+function linearBox(samples, about, fit) {
+  const pMag = Math.max(1, Math.hypot(about[0], about[1]));
+  let cap;
+  if (fit && Number.isFinite(fit.cap)) cap = Math.max(3 * pMag, fit.cap);
+  else {
+    const mags = samples.filter((s) => s.re !== null).map((s) => Math.hypot(s.re, s.im)).filter(Number.isFinite).sort((a, b) => a - b);
+    cap = Math.max(3 * pMag, mags.length ? mags[Math.floor(0.75 * (mags.length - 1))] : 1);
+  }
+  const counts = (s) => !fit || (s.w !== null && Math.abs(s.w) >= fit.wLo && Math.abs(s.w) <= fit.wHi);
   let x0 = Math.min(0, about[0]), x1 = Math.max(0, about[0]), y0 = Math.min(0, about[1]), y1 = Math.max(0, about[1]);
   for (const s of samples) {
-    if (s.re === null || !(Math.hypot(s.re, s.im) <= cap)) continue;
+    if (s.re === null || !counts(s) || !(Math.hypot(s.re, s.im) <= cap)) continue;
     x0 = Math.min(x0, s.re); x1 = Math.max(x1, s.re); y0 = Math.min(y0, s.im); y1 = Math.max(y1, s.im);
   }
   const pad = 0.08 * Math.max(x1 - x0, y1 - y0, 1e-9);
   return [x0 - pad, x1 + pad, y0 - pad, y1 + pad];
 }
 
-/** Draw the chart from `data` {samples: [{re, im, w, kind}], about: [re, im], unit} in `mode`
+/** Draw the chart from `data` {samples: [{re, im, w, kind}], about: [re, im], unit, fit} in `mode`
  *  ('linear' or 'compressed') with the cursor at sample `cursor` (−1 none). Returns the mapping:
  *  {at(i) → [x, y] | null, toValue(x, y) → [re, im] | null}. */
 export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
@@ -56,7 +64,7 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
   const lines = g.measureText(styles).width > cssW - left - right ? [title, 'solid ω > 0, dashed ω < 0', 'brown: detours and closing arc'] : [title, styles];
   const top = 4 + 13 * lines.length;
   const W = cssW - left - right, H = cssH - top - bottom;
-  let [x0, x1, y0, y1] = squeezed ? [-1.06 * R, 1.06 * R, -1.06 * R, 1.06 * R] : linearBox(samples, about);
+  let [x0, x1, y0, y1] = squeezed ? [-1.06 * R, 1.06 * R, -1.06 * R, 1.06 * R] : linearBox(samples, about, data.fit);
   // equal scales: widen the shorter side about its centre
   const scale = Math.min(W / (x1 - x0), H / (y1 - y0));
   const cx = (x0 + x1) / 2, cy = (y0 + y1) / 2;
@@ -94,7 +102,7 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
     g.beginPath(); g.arc(px(0), py(0), R * scale, 0, 2 * Math.PI); g.stroke();
     g.setLineDash([]);
     g.fillStyle = '#5b6670'; g.textAlign = 'left'; g.textBaseline = 'bottom';
-    g.fillText('rim: |F| infinite', px(0) + R * scale * 0.7071 + 2, py(0) + R * scale * 0.7071 + 12);
+    g.fillText('dotted rim: |F| infinite', left + 3, top + H - 3);
     g.restore();
   }
   // the axes Re F = 0, Im F = 0

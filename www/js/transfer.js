@@ -319,7 +319,9 @@ export function showTransfer(parts, request, resp) {
   parts.pointReset.hidden = e.about[0] === -1 && e.about[1] === 0;
 
   // the polar plot of the contour's image
-  section.polar = { samples: polarSamples(resp), about: e.about, unit: fr.unit, domain, fromImage: Boolean(resp.image && resp.image.segments) };
+  const mags = fr.magnitude_db.filter((v) => v !== null && Number.isFinite(v)).map((v) => Math.pow(10, v / 20)).sort((a, b) => a - b);
+  const fit = mags.length ? { cap: mags[Math.floor(0.75 * (mags.length - 1))], wLo: fr.omega[0], wHi: fr.omega[fr.omega.length - 1] } : null;
+  section.polar = { samples: polarSamples(resp), about: e.about, unit: fr.unit, domain, fit, fromImage: Boolean(resp.image && resp.image.segments) };
   const image = domain === 'z' ? 'F(e^(jωT))' : 'F(jω)';
   parts.polar.setAttribute('aria-label', `Polar plot of ${image} with the point ${aboutText} marked; ${parts.encircle.textContent}`);
   section.polarMap = null;
