@@ -798,6 +798,44 @@ describe('the page with the real core', () => {
     assert.equal(await b.page.textContent('#tf-about'), 'about −1');
   });
 
+  test('transfer function in z: the polar table is F(e^(jωT)), the impulse stems read h[n] by keyboard', async () => {
+    // F(z) = 0.4 (z + 0.5)/(z² − z + 0.5), T = 1: poles 0.5 ± 0.5i inside the unit circle
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: '0.4*(z+0.5)/(z^2 - z + 0.5)', var: 'z', params: {}, panels: { transfer: true } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const tf = out.results.transfer_function;
+    assert.equal(tf.domain, 'z');
+    // independent evaluation of the typed ratio at z = e^(jω) (complex arithmetic written out here)
+    const F = (w) => {
+      const zr = Math.cos(w), zi = Math.sin(w);
+      const nr = 0.4 * (zr + 0.5), ni = 0.4 * zi;
+      const dr = zr * zr - zi * zi - zr + 0.5, di = 2 * zr * zi - zi, d2 = dr * dr + di * di;
+      return [(nr * dr + ni * di) / d2, (ni * dr - nr * di) / d2];
+    };
+    const num = (t) => Number(t.replace(/−/g, '-'));
+    await b.page.click('#tf-polar-data > summary');
+    await b.page.waitForSelector('#tf-polar-data tbody tr');
+    const rows = await b.page.$$eval('#tf-polar-data tbody tr', (trs) => trs.map((t) => [...t.cells].map((c) => c.textContent)));
+    let checked = 0;
+    for (const [w, , re, im] of rows) {
+      if (w === '—') continue;
+      const [fr, fi] = F(num(w));
+      assert.ok(Math.abs(num(re) - fr) <= 1e-7 * Math.max(1, Math.abs(fr)) && Math.abs(num(im) - fi) <= 1e-7 * Math.max(1, Math.abs(fi)), `F at ω = ${w}: ${re}, ${im} vs ${fr}, ${fi}`);
+      checked++;
+    }
+    assert.ok(checked > 100, `${checked} rows checked`);
+    assert.ok(rows.some(([w]) => num(w) < 0) && rows[0][0].startsWith('−3.14'), `from ωT = −π: ${rows[0][0]}`);
+    // h[n] = h[n−1] − 0.5 h[n−2] + 0.4 δ[n−1] + 0.2 δ[n−2] (the recurrence of the ratio, by hand): 0, 0.4, 0.6, 0.4
+    await b.page.focus('#tf-impulse-chart');
+    await b.page.keyboard.press('Home');
+    assert.equal(await b.page.textContent('#tf-impulse-readout'), 'n = 0 (t = 0 s): h[n] = 0');
+    await b.page.keyboard.press('ArrowRight');
+    await b.page.keyboard.press('ArrowRight');
+    assert.equal(await b.page.textContent('#tf-impulse-readout'), 'n = 2 (t = 2 s): h[n] = 0.6');
+    await b.page.keyboard.press('ArrowRight');
+    assert.equal(await b.page.textContent('#tf-impulse-readout'), 'n = 3 (t = 3 s): h[n] = 0.4');
+  });
+
   test('transfer function: an unstable open loop 2(s + 1)/(s(s − 1)) is stabilised by the loop', async () => {
     // P = 1 (the pole at s = 1); closed loop s(s − 1) + 2(s + 1) = s^2 + s + 2, both roots in the
     // left half-plane (Routh, by hand): Z = 0, so N = Z − P = −1 (one counterclockwise turn)
