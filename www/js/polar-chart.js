@@ -7,8 +7,10 @@
 import { sizedCanvas, niceTicks, tickText, nearestPixel } from './chart-kit.js';
 import { fmtReal } from './format.js';
 
-/** The compression radius for a point p: R = 2 max(1, |p|). */
-export const compressionRadius = (about) => 2 * Math.max(1, Math.hypot(about[0], about[1]));
+/** The compression radius: R = 2 max(1, c), c the 75th percentile of |F| over the frequency grid
+ *  (`fit.cap`), so that the curve's finite part keeps most of the disc; it does not depend on the
+ *  point counted about, so picking a point does not rescale the view. */
+export const compressionRadius = (fit) => 2 * Math.max(1, fit && Number.isFinite(fit.cap) ? fit.cap : 1);
 
 /** w drawn at w/(1 + |w|/R) (compressed) or at w (linear). */
 function squeeze(re, im, R) {
@@ -55,7 +57,7 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
   if (!data || !data.samples.length) return null;
   const { samples, about } = data;
   const squeezed = mode === 'compressed';
-  const R = compressionRadius(about);
+  const R = compressionRadius(data.fit);
   g.font = '11px system-ui, sans-serif';
   // what is shown, above the plot: the view, then the line styles (on two lines when narrow)
   const left = 44, right = 10, bottom = 30;
