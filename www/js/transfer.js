@@ -20,6 +20,13 @@ export function transferDomain(variable) {
  *  period, and a serial that makes an answer arriving after Stop or a newer request go unused. */
 const section = { key: '', serial: 0, forceOpen: null, chart: null };
 
+/** The point the encirclement is counted about, [re, im] (−1 by default). */
+let point = [-1, 0];
+/** Count the encirclements about `p` ([re, im]) from the next reading on. */
+export function setTransferPoint(p) { point = [p[0], p[1]]; }
+/** The point the encirclements are counted about, [re, im]. */
+export function currentTransferPoint() { return point.slice(); }
+
 /** The sampling period typed (z), or 1. */
 function samplePeriod(ui) {
   const T = Number(ui.period.value);
@@ -28,7 +35,7 @@ function samplePeriod(ui) {
 
 /** The request for the function `base` ({f, var, params}) with the section's choices. */
 export function transferRequest(base, ui) {
-  const req = { task: 'transfer_function', f: base.f, var: base.var, params: base.params, hz: ui.unit.value === 'Hz' };
+  const req = { task: 'transfer_function', f: base.f, var: base.var, params: base.params, hz: ui.unit.value === 'Hz', point: point.slice() };
   if (base.var === 'z') req.sample_period = samplePeriod(ui);
   return req;
 }
