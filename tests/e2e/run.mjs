@@ -777,6 +777,13 @@ describe('the page with the real core', () => {
       const nyq = (sys.hz ? 0.5 : Math.PI) / sys.sample_period;
       assert.ok(fr.omega[fr.omega.length - 1] <= nyq * (1 + 1e-12), `${key}: last frequency ${fr.omega[fr.omega.length - 1]} > π/T ${nyq}`);
     }
+    // the cancelled, monic coefficients and the gain k against numpy (fixture), 1e-12 of the largest
+    for (const side of ['numerator', 'denominator']) {
+      const want = sys[side], got = tf.coefficients[side], big = Math.max(...want.map(Math.abs));
+      assert.equal(got.length, want.length, `${key} ${side} degree`);
+      got.forEach(([re, im], i) => assert.ok(Math.abs(re - want[i]) <= 1e-12 * big && Math.abs(im) <= 1e-12 * big, `${key} ${side}[${i}]: ${re} vs ${want[i]}`));
+    }
+    relClose(tf.gain[0], sys.numerator[0], 1e-12, `${key} gain`);
     // margins against scipy brentq (fixture): crossovers 1e-9 relative, margins 1e-7
     for (const [k, rel] of [['gain_crossovers', 1e-9], ['phase_margins', 1e-7], ['phase_crossovers', 1e-9], ['gain_margins', 1e-7]]) {
       assert.equal(tf.margins[k].length, sys.margins[k].length, `${key} ${k}: ${tf.margins[k]} vs ${sys.margins[k]}`);
