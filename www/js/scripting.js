@@ -112,6 +112,13 @@ export function installScripting(page, hooks) {
     if (Number.isFinite(T) && T > 0) { state.sample_period = T; saveState(state); }
   });
 
+  // A point picked in the section (a click on its chart, or its reset) is kept too: after the
+  // section's own click handlers have run, the state takes transfer.js's point.
+  ui.tf.box.addEventListener('click', () => {
+    const p = currentTransferPoint();
+    if (isPair(p) && (p[0] !== state.point[0] || p[1] !== state.point[1])) { state.point = p.slice(); saveState(state); }
+  });
+
   function currentState() {
     const v = state.var.trim() || 'z';
     const r = state.region;
