@@ -208,8 +208,215 @@ fn refusals() {
     assert!(error_message(json!({"task": "transfer_function", "f": "1/(s+1)", "omegas": [1]})).contains("omegas"));
 }
 
+// ---- the five reference systems (tests/fixtures/gen_transfer_function.py, key "systems") -----
+
+/// Tolerances for one system against its fixture, each justified where the test uses it.
+struct Tol {
+    /// relative to the largest |y|, on step/impulse samples (scipy 1.17 step/impulse: a matrix
+    /// exponential; measured agreement ~1e-13, so 1e-10 leaves room for other platforms)
+    samples: f64,
+    /// relative, on step metrics read on the 400 001-sample scipy simulation (linear interpolation
+    /// of crossings: error ~ (ωn h)²/8 ≈ 1e-8 at the fixture's step h; the peak's parabola O(h³);
+    /// measured 2e-8 at worst, the resonator)
+    metrics: f64,
+}
+
 fn cx(v: &Value) -> (f64, f64) {
     (f(&v[0]), f(&v[1]))
+}
+
+/// The nearest fixture root to `at` (numpy.roots lists them in its own order).
+fn nearest<'a>(rows: &'a [Value], at: (f64, f64)) -> &'a Value {
+    rows.iter()
+        .min_by(|a, b| {
+            let d = |r: &Value| { let (x, y) = cx(&r["at"]); (x - at.0).hypot(y - at.1) };
+            d(a).partial_cmp(&d(b)).unwrap()
+        })
+        .expect("fixture roots")
+}
+
+/// Poles or zeros of the response against numpy.roots (multiplicities expanded by `order`),
+/// with ωn = |p|, ζ = −Re p/|p| (z: of s = ln(p)/T) and τ = −1/p for a real pole (definitions).
+fn check_roots(got: &Value, want: &Value, what: &str) {
+    let want = want.as_array().unwrap();
+    let count: i64 = got.as_array().unwrap().iter().map(|r| r["order"].as_i64().unwrap()).sum();
+    assert_eq!(count as usize, want.len(), "{what}: number of roots with multiplicity");
+    for r in got.as_array().unwrap() {
+        let at = cx(&r["at"]);
+        let w = nearest(want, at);
+        let (wx, wy) = cx(&w["at"]);
+        let scale = wx.hypot(wy).max(1e-300);
+        // numpy.roots (companion-matrix eigenvalues) is good to ~1e-13 relative for these simple
+        // roots; a double zero at −1 (the IIR) splits by ~1e-8 in numpy, hence √ε.
+        let tol = if r["order"].as_i64() == Some(1) { 1e-10 } else { 1e-7 };
+        assert!((at.0 - wx).hypot(at.1 - wy) <= tol * scale, "{what} at {at:?} vs numpy.roots {wx}, {wy}");
+        for key in ["natural_frequency", "damping_ratio", "time_constant"] {
+            match (r[key].as_f64(), w[key].as_f64()) {
+                (Some(g), Some(x)) => assert!((g - x).abs() <= tol * x.abs().max(1e-3), "{what} {key}: {g} vs {x}"),
+                (None, None) => {}
+                (g, x) => panic!("{what} {key}: {g:?} vs {x:?}"),
+            }
+        }
+    }
+}
+
+fn request_for(sys: &Value) -> Value {
+    let mut req = json!({"task": "transfer_function", "f": sys["f"], "var": sys["var"], "params": sys["params"],
+        "hz": sys["hz"], "omega": sys["omega"]});
+    if sys["var"] == "s" { req["t"] = sys["t"].clone() } else { req["sample_period"] = sys["sample_period"].clone() }
+    req
+}
+
+fn check_system(key: &str, tol: Tol) {
+    let fx = fixture("transfer_function");
+    let sys = &fx["systems"][key];
+    let r = ok_response(request_for(sys));
+    check_roots(&r["poles"], &sys["poles"], &format!("{key} pole"));
+    check_roots(&r["zeros"], &sys["zeros"], &format!("{key} zero"));
+    // Frequency response at the fixture's frequencies, numpy.polyval ratio (fixture): both
+    // evaluate the same polynomials in double precision, 1e-9 dB / 1e-9° leaves room for the
+    // core's factored evaluation against numpy's Horner.
+    let fr = &r["frequency_response"];
+    assert_eq!(fr["unit"], sys["margins"]["unit"], "{key} unit");
+    for (got, want) in floats(&fr["magnitude_db"]).iter().zip(floats(&sys["magnitude_db"])) {
+        assert!((got - want).abs() < 1e-9, "{key} |F| {got} dB vs numpy {want} dB");
+    }
+    for (got, want) in floats(&fr["phase_deg"]).iter().zip(floats(&sys["phase_wrapped_deg"])) {
+        let d = (got - want).rem_euclid(360.0);
+        assert!(d.min(360.0 - d) < 1e-9, "{key} phase {got}° vs numpy {want}° (mod 360)");
+    }
+    // Margins: crossovers by scipy brentq on |L| − 1 and Im L (fixture, xtol 1e-15 relative);
+    // the core refines its own grid crossings: 1e-9 relative on frequencies, 1e-7 on margins
+    // (degrees, dB), which inherit the crossover's error times the slope.
+    let m = &r["margins"];
+    for (k, t) in [("gain_crossovers", 1e-9), ("phase_margins", 1e-7), ("phase_crossovers", 1e-9), ("gain_margins", 1e-7)] {
+        let (got, want) = (floats(&m[k]), floats(&sys["margins"][k]));
+        assert_eq!(got.len(), want.len(), "{key} {k}: {got:?} vs scipy brentq {want:?}");
+        for (g, w) in got.iter().zip(&want) {
+            assert!((g - w).abs() <= t * w.abs().max(1.0), "{key} {k}: {g} vs scipy brentq {w}");
+        }
+    }
+    // Encirclement: Z from numpy.roots(den + num), P from numpy.roots(den), N = Z − P (fixture).
+    let e = &r["encirclement"];
+    assert_eq!(e["open_loop_rhp_poles"], sys["open_loop_rhp_poles"], "{key} P");
+    assert_eq!(e["closed_loop_rhp_poles"], sys["closed_loop_rhp_poles"], "{key} Z");
+    assert_eq!(e["winding"], sys["winding"], "{key} N");
+    assert_eq!(e["sampled_winding"], sys["winding"], "{key} sampled N");
+    // Coefficients: F = N/D with D monic, descending (numpy, fixture: the ladder's node equations,
+    // the PID's products, scipy.signal.butter); k = N's leading coefficient. 1e-12 relative to the
+    // largest coefficient (the core rebuilds them from its own cancellation of the typed form).
+    for (side, k) in [("numerator", "numerator"), ("denominator", "denominator")] {
+        let got = r["coefficients"][side].as_array().unwrap_or_else(|| panic!("{key}: coefficients.{side}"));
+        let want = floats(&sys[k]);
+        assert_eq!(got.len(), want.len(), "{key} {side} degree");
+        let big = want.iter().fold(0.0f64, |a, b| a.max(b.abs()));
+        for (g, w) in got.iter().zip(&want) {
+            let (re, im) = cx(g);
+            assert!((re - w).abs() <= 1e-12 * big && im.abs() <= 1e-12 * big, "{key} {side}: {re}+{im}i vs numpy {w}");
+        }
+    }
+    let n0 = floats(&sys["numerator"])[0];
+    assert!((f(&r["gain"][0]) - n0).abs() <= 1e-12 * n0.abs() && f(&r["gain"][1]) == 0.0, "{key} gain {} vs {n0}", r["gain"]);
+    // The image of the contour: on the axis pieces, F at each listed frequency against an independent
+    // evaluation of the fixture's polynomials (Horner, complex), 1e-9 relative; and the winding of the
+    // whole image about `about` (sum of the angle steps, closed) is the fixture's N = Z − P.
+    let (num, den) = (floats(&sys["numerator"]), floats(&sys["denominator"]));
+    let horner = |c: &[f64], x: (f64, f64)| c.iter().fold((0.0, 0.0), |a: (f64, f64), k| (a.0 * x.0 - a.1 * x.1 + k, a.0 * x.1 + a.1 * x.0));
+    let scale = if sys["hz"] == true { 2.0 * PI } else { 1.0 };
+    let img = &r["image"];
+    assert_eq!(cx(&img["about"]), (-1.0, 0.0), "{key} image about −1");
+    let (mut turn, mut prev, mut first, mut checked) = (0.0f64, None::<(f64, f64)>, None, 0usize);
+    for seg in img["segments"].as_array().unwrap() {
+        let vals = seg["value"].as_array().unwrap();
+        if seg["kind"] == "axis" {
+            for (w, v) in floats(&seg["omega"]).iter().zip(vals).step_by(11) {
+                let om = w * scale;
+                let x = if sys["var"] == "z" { let t = om * f(&sys["sample_period"]); (t.cos(), t.sin()) } else { (0.0, om) };
+                let (a, b) = (horner(&num, x), horner(&den, x));
+                let d = b.0 * b.0 + b.1 * b.1;
+                let want = ((a.0 * b.0 + a.1 * b.1) / d, (a.1 * b.0 - a.0 * b.1) / d);
+                let got = cx(v);
+                assert!((got.0 - want.0).hypot(got.1 - want.1) <= 1e-9 * want.0.hypot(want.1).max(1e-300), "{key} image at ω {w}: {got:?} vs {want:?}");
+                checked += 1;
+            }
+        }
+        for v in vals {
+            let p = cx(v);
+            let q = (p.0 + 1.0, p.1);
+            if let Some(o) = prev { let o: (f64, f64) = o; turn += (o.0 * q.1 - o.1 * q.0).atan2(o.0 * q.0 + o.1 * q.1); } else { first = Some(q); }
+            prev = Some(q);
+        }
+    }
+    assert!(checked >= 10, "{key}: {checked} image points checked");
+    if let (Some(o), Some(q)) = (prev, first) { turn += (o.0 * q.1 - o.1 * q.0).atan2(o.0 * q.0 + o.1 * q.1); }
+    let n_img = -turn / (2.0 * PI);
+    assert!((n_img - f(&sys["winding"])).abs() < 1e-6, "{key}: the image turns {n_img} times clockwise about −1, N = {}", sys["winding"]);
+    // Step and impulse samples: scipy.signal.step/impulse (s) or dstep/dimpulse (z) (fixture).
+    let (ys, yi) = (floats(&r["step"]["y"]), floats(&r["impulse"]["y"]));
+    let (ws, wi) = (floats(&sys["step"]), floats(&sys["impulse"]));
+    let n = ys.len().min(ws.len());
+    assert!(n >= 4, "{key}: {n} step samples compared");
+    let peak = ws.iter().chain(&wi).fold(0.0f64, |a, b| a.max(b.abs()));
+    for (got, want) in ys.iter().zip(&ws).chain(yi.iter().zip(&wi)) {
+        assert!((got - want).abs() <= tol.samples * peak, "{key} sample {got} vs scipy {want}");
+    }
+    // Step metrics: a fine scipy simulation (s) or the dstep samples (z) (fixture); null when a pole
+    // is not stable (an integrator or a right-half-plane pole: no steady state).
+    let sm = &sys["step_metrics"];
+    if sm.is_null() {
+        assert!(r["step"]["steady_state"].is_null(), "{key}: no steady state");
+        return;
+    }
+    for k in ["steady_state", "rise_time", "peak_time", "settling_time"] {
+        close(f(&r["step"][k]), f(&sm[k]), tol.metrics, &format!("{key} {k} vs scipy"));
+    }
+    let os = f(&r["step"]["overshoot_percent"]);
+    assert!((os - f(&sm["overshoot_percent"])).abs() <= 100.0 * tol.metrics, "{key} overshoot {os} % vs scipy {}", sm["overshoot_percent"]);
+}
+
+#[test]
+fn fourth_order_lc_ladder_low_pass_against_scipy() {
+    // Rs = RL = 8 Ω, L1 = 0.975 mH, C2 = 36.8 µF, L3 = 2.35 mH, C4 = 15.2 µF (near a 1 kHz
+    // Butterworth ladder): poles by numpy.roots of the node-equation polynomial, DC gain
+    // RL/(Rs + RL) = 1/2 (voltage divider, by hand), relative degree 4 (by inspection).
+    check_system("lowpass4_rlc", Tol { samples: 1e-10, metrics: 1e-7 });
+    let fx = fixture("transfer_function");
+    let r = ok_response(request_for(&fx["systems"]["lowpass4_rlc"]));
+    close(f(&r["dc_gain"]["value"][0]), 0.5, 1e-12, "dc gain RL/(Rs+RL)");
+    assert_eq!(r["relative_degree"], 4);
+    // A 4th-order Butterworth response has phase −180° at its corner ωc, where |H| = ½·1/√2
+    // (|H|² = ¼/(1 + (ω/ωc)⁸), from memory): gain margin 20 log10(2√2) dB; the component values
+    // are rounded to 3 digits, so only to 1e-3 relative.
+    close(f(&r["margins"]["gain_margins"][0]), 20.0 * (2.0 * 2f64.sqrt()).log10(), 1e-3, "gain margin ≈ 20 log10(2√2)");
+}
+
+#[test]
+fn pid_controlled_plant_with_integrator_against_scipy() {
+    // (Kp + Ki/s + Kd s/(τs + 1)) · K/((s + 1)(s + 10)), Kp = 2, Ki = 1, Kd = 0.5, τ = 0.05 s, K = 10:
+    // the integrator pole at s = 0 (no steady state of the open loop's step: it ramps).
+    check_system("pid_plant", Tol { samples: 1e-10, metrics: 1e-7 });
+    let fx = fixture("transfer_function");
+    let r = ok_response(request_for(&fx["systems"]["pid_plant"]));
+    assert_eq!(r["dc_gain"]["infinite"], true);
+    assert_eq!(r["dc_gain"]["pole_order"], 1);
+    // High frequency: F → (Kp + Kd/τ)·K/s² → 0, relative degree 2 (by inspection).
+    assert_eq!(r["relative_degree"], 2);
+    // A pole at 0 exactly (the PID's integrator), the others at −1, −10, −1/τ = −20 (by inspection).
+    let mut re: Vec<f64> = r["poles"].as_array().unwrap().iter().map(|p| f(&p["at"][0])).collect();
+    re.sort_by(|a, b| a.partial_cmp(b).unwrap());
+    for (g, w) in re.iter().zip([-20.0, -10.0, -1.0, 0.0]) {
+        assert!((g - w).abs() <= 1e-10 * w.abs().max(1.0), "pole {g} vs {w}");
+    }
+}
+
+#[test]
+fn resonator_unstable_loop_and_iir_against_scipy() {
+    // The other three reference systems through the same checks (fixture "systems").
+    check_system("resonator_1khz", Tol { samples: 1e-10, metrics: 1e-7 });
+    check_system("unstable_loop", Tol { samples: 1e-10, metrics: 1e-7 });
+    // z: dstep/dimpulse are the exact recursion (lfilter), so the samples agree to rounding; the
+    // metrics are whole samples times T.
+    check_system("iir2_butter", Tol { samples: 1e-12, metrics: 1e-12 });
 }
 
 #[test]

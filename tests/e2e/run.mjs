@@ -863,6 +863,172 @@ describe('the page with the real core', () => {
     assert.equal('transfer_function' in out.results, false);
   });
 
+  // ---- the five reference systems (tests/fixtures/gen_transfer_function.py, key "systems") ----
+  // Each is opened through set() as a user would get it; every figure is compared with the
+  // scipy/numpy fixture, or with an independent evaluation here of the fixture's polynomials
+  // (numpy.polyval-style Horner in complex arithmetic) at the page's own grid.
+  const TF_SYSTEMS = JSON.parse(readFileSync(join(root, 'tests', 'fixtures', 'transfer_function.json'), 'utf8')).systems;
+  const cmul = (a, b) => [a[0] * b[0] - a[1] * b[1], a[0] * b[1] + a[1] * b[0]];
+  const cdiv = (a, b) => { const d = b[0] * b[0] + b[1] * b[1]; return [(a[0] * b[0] + a[1] * b[1]) / d, (a[1] * b[0] - a[0] * b[1]) / d]; };
+  const polyval = (c, x) => c.reduce((acc, k) => { const m = cmul(acc, x); return [m[0] + k, m[1]]; }, [0, 0]);
+  /** F at the frequency w (in the system's unit): jω for s, e^{jωT} for z (independent evaluation). */
+  function fixtureF(sys, w) {
+    const om = sys.hz ? 2 * Math.PI * w : w;
+    const x = sys.var === 'z' ? [Math.cos(om * sys.sample_period), Math.sin(om * sys.sample_period)] : [0, om];
+    return cdiv(polyval(sys.numerator, x), polyval(sys.denominator, x));
+  }
+  /** Σ r t^(j−1)/(j−1)! e^{pt} over scipy.signal.residue's terms (the fixture's partial fractions). */
+  function fixtureTerms(terms, t) {
+    let y = 0;
+    for (const { r, p, power } of terms) {
+      let fact = 1; for (let k = 2; k < power; k++) fact *= k;
+      const mag = Math.exp(p[0] * t) * t ** (power - 1) / fact, ang = p[1] * t;
+      y += mag * (r[0] * Math.cos(ang) - r[1] * Math.sin(ang));
+    }
+    return y;
+  }
+  const relClose = (got, want, rel, what) => assert.ok(Math.abs(got - want) <= rel * Math.max(Math.abs(want), 1e-300), `${what}: ${got} vs ${want}`);
+
+  async function checkReferenceSystem(key) {
+    const sys = TF_SYSTEMS[key];
+    const st = { f: sys.f, var: sys.var, params: sys.params, panels: { transfer: true }, hz: sys.hz };
+    if (sys.var === 'z') st.sample_period = sys.sample_period;
+    const out = await scriptSet(b.page, st);
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const s = await scriptState(b.page);
+    assert.equal(s.hz, sys.hz);
+    if (sys.var === 'z') assert.equal(s.sample_period, sys.sample_period);
+    // opened fitted: the view holds every pole and zero (numpy.roots, fixture)
+    for (const r of [...sys.poles, ...sys.zeros]) {
+      const [x, y] = r.at;
+      assert.ok(x > s.view[0] && x < s.view[1] && y > s.view[2] && y < s.view[3], `${key}: root ${x}, ${y} outside the view ${s.view}`);
+    }
+    const tf = out.results.transfer_function;
+    assert.ok(tf && tf.stale === false, `${key}: a current transfer_function result`);
+    // the frequency response on the page's own grid against the independent evaluation: 1e-7 dB
+    // and 1e-7° (both are double-precision evaluations of the same ratio; the phase mod 360)
+    const fr = tf.frequency_response;
+    assert.equal(fr.unit, sys.hz ? 'Hz' : 'rad/s');
+    for (let i = 0; i < fr.omega.length; i += 7) {
+      const F = fixtureF(sys, fr.omega[i]);
+      const db = 20 * Math.log10(Math.hypot(F[0], F[1])), deg = Math.atan2(F[1], F[0]) * 180 / Math.PI;
+      assert.ok(Math.abs(fr.magnitude_db[i] - db) < 1e-7, `${key}: |F| at ${fr.omega[i]}: ${fr.magnitude_db[i]} vs ${db} dB`);
+      const d = (((fr.phase_deg[i] - deg) % 360) + 360) % 360;
+      assert.ok(Math.min(d, 360 - d) < 1e-7, `${key}: phase at ${fr.omega[i]}: ${fr.phase_deg[i]} vs ${deg}°`);
+    }
+    if (sys.var === 'z') {
+      // the grid stops at the Nyquist frequency π/T (in the response's unit)
+      const nyq = (sys.hz ? 0.5 : Math.PI) / sys.sample_period;
+      assert.ok(fr.omega[fr.omega.length - 1] <= nyq * (1 + 1e-12), `${key}: last frequency ${fr.omega[fr.omega.length - 1]} > π/T ${nyq}`);
+    }
+    // the cancelled, monic coefficients and the gain k against numpy (fixture), 1e-12 of the largest
+    for (const side of ['numerator', 'denominator']) {
+      const want = sys[side], got = tf.coefficients[side], big = Math.max(...want.map(Math.abs));
+      assert.equal(got.length, want.length, `${key} ${side} degree`);
+      got.forEach(([re, im], i) => assert.ok(Math.abs(re - want[i]) <= 1e-12 * big && Math.abs(im) <= 1e-12 * big, `${key} ${side}[${i}]: ${re} vs ${want[i]}`));
+    }
+    relClose(tf.gain[0], sys.numerator[0], 1e-12, `${key} gain`);
+    // margins against scipy brentq (fixture): crossovers 1e-9 relative, margins 1e-7
+    for (const [k, rel] of [['gain_crossovers', 1e-9], ['phase_margins', 1e-7], ['phase_crossovers', 1e-9], ['gain_margins', 1e-7]]) {
+      assert.equal(tf.margins[k].length, sys.margins[k].length, `${key} ${k}: ${tf.margins[k]} vs ${sys.margins[k]}`);
+      tf.margins[k].forEach((v, i) => relClose(v, sys.margins[k][i], rel, `${key} ${k}`));
+    }
+    // N, P, Z: numpy.roots(den) and numpy.roots(den + num) (fixture), N = Z − P
+    const e = tf.encirclement;
+    assert.deepEqual([e.winding, e.open_loop_rhp_poles, e.closed_loop_rhp_poles], [sys.winding, sys.open_loop_rhp_poles, sys.closed_loop_rhp_poles], key);
+    // pole data: ωn = |p|, ζ = −Re p/|p| (z: of ln(p)/T), τ = −1/p, against numpy.roots (fixture), 1e-9
+    for (const p of tf.poles) {
+      const w = sys.poles.reduce((best, q) => (Math.hypot(q.at[0] - p.at[0], q.at[1] - p.at[1]) < Math.hypot(best.at[0] - p.at[0], best.at[1] - p.at[1]) ? q : best));
+      assert.ok(Math.hypot(w.at[0] - p.at[0], w.at[1] - p.at[1]) <= 1e-9 * Math.max(1, Math.hypot(...w.at)), `${key}: pole ${p.at} vs ${w.at}`);
+      for (const k of ['natural_frequency', 'damping_ratio', 'time_constant']) {
+        if (w[k] === null) assert.equal(p[k], null, `${key} ${k}`);
+        else relClose(p[k], w[k], 1e-9, `${key} pole ${k}`);
+      }
+    }
+    // step and impulse: s, scipy.signal.residue's partial fractions (fixture) evaluated at the page's
+    // times, 1e-7 of the largest |y|; z, scipy.signal.dstep/dimpulse samples (fixture), 1e-12
+    const isZ = sys.var === 'z';
+    for (const [which, terms, samples] of [['step', sys.step_terms, sys.step], ['impulse', sys.impulse_terms, sys.impulse]]) {
+      const r = tf[which];
+      const want = r.t.map((t, i) => (isZ ? samples[Math.round(t / sys.sample_period)] : fixtureTerms(terms, t)));
+      const big = Math.max(...want.filter(Number.isFinite).map(Math.abs));
+      r.y.forEach((y, i) => { if (want[i] !== undefined) assert.ok(Math.abs(y - want[i]) <= (isZ ? 1e-12 : 1e-7) * big, `${key} ${which} at t = ${r.t[i]}: ${y} vs ${want[i]}`); });
+    }
+    // step metrics: a fine scipy simulation (s) or the dstep samples (z) (fixture), 1e-6 relative
+    if (sys.step_metrics === null) assert.equal(tf.step.steady_state, null, `${key}: no steady state`);
+    else for (const k of ['steady_state', 'rise_time', 'peak_time', 'settling_time', 'overshoot_percent']) relClose(tf.step[k], sys.step_metrics[k], 1e-6, `${key} ${k}`);
+    return tf;
+  }
+
+  test('reference systems: a 1 kHz series RLC resonator in Hz (R = 10 Ω, L = 10 mH, C = 2.533 µF)', async () => {
+    await load(b.page);
+    const tf = await checkReferenceSystem('resonator_1khz');
+    // fn = 1/(2π√(LC)) = 1000.0 Hz (by hand) in the pole table's Hz column
+    relClose(tf.poles[0].natural_frequency, 1 / (2 * Math.PI * Math.sqrt(10e-3 * 2.533e-6)), 1e-9, 'fn');
+    assert.match(await b.page.textContent('#tf-roots-head'), /fn \(Hz\)/);
+    assert.equal(await b.page.inputValue('#tf-unit'), 'Hz');
+  });
+
+  test('reference systems: a 4th-order LC ladder low-pass (8 Ω terminations)', async () => {
+    await checkReferenceSystem('lowpass4_rlc');
+  });
+
+  test('reference systems: a PID controller on a two-pole plant (the integrator pole at 0)', async () => {
+    const tf = await checkReferenceSystem('pid_plant');
+    assert.equal(tf.dc_gain.infinite, true);
+    assert.match(await b.page.textContent('#tf-step'), /no steady state/);
+  });
+
+  test('reference systems: an unstable open loop made stable by the loop, and the point set through set()', async () => {
+    await checkReferenceSystem('unstable_loop');
+    assert.match(await b.page.textContent('#tf-encircle'), /N = −1 .*P = 1;.*Z = N \+ P = 0\./);
+    // about a = 0.5: L − a ∝ s³ + 5s² − 82s − 104, one sign change, so one root with Re > 0
+    // (Descartes' rule of signs, by hand; no root on the axis): Z = 1, P = 1, N = 0
+    const out = await scriptSet(b.page, { point: [0.5, 0] });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const e = out.results.transfer_function.encirclement;
+    assert.deepEqual(e.about, [0.5, 0]);
+    assert.deepEqual([e.winding, e.open_loop_rhp_poles, e.closed_loop_rhp_poles], [0, 1, 1]);
+    assert.deepEqual((await scriptState(b.page)).point, [0.5, 0]);
+    const bad = await scriptSet(b.page, { point: 'minus one' });
+    assert.equal(bad.ok, false);
+    assert.equal(bad.error.code, 'bad_request');
+    const back = await scriptSet(b.page, { point: -1 });
+    assert.deepEqual(back.results.transfer_function.encirclement.about, [-1, 0]);
+  });
+
+  test('reference systems: a 2nd-order IIR low-pass in z with T = 1 ms, kept by the link', async () => {
+    await checkReferenceSystem('iir2_butter');
+    assert.equal(await b.page.inputValue('#tf-period'), '0.001');
+    // sample_period is refused for s and when not > 0
+    const neg = await scriptSet(b.page, { sample_period: -1 });
+    assert.equal(neg.ok, false);
+    assert.equal(neg.error.code, 'invalid_field');
+    const forS = await scriptSet(b.page, { var: 's', f: '1/(s+1)', sample_period: 0.5 });
+    assert.equal(forS.ok, false);
+    assert.equal(forS.error.code, 'invalid_field');
+    // the link carries hz, sample_period and point: reopened from it, the state and the controls keep them
+    const set = await scriptSet(b.page, { hz: true, point: [-0.5, 0.25] });
+    assert.ok(set.ok, JSON.stringify(set.error));
+    await b.page.waitForFunction(() => { try { const s = JSON.parse(decodeURIComponent(location.hash.slice(3))); return s.hz === true && s.point[0] === -0.5; } catch (e) { return false; } }, null, { timeout: 5000 });
+    const hash = await b.page.evaluate(() => location.hash);
+    await b.page.goto('about:blank');
+    await load(b.page, hash);
+    const s = await scriptState(b.page);
+    assert.deepEqual([s.hz, s.sample_period, s.point], [true, 0.001, [-0.5, 0.25]]);
+    assert.equal(await b.page.inputValue('#tf-unit'), 'Hz');
+    assert.equal(await b.page.inputValue('#tf-period'), '0.001');
+    const again = await scriptSet(b.page, { panels: { transfer: true } });
+    assert.ok(again.ok, JSON.stringify(again.error));
+    const tf = again.results.transfer_function;
+    assert.equal(tf.sample_period, 0.001);
+    assert.equal(tf.frequency_response.unit, 'Hz');
+    assert.deepEqual(tf.encirclement.about, [-0.5, 0.25]);
+    // Nyquist in Hz: 1/(2T) = 500 Hz
+    assert.ok(tf.frequency_response.omega.at(-1) <= 500 * (1 + 1e-12));
+    await scriptSet(b.page, { hz: false, point: -1 });
+  });
+
   test('works at 800 px wide without sideways scrolling', async () => {
     await b.page.setViewportSize({ width: 800, height: 900 });
     await load(b.page);

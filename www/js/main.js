@@ -16,7 +16,7 @@ import { drawWheelKey, fillMarkerKey } from './legend.js';
 import { setSymbols, refreshMarkerIcons } from './markers.js';
 import { demoList, demoState, fillExampleMenu, forgetExampleIfChanged } from './demos.js';
 import { rationalAnalysis, fitView } from './fit.js';
-import { installScripting } from './scripting.js';
+import { installScripting, applyTransferState } from './scripting.js';
 
 const state = loadState();
 const ui = {
@@ -164,6 +164,7 @@ function applyStateToControls() {
   ui.symbols.value = state.symbols;
   applySymbols();
   ui.autoFind.checked = state.autoFind;
+  applyTransferState(page);
   renderParams(ui.params, state.params, inputsChanged);
   applyAxisName();
   region.fill();

@@ -5,10 +5,10 @@
 // (view, panels and the display options); links and stored states keep the page's own shape.
 import { Engine, runNow, responseError } from './engine.js';
 import { paramsForRequest, functionInput } from './params.js';
-import { sanitize } from './state.js';
+import { sanitize, saveState } from './state.js';
 import { regionProblem } from './region.js';
 import { askInverse, currentInverseSpan } from './inverse.js';
-import { askTransfer, transferOpen } from './transfer.js';
+import { askTransfer, transferOpen, setTransferPoint, currentTransferPoint } from './transfer.js';
 
 /** A failure of set(): rejects with {code, message} (the contract's codes, plus the page's). */
 function scriptError(code, message) {
@@ -41,7 +41,23 @@ function regionFrom(value, region) {
   throw scriptError('bad_request', 'region must be "view", {"shape": "rectangle", "corners": [[x0, y0], [x1, y1]]} or {"shape": "circle", "center": [x, y], "radius": r}');
 }
 
-const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind'];
+const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',
+  'hz', 'sample_period', 'point'];
+
+/** The transfer section's controls from the page state: the unit (#tf-unit), the sampling period
+ *  (#tf-period) and the encirclement point (transfer.js's setTransferPoint). */
+export function applyTransferState(page) {
+  const { state, ui } = page;
+  ui.tf.unit.value = state.hz ? 'Hz' : 'rad/s';
+  ui.tf.period.value = String(state.sample_period);
+  setTransferPoint(state.point.slice());
+}
+
+/** The encirclement point in use: transfer.js's (a click on its chart may have moved it), else the state's. */
+function transferPoint(state) {
+  const p = currentTransferPoint();
+  return isPair(p) ? p.slice() : state.point.slice();
+}
 
 /** The page state after `partial` (checked field by field; throws {code, message}). */
 function nextPageState(current, partial) {
@@ -65,6 +81,20 @@ function nextPageState(current, partial) {
     if (k in partial) { if (typeof partial[k] !== 'boolean') throw scriptError('bad_request', `${k} must be true or false`); next[k] = partial[k]; }
   }
   if ('symbols' in partial) { if (!['own', 'diagram'].includes(partial.symbols)) throw scriptError('invalid_field', 'symbols must be "own" or "diagram"'); next.symbols = partial.symbols; }
+  if ('hz' in partial) { if (typeof partial.hz !== 'boolean') throw scriptError('bad_request', 'hz must be true or false'); next.hz = partial.hz; }
+  if ('sample_period' in partial) {
+    const T = partial.sample_period;
+    if (!isNum(T)) throw scriptError('bad_request', 'sample_period must be a number');
+    if (!(T > 0)) throw scriptError('invalid_field', 'sample_period must be T > 0');
+    if ((next.var.trim() || 'z') !== 'z') throw scriptError('invalid_field', 'sample_period is for var z only (a discrete-time F(z))');
+    next.sample_period = T;
+  }
+  if ('point' in partial) {
+    const p = partial.point;
+    if (isNum(p)) next.point = [p, 0];
+    else if (isPair(p)) next.point = p.slice();
+    else throw scriptError('bad_request', 'point must be a number or [re, im]');
+  }
   if ('wheel' in partial) { if (!['oklch', 'hsv'].includes(partial.wheel)) throw scriptError('invalid_field', 'wheel must be "oklch" or "hsv"'); next.wheel = partial.wheel; }
   return sanitize(next);
 }
@@ -75,6 +105,19 @@ function nextPageState(current, partial) {
  *  contour() (the region's contour), pipeline (find, settled). */
 export function installScripting(page, hooks) {
   const { state, ui } = page;
+  // The unit and the sampling period typed into the section are kept with the page state.
+  ui.tf.unit.addEventListener('change', () => { state.hz = ui.tf.unit.value === 'Hz'; saveState(state); });
+  ui.tf.period.addEventListener('change', () => {
+    const T = Number(ui.tf.period.value);
+    if (Number.isFinite(T) && T > 0) { state.sample_period = T; saveState(state); }
+  });
+
+  // A point picked in the section (a click on its polar plot, or its reset) is kept too:
+  // transfer.js announces it with a `transfer-point` event (detail [re, im]).
+  ui.tf.box.addEventListener('transfer-point', (ev) => {
+    const p = ev.detail;
+    if (isPair(p)) { state.point = p.slice(); saveState(state); }
+  });
 
   function currentState() {
     const v = state.var.trim() || 'z';
@@ -90,12 +133,13 @@ export function installScripting(page, hooks) {
       contour: hooks.contour(),
       panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page) },
       modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, symbols: state.symbols, autoFind: state.autoFind,
+      hz: state.hz, point: transferPoint(state),
     };
     const res = page.results;
     if (res && res.contour && !ui.singTable.classList.contains('stale')) out.contour = res.contour; // as searched (a nudge moves it)
     const span = currentInverseSpan(page, v);
     if (v === 's') out.t = span;
-    if (v === 'z') out.n = span;
+    if (v === 'z') { out.n = span; out.sample_period = state.sample_period; }
     return out;
   }
 

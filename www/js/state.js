@@ -26,6 +26,9 @@ export function defaultState() {
     symbols: 'own',
     region: { mode: 'view', rect: [-3, 3, -3, 3], circle: [0, 0, 2] },
     autoFind: true,
+    hz: false,           // the transfer section's frequency unit: Hz (true) or rad/s
+    sample_period: 1,    // its sampling period T (z)
+    point: [-1, 0],      // the point its encirclements are counted about
   };
 }
 
@@ -48,7 +51,9 @@ export function sanitize(raw) {
       }));
   }
   if (num4(raw.view) && raw.view[1] > raw.view[0] && raw.view[3] > raw.view[2]) s.view = raw.view;
-  for (const k of ['modulus', 'phase', 'infinity', 'autoFind']) if (typeof raw[k] === 'boolean') s[k] = raw[k];
+  for (const k of ['modulus', 'phase', 'infinity', 'autoFind', 'hz']) if (typeof raw[k] === 'boolean') s[k] = raw[k];
+  if (Number.isFinite(raw.sample_period) && raw.sample_period > 0) s.sample_period = raw.sample_period;
+  if (Array.isArray(raw.point) && raw.point.length === 2 && raw.point.every(Number.isFinite)) s.point = raw.point.slice();
   if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
   if (raw.symbols === 'own' || raw.symbols === 'diagram') s.symbols = raw.symbols;
   const r = raw.region;
