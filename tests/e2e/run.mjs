@@ -933,7 +933,8 @@ describe('entering f as a ratio of polynomials', () => {
     await b.page.fill('#entry-zeta', '0.5');
     await b.page.selectOption('#entry-wn-unit', 'rad/s');
     await b.page.fill('#entry-period', '0.1');
-    await b.page.click('#entry-add-pair');
+    await b.page.press('#entry-period', 'Enter'); // Enter in the pair's row adds the pair
+    assert.match(await b.page.inputValue('#entry-poles'), /^[\d.]+±[\d.]+i$/);
     r = await writeAndSearch();
     // from memory: z = e^(sT) maps −ζωn ± iωn√(1 − ζ²) to |z| = e^(−ζωn T), arg z = ±ωn√(1 − ζ²)T
     for (const p of r.singularities.poles) {

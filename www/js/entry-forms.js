@@ -468,6 +468,14 @@ export function attachEntryForms(hooks) {
     say(`Read from f(${v}); both forms show it.`, 'good');
   }
   parts.read.addEventListener('click', () => readFromF(false));
+  // Enter in a field does what its button does: add the pair, or write f.
+  for (const input of Object.values(fields)) {
+    input.addEventListener('keydown', (e) => {
+      if (e.key !== 'Enter' || e.isComposing) return;
+      e.preventDefault();
+      (input.closest('.entry-pair') ? parts.addPair : parts.write).click();
+    });
+  }
 
   box.addEventListener('toggle', () => {
     if (!box.open) return;
