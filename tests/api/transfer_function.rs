@@ -207,3 +207,131 @@ fn refusals() {
     // A field that is not declared.
     assert!(error_message(json!({"task": "transfer_function", "f": "1/(s+1)", "omegas": [1]})).contains("omegas"));
 }
+
+fn cx(v: &Value) -> (f64, f64) {
+    (f(&v[0]), f(&v[1]))
+}
+
+#[test]
+fn coefficients_and_gain_match_numpy_poly_of_the_roots() {
+    // numpy 2.4 poly of the typed zeros (× k) and poles, descending, monic denominator; the second case
+    // cancels the common factor (s + 1) (tests/fixtures/gen_transfer_function.py).
+    let fx = fixture("transfer_function");
+    for case in fx["coefficients"].as_array().unwrap() {
+        let r = ok_response(json!({"task": "transfer_function", "f": case["f"]}));
+        let what = case["f"].as_str().unwrap();
+        close(f(&r["gain"][0]), f(&case["gain"]), 1e-12, "gain");
+        assert_eq!(f(&r["gain"][1]), 0.0, "{what}: real gain");
+        for side in ["numerator", "denominator"] {
+            let (got, want) = (r["coefficients"][side].as_array().unwrap(), case[side].as_array().unwrap());
+            assert_eq!(got.len(), want.len(), "{what}: {side} degree");
+            let size = want.iter().map(|c| cx(c).0.abs()).fold(1.0, f64::max);
+            for (g, w) in got.iter().zip(want) {
+                let ((gr, gi), (wr, wi)) = (cx(g), cx(w));
+                assert!((gr - wr).abs() <= 1e-12 * size && (gi - wi).abs() <= 1e-12 * size, "{what}: {side} {g} vs {w}");
+            }
+        }
+        assert_eq!(cx(&r["coefficients"]["denominator"][0]), (1.0, 0.0), "{what}: monic");
+    }
+}
+
+/// Horner in descending powers: numpy.polyval's definition.
+fn polyval(p: &[(f64, f64)], x: (f64, f64)) -> (f64, f64) {
+    p.iter().fold((0.0, 0.0), |(ar, ai), &(cr, ci)| (ar * x.0 - ai * x.1 + cr, ar * x.1 + ai * x.0 + ci))
+}
+
+fn cdiv(a: (f64, f64), b: (f64, f64)) -> (f64, f64) {
+    let d = b.0 * b.0 + b.1 * b.1;
+    ((a.0 * b.0 + a.1 * b.1) / d, (a.1 * b.0 - a.0 * b.1) / d)
+}
+
+/// Counterclockwise turns of a closed polyline about a point: the sum of principal angle steps
+/// (the winding number of a closed curve, by definition).
+fn polyline_turns(points: &[(f64, f64)], about: (f64, f64)) -> f64 {
+    let mut total = 0.0;
+    for i in 0..points.len() {
+        let (a, b) = (points[i], points[(i + 1) % points.len()]);
+        let q = cdiv((b.0 - about.0, b.1 - about.1), (a.0 - about.0, a.1 - about.1));
+        total += q.1.atan2(q.0);
+    }
+    total / (2.0 * PI)
+}
+
+#[test]
+fn the_image_lies_on_f_and_winds_as_counted() {
+    // Each case: F, its numpy.poly coefficients (fixture) or coefficients by hand, and N (the argument
+    // principle by hand / Routh, from memory): K/((s+1)(s+2)(s+3)) at K = 100: N = 2 (K > 60 unstable);
+    // the fixture's first case (an unstable pole at 2); 2(s+1)/(s(s−1)) (indent at 0): N = −1.
+    let fx = fixture("transfer_function");
+    let c0 = &fx["coefficients"][0];
+    let list = |v: &Value| v.as_array().unwrap().iter().map(cx).collect::<Vec<_>>();
+    let cases: Vec<(Value, Vec<(f64, f64)>, Vec<(f64, f64)>)> = vec![
+        (json!({"f": "100/((s+1)*(s+2)*(s+3))"}), vec![(100.0, 0.0)], vec![(1.0, 0.0), (6.0, 0.0), (11.0, 0.0), (6.0, 0.0)]),
+        (json!({"f": c0["f"]}), list(&c0["numerator"]), list(&c0["denominator"])),
+        (json!({"f": "2*(s+1)/(s*(s-1))", "hz": true}), vec![(2.0, 0.0), (2.0, 0.0)], vec![(1.0, 0.0), (-1.0, 0.0), (0.0, 0.0)]),
+    ];
+    for (req, num, den) in cases {
+        let mut req = req;
+        req["task"] = json!("transfer_function");
+        let hz = req.get("hz").is_some();
+        let r = ok_response(req.clone());
+        let image = &r["image"];
+        assert_eq!(image["about"], json!([-1.0, 0.0]));
+        let mut points = Vec::new();
+        let mut kinds = Vec::new();
+        for seg in image["segments"].as_array().unwrap() {
+            kinds.push(seg["kind"].as_str().unwrap().to_string());
+            let values = list(&seg["value"]);
+            if seg["kind"] == "axis" {
+                let omega = floats(&seg["omega"]);
+                assert_eq!(omega.len(), values.len());
+                assert!(omega.windows(2).all(|w| w[1] > w[0]), "{req}: ω increases");
+                for (w, v) in omega.iter().zip(&values) {
+                    let w = if hz { 2.0 * PI * w } else { *w };
+                    let want = cdiv(polyval(&num, (0.0, w)), polyval(&den, (0.0, w)));
+                    let scale = (want.0.hypot(want.1)).max(1e-300);
+                    assert!((v.0 - want.0).hypot(v.1 - want.1) <= 1e-9 * scale, "{req}: F(j{w}) = {want:?}, got {v:?}");
+                }
+            } else {
+                assert!(seg["omega"].is_null());
+            }
+            points.extend(values);
+        }
+        assert!(points.len() <= 6000 + 10, "{req}: {} points", points.len());
+        assert_eq!(kinds.last().unwrap(), "closing", "{req}");
+        let n = r["encirclement"]["winding"].as_i64().unwrap();
+        let ccw = polyline_turns(&points, (-1.0, 0.0));
+        assert!((ccw + n as f64).abs() < 1e-6, "{req}: polyline turns {ccw}, N = {n}");
+        // Consecutive points turn by a few degrees about 0 and change modulus by ≤ 20 % where finite.
+        for w in points.windows(2) {
+            let q = cdiv(w[1], w[0]);
+            assert!(q.1.atan2(q.0).abs().to_degrees() <= 3.0 + 1e-9 || q.0.hypot(q.1) > 1e6 || q.0.hypot(q.1) < 1e-6,
+                "{req}: step {w:?}");
+        }
+    }
+    // Cases' N: 2, the unstable pole gives P = 1 (closed loop by the count), −1.
+    let r = ok_response(json!({"task": "transfer_function", "f": "2*(s+1)/(s*(s-1))"}));
+    let kinds: Vec<&str> = r["image"]["segments"].as_array().unwrap().iter().map(|s| s["kind"].as_str().unwrap()).collect();
+    assert_eq!(kinds, ["axis", "indent", "axis", "closing"]);
+    assert_eq!(r["encirclement"]["winding"], -1);
+}
+
+#[test]
+fn the_discrete_image_runs_along_the_unit_circle() {
+    // H(z) = 0.5/(z − 1) with T = 2: the axis pieces are ωT from −π to π (ω to ±π/2), indented at z = 1;
+    // H(e^{jωT}) = 0.5/(e^{jωT} − 1) (by hand), N = 0 (by hand; encirclement.rs).
+    let r = ok_response(json!({"task": "transfer_function", "f": "0.5/(z-1)", "var": "z", "sample_period": 2}));
+    let segs = r["image"]["segments"].as_array().unwrap();
+    let kinds: Vec<&str> = segs.iter().map(|s| s["kind"].as_str().unwrap()).collect();
+    assert_eq!(kinds, ["axis", "indent", "axis"]);
+    close(f(&segs[0]["omega"][0]), -PI / 2.0, 1e-12, "first ω");
+    close(f(segs[2]["omega"].as_array().unwrap().last().unwrap()), PI / 2.0, 1e-12, "last ω");
+    for seg in [&segs[0], &segs[2]] {
+        for (w, v) in floats(&seg["omega"]).iter().zip(seg["value"].as_array().unwrap()) {
+            let want = cdiv((0.5, 0.0), ((2.0 * w).cos() - 1.0, (2.0 * w).sin()));
+            let got = cx(v);
+            assert!((got.0 - want.0).hypot(got.1 - want.1) <= 1e-9 * want.0.hypot(want.1), "ω {w}");
+        }
+    }
+    assert_eq!(r["encirclement"]["winding"], 0);
+}

@@ -14,10 +14,11 @@ use crate::api::input::{compile_text, CAUTION};
 use crate::api::shape::{Expect, Field};
 use crate::error::Failure;
 use crate::api::wire::{pair, FunctionInput, Number, BUDGET_FIELD, FUNCTION_FIELDS};
-use crate::poly::{mul, trim};
+use crate::poly::{from_roots, mul, trim};
 use crate::singular::rational_poles::{analyse_function, RationalAnalysis};
 use crate::text;
 use crate::transforms::laplace::residues::{has_real_coefficients, residue_series};
+use crate::transforms::system::contour_image::Kind;
 use crate::transforms::system::encirclement::count;
 use crate::transforms::system::frequency_response::{default_grid, margins, response};
 use crate::transforms::system::pole_data::{
@@ -31,6 +32,8 @@ use serde::{Deserialize, Serialize};
 use std::collections::BTreeMap;
 use std::f64::consts::PI;
 
+/// Most evaluations of F the image walk may spend.
+pub const IMAGE_EVALUATIONS: u64 = 2_000_000;
 /// Most frequencies or times one request may list.
 pub const MAX_POINTS: usize = 10_000;
 /// Largest sample index n = t/T of a discrete response.
@@ -142,6 +145,30 @@ pub struct EncirclementOut {
     pub caution: String,
 }
 
+/// F = N/D after cancelling common factors, descending powers, D monic.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct CoefficientsOut {
+    pub numerator: Vec<[f64; 2]>,
+    pub denominator: Vec<[f64; 2]>,
+}
+
+/// One piece of the image of the encirclement contour.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ImageSegmentOut {
+    /// `"axis"`, `"indent"` or `"closing"`.
+    pub kind: String,
+    /// The frequency of each point (in `unit`, negative ones too), `"axis"` pieces only.
+    pub omega: Option<Vec<f64>>,
+    pub value: Vec<[f64; 2]>,
+}
+
+/// F along the encirclement contour, in contour order.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ImageOut {
+    pub about: [f64; 2],
+    pub segments: Vec<ImageSegmentOut>,
+}
+
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct StepOut {
     pub t: Vec<f64>,
@@ -170,9 +197,13 @@ pub struct TransferFunctionResponse {
     pub high_frequency_gain: GainOut,
     /// deg den − deg num.
     pub relative_degree: i32,
+    pub coefficients: CoefficientsOut,
+    /// k in F = k·Π(v − zᵢ)/Π(v − pᵢ): the numerator's leading coefficient.
+    pub gain: [f64; 2],
     pub frequency_response: FrequencyOut,
     pub margins: MarginsOut,
     pub encirclement: EncirclementOut,
+    pub image: ImageOut,
     pub step: StepOut,
     pub impulse: ImpulseOut,
     pub warnings: Vec<String>,
@@ -189,7 +220,8 @@ pub fn run(req: &TransferFunctionRequest) -> Result<TransferFunctionResponse, Ap
         return Err(Failure::not_applicable("F is identically zero: it has no frequency response, poles or zeros to read").into());
     }
     let mut warnings = a.warnings.clone();
-    if !has_real_coefficients(&num, &den) {
+    let real = has_real_coefficients(&num, &den);
+    if !real {
         warnings.push("F has complex coefficients: the responses below are the real parts".into());
     }
     let hz = req.hz.unwrap_or(false);
@@ -212,7 +244,7 @@ pub fn run(req: &TransferFunctionRequest) -> Result<TransferFunctionResponse, Ap
     let m = margins(&eval, &fr, domain);
 
     let about = req.point.map(|p| p.to_c()).unwrap_or(C::new(-1.0, 0.0));
-    let e = count(&num, &den, about, domain)?;
+    let e = count(&num, &den, about, domain, IMAGE_EVALUATIONS)?;
     if e.on_contour > 0 {
         warnings.push(format!(
             "F − ({}) has a root on the {}: the image passes through the point, so no encirclement count is given",
@@ -243,6 +275,8 @@ pub fn run(req: &TransferFunctionRequest) -> Result<TransferFunctionResponse, Ap
         dc_gain: gain_out(dc),
         high_frequency_gain: gain_out(hf),
         relative_degree: relative_degree(&a),
+        coefficients: coefficients(&a, &num, &den, real),
+        gain: pair(lead + 0.0),
         frequency_response: FrequencyOut {
             omega: fr.omega.iter().map(|w| w * to_unit).collect(),
             magnitude_db: fr.magnitude_db,
@@ -265,10 +299,45 @@ pub fn run(req: &TransferFunctionRequest) -> Result<TransferFunctionResponse, Ap
             sampled_winding: e.sampled_winding,
             caution: CAUTION.into(),
         },
+        image: ImageOut {
+            about: pair(about),
+            segments: e
+                .image
+                .into_iter()
+                .map(|seg| ImageSegmentOut {
+                    kind: match seg.kind {
+                        Kind::Axis => "axis",
+                        Kind::Indent => "indent",
+                        Kind::Closing => "closing",
+                    }
+                    .into(),
+                    omega: seg.omega.map(|w| w.iter().map(|x| x * to_unit).collect()),
+                    value: seg.value.into_iter().map(pair).collect(),
+                })
+                .collect(),
+        },
         step,
         impulse,
         warnings,
     })
+}
+
+/// N and D of F in descending powers after cancelling common factors, D monic: the typed
+/// coefficients when nothing cancelled, else rebuilt from the roots (k·Π(v − zᵢ), Π(v − pᵢ)).
+fn coefficients(a: &RationalAnalysis, num: &[C], den: &[C], real: bool) -> CoefficientsOut {
+    let zeros: Vec<C> = a.zeros.iter().flat_map(|z| std::iter::repeat_n(z.at, z.order as usize)).collect();
+    let poles: Vec<C> = a.poles.iter().flat_map(|p| std::iter::repeat_n(p.at, p.order as usize)).collect();
+    let d = den[den.len() - 1];
+    let (n, m) = if zeros.len() + 1 == num.len() && poles.len() + 1 == den.len() {
+        (num.iter().map(|c| c / d).collect::<Vec<_>>(), den.iter().map(|c| c / d).collect::<Vec<_>>())
+    } else {
+        let lead = num[num.len() - 1] / d;
+        (from_roots(lead, &zeros), from_roots(C::new(1.0, 0.0), &poles))
+    };
+    let out = |p: Vec<C>| -> Vec<[f64; 2]> {
+        p.into_iter().rev().map(|c| pair(if real { C::new(c.re, 0.0) } else { c } + 0.0)).collect()
+    };
+    CoefficientsOut { numerator: out(n), denominator: out(m) }
 }
 
 fn domain_of(req: &TransferFunctionRequest) -> Result<(Domain, String), ApiError> {

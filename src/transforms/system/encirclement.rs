@@ -12,10 +12,9 @@
 //! which is Z − P with Z, P counted outside the unit circle when L − a and L
 //! have as many finite poles as zeros. The roots are the exact roots of the
 //! rational analysis; the count is cross-checked by the winding of the image
-//! sampled along the contour (2048 steps a piece, the axis spaced as
-//! ω = c sinh(u), each step halved until it turns by less than 0.3 rad and its
-//! halves agree). A zero of L − a on the contour (the image passes through a) has no
-//! count: `None`.
+//! sampled along the contour by `contour_image::walk` (the same points the
+//! image is drawn from). A zero of L − a on the contour (the image passes
+//! through a) has no count: `None`.
 //!
 //! ```
 //! use residuary::transforms::system::{encirclement::count, Domain};
@@ -23,17 +22,20 @@
 //! // L = 2(s + 1)/(s(s − 1)): 1 + L has the roots of s² + s + 2 (left half-plane),
 //! // L one pole at s = 1: P = 1, Z = 0, N = −1 (quadratic formula; by hand).
 //! let re = |x: f64| C::new(x, 0.0);
-//! let e = count(&[re(2.0), re(2.0)], &[re(0.0), re(-1.0), re(1.0)], re(-1.0), Domain::S).unwrap();
+//! let e = count(&[re(2.0), re(2.0)], &[re(0.0), re(-1.0), re(1.0)], re(-1.0), Domain::S, 10_000_000).unwrap();
 //! assert_eq!((e.open_loop_unstable, e.closed_loop_unstable, e.winding), (1, 0, Some(-1)));
 //! assert_eq!(e.sampled_winding, Some(-1));
 //! ```
 
 use super::Domain;
 use crate::error::Failure;
-use crate::poly::{add, eval, scale};
+use super::contour_image::{walk_capped, Segment, Tolerance};
+use crate::poly::{add, scale};
 use crate::singular::rational_poles::analyse_rational;
 use crate::C;
-use std::f64::consts::PI;
+
+/// Most points of the drawn image.
+pub const IMAGE_POINTS: usize = 6000;
 
 /// The count and its parts.
 #[derive(Debug, Clone, PartialEq)]
@@ -48,6 +50,10 @@ pub struct Encirclement {
     pub on_contour: u32,
     /// N from the sampled image, when the sampling resolved it.
     pub sampled_winding: Option<i32>,
+    /// The image of L along the contour, in contour order (at most about [`IMAGE_POINTS`] points).
+    pub image: Vec<Segment>,
+    /// Evaluations of L the walk spent.
+    pub evaluations: u64,
 }
 
 /// Where a root lies relative to the contour: +1 unstable side, 0 on it, −1 stable side.
@@ -65,8 +71,8 @@ fn side(q: C, domain: Domain, tol: f64) -> i32 {
     }
 }
 
-/// N, P and Z for L = num/den about `point`.
-pub fn count(num: &[C], den: &[C], point: C, domain: Domain) -> Result<Encirclement, Failure> {
+/// N, P and Z for L = num/den about `point`, and the image; the walk spends at most `limit` evaluations.
+pub fn count(num: &[C], den: &[C], point: C, domain: Domain, limit: u64) -> Result<Encirclement, Failure> {
     let shifted = add(num, &scale(den, -point));
     let open = analyse_rational(num, den)?;
     let closed = analyse_rational(&shifted, den)?;
@@ -92,121 +98,19 @@ pub fn count(num: &[C], den: &[C], point: C, domain: Domain) -> Result<Encirclem
     let axis_poles: Vec<C> =
         open.poles.iter().filter(|p| side(p.at, domain, tol_open + 4.0 * p.location_error) == 0).map(|p| p.at).collect();
     let all_roots: Vec<C> = open.poles.iter().map(|p| p.at).chain(closed.zeros.iter().map(|z| z.at)).collect();
-    let g = |s: C| eval(&shifted, s) / eval(den, s);
-    let sampled_winding = if on_contour == 0 { sampled(&g, &axis_poles, &all_roots, domain) } else { None };
-    Ok(Encirclement { winding, open_loop_unstable: p_out, closed_loop_unstable: z_out, on_contour, sampled_winding })
-}
-
-/// One piece of the contour: a straight segment or a circular arc.
-#[derive(Clone, Copy)]
-enum Piece {
-    /// The imaginary axis from y0 to y1, spaced as ω = c sinh(u) (dense near 0, sparse far out).
-    Line(f64, f64, f64),
-    /// centre, radius, angle from, angle to.
-    Arc(C, f64, f64, f64),
-}
-
-impl Piece {
-    fn at(self, t: f64) -> C {
-        match self {
-            Piece::Line(y0, y1, c) => {
-                let (u0, u1) = ((y0 / c).asinh(), (y1 / c).asinh());
-                C::new(0.0, c * (u0 + (u1 - u0) * t).sinh())
-            }
-            Piece::Arc(c, r, a, b) => c + C::from_polar(r, a + (b - a) * t),
-        }
-    }
-}
-
-/// The turn of g along a piece between parameters t0 and t1: the principal step, accepted when it
-/// is below 0.3 rad and the two halves agree with it, else the sum over the halves (depth ≤ 40).
-fn turn(g: &dyn Fn(C) -> C, piece: Piece, t0: f64, t1: f64, g0: C, g1: C, depth: u32) -> Option<f64> {
-    let step = (g1 / g0).arg();
-    let tm = 0.5 * (t0 + t1);
-    let gm = g(piece.at(tm));
-    let (a, b) = ((gm / g0).arg(), (g1 / gm).arg());
-    if !(step.is_finite() && a.is_finite() && b.is_finite()) {
-        return None;
-    }
-    if step.abs() < 0.3 && (a + b - step).abs() < 1e-6 {
-        return Some(step);
-    }
-    if depth == 0 {
-        return None;
-    }
-    Some(turn(g, piece, t0, tm, g0, gm, depth - 1)? + turn(g, piece, tm, t1, gm, g1, depth - 1)?)
-}
-
-/// The clockwise count N from the sampled image of g = L − a along the contour.
-fn sampled(g: &dyn Fn(C) -> C, axis_poles: &[C], roots: &[C], domain: Domain) -> Option<i32> {
-    // Indentation radius: well inside the gaps between roots; large radius well outside them all.
-    let mut gap = f64::INFINITY;
-    for &p in axis_poles {
-        for &q in roots {
-            let d = (p - q).norm();
-            if d > 0.0 {
-                gap = gap.min(d);
-            }
-        }
-    }
-    let size = roots.iter().map(|q| q.norm()).fold(1.0, f64::max);
-    let smallest = roots.iter().map(|q| q.norm()).filter(|&r| r > 0.0).fold(f64::INFINITY, f64::min);
-    // The axis spacing scale: a tenth of the smallest nonzero root size.
-    let c = if smallest.is_finite() { smallest / 10.0 } else { 0.1 };
-    let eps = if gap.is_finite() { gap * 1e-3 } else { 1e-3 * size }.min(1e-3);
-    let mut pieces = Vec::new();
-    match domain {
-        Domain::S => {
-            let big = 1e3 * size;
-            let mut ys: Vec<f64> = axis_poles.iter().map(|p| p.im).collect();
-            ys.sort_by(f64::total_cmp);
-            let mut y = -big;
-            for &yp in &ys {
-                pieces.push(Piece::Line(y, yp - eps, c));
-                // To the right of the pole: from below, counterclockwise through Re > 0.
-                pieces.push(Piece::Arc(C::new(0.0, yp), eps, -PI / 2.0, PI / 2.0));
-                y = yp + eps;
-            }
-            pieces.push(Piece::Line(y, big, c));
-            pieces.push(Piece::Arc(C::new(0.0, 0.0), big, PI / 2.0, -PI / 2.0));
-        }
-        Domain::Z { .. } => {
-            let mut angles: Vec<f64> = axis_poles.iter().map(|p| p.arg()).collect();
-            angles.sort_by(f64::total_cmp);
-            let mut a = -PI;
-            for &ap in &angles {
-                // Around the pole outside the circle (through the outward direction).
-                pieces.push(Piece::Arc(C::new(0.0, 0.0), 1.0, a, ap - eps));
-                let centre = C::from_polar(1.0, ap);
-                let from = (C::from_polar(1.0, ap - eps) - centre).arg();
-                let to = (C::from_polar(1.0, ap + eps) - centre).arg();
-                let to = from + (to - from).rem_euclid(2.0 * PI);
-                pieces.push(Piece::Arc(centre, eps, from, to));
-                a = ap + eps;
-            }
-            pieces.push(Piece::Arc(C::new(0.0, 0.0), 1.0, a, PI));
-        }
-    }
-    let mut total = 0.0;
-    for piece in pieces {
-        let n = 2048;
-        let mut prev = g(piece.at(0.0));
-        for k in 1..=n {
-            let t0 = (k - 1) as f64 / n as f64;
-            let t1 = k as f64 / n as f64;
-            let next = g(piece.at(t1));
-            total += turn(g, piece, t0, t1, prev, next, 40)?;
-            prev = next;
-        }
-    }
-    let ccw = total / (2.0 * PI);
-    let rounded = ccw.round();
-    if (ccw - rounded).abs() > 0.1 {
-        return None;
-    }
+    let w = walk_capped(num, den, point, &axis_poles, &all_roots, domain, Tolerance::DRAW, limit, IMAGE_POINTS)?;
     // s: the contour is clockwise, so N = −(counterclockwise turns of the image); z: the
     // circle runs counterclockwise, and N is the clockwise count, also −ccw.
-    Some(-(rounded as i32))
+    let sampled_winding = if on_contour == 0 { w.counterclockwise_turns.map(|n| -n) } else { None };
+    Ok(Encirclement {
+        winding,
+        open_loop_unstable: p_out,
+        closed_loop_unstable: z_out,
+        on_contour,
+        sampled_winding,
+        image: w.segments,
+        evaluations: w.evaluations,
+    })
 }
 
 #[cfg(test)]
@@ -227,12 +131,12 @@ mod tests {
         let den = crate::poly::from_roots(re(1.0), &[re(-1.0), re(-2.0), re(-3.0)]);
         for (k, want) in [(10.0, 0), (100.0, 2)] {
             let num = [re(k)];
-            let e = count(&num, &den, re(-1.0), Domain::S).unwrap();
+            let e = count(&num, &den, re(-1.0), Domain::S, 10_000_000).unwrap();
             let image: Vec<C> = (-200_000..=200_000)
                 .map(|i| {
                     let w = (i as f64 / 1000.0).powi(3);
                     let s = C::new(0.0, w);
-                    eval(&num, s) / eval(&den, s)
+                    crate::poly::eval(&num, s) / crate::poly::eval(&den, s)
                 })
                 .collect();
             assert_eq!(-sampled_winding(&image, re(-1.0)), want, "K = {k}: dense polyline");
@@ -247,7 +151,7 @@ mod tests {
         // L = 0.5/(z − 1): 1 + L ∝ z − 0.5, inside; the pole at 1 counts as inside (indented outward),
         // so N = P_in − Z_in = 1 − 1 = 0 (by hand); a gain 3 moves the root to −2: N = 1 − 0 = 1.
         for (k, want) in [(0.5, 0), (3.0, 1)] {
-            let e = count(&[re(k)], &[re(-1.0), re(1.0)], re(-1.0), Domain::Z { period: 1.0 }).unwrap();
+            let e = count(&[re(k)], &[re(-1.0), re(1.0)], re(-1.0), Domain::Z { period: 1.0 }, 10_000_000).unwrap();
             assert_eq!((e.winding, e.sampled_winding), (Some(want), Some(want)), "gain {k}");
         }
     }

@@ -3,6 +3,7 @@
 //! margins, the encirclement count of the Nyquist contour's image, and the
 //! step response with its metrics.
 
+pub mod contour_image;
 pub mod encirclement;
 pub mod frequency_response;
 pub mod pole_data;
