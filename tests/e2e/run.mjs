@@ -902,6 +902,7 @@ describe('entering f as a ratio of polynomials', () => {
     assert.equal(await b.page.inputValue('#entry-num'), '2 6');
     assert.equal(await b.page.inputValue('#entry-den'), '1 3 7 5');
     assert.equal(await b.page.inputValue('#entry-var'), 's');
+    assert.equal(await b.page.getAttribute('#entry-message', 'data-source'), 'core', 'k and the coefficients from the core\'s response');
     await b.page.locator('#entry-box').screenshot({ path: join(artifacts, 'entry-read.png') });
     // written back from the coefficients: the same poles (−1, −1 ± 2i)
     await openEntry('coef');
@@ -909,6 +910,17 @@ describe('entering f as a ratio of polynomials', () => {
     assert.equal((await scriptState(b.page)).f, '(2*s + 6)/(s^3 + 3*s^2 + 7*s + 5)');
     const got = sortAt(r.singularities.poles);
     [[-1, -2], [-1, 0], [-1, 2]].forEach((w, i) => assert.ok(near(got[i].at, w, 1e-10), `${got[i].at}`));
+    // a double pole and an imaginary pair read back with their orders; the denominator monic (the core's D)
+    // by hand: (s + 1)^2 (s^2 + 1) = s^4 + 2s^3 + 2s^2 + 2s + 1, and 3/(2·…) has k = 1.5
+    await scriptSet(b.page, { f: '3/(2*(s+1)^2*(s^2+1))', var: 's', params: {} });
+    await b.page.click('#entry-read');
+    await b.page.waitForFunction(() => document.getElementById('entry-message').dataset.look === 'good' &&
+      document.getElementById('entry-gain').value === '1.5', null, { timeout: 20000 });
+    assert.deepEqual((await b.page.inputValue('#entry-poles')).split(', ').sort(), ['-1^2', '±i']);
+    assert.equal(await b.page.inputValue('#entry-zeros'), '');
+    assert.equal(await b.page.inputValue('#entry-num'), '1.5');
+    assert.equal(await b.page.inputValue('#entry-den'), '1 2 2 2 1');
+    await b.page.fill('#entry-den', '1 3 7 5');
     // not a ratio of polynomials: said so, the fields keep what they had
     await scriptSet(b.page, { f: 'exp(s)/(s + 1)', var: 's', params: {} });
     await b.page.click('#entry-read');

@@ -466,6 +466,8 @@ export function attachEntryForms(hooks) {
     parts.den.value = shown.denominator;
     clearInvalid();
     say(`Read from f(${v}); both forms show it.`, 'good');
+    // where k and the coefficients came from: the core's response, or multiplied out here
+    parts.message.dataset.source = Array.isArray(resp.gain) && resp.coefficients ? 'core' : 'page';
   }
   parts.read.addEventListener('click', () => readFromF(false));
   // Enter in a field does what its button does: add the pair, or write f.
