@@ -10,6 +10,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createRequire } from 'node:module';
+import './entry-forms.test.mjs'; // the entry forms' parsing and writing, in node
 
 const here = dirname(fileURLToPath(import.meta.url));
 const require = createRequire(join(here, 'package.json'));
@@ -1077,6 +1078,204 @@ describe('the page inside an iframe', () => {
     await plotDone(frame);
     assert.equal(b.page.url(), outer);
     await b.page.screenshot({ path: join(artifacts, 'iframe.png') });
+    assert.deepEqual(b.log.errors, []);
+    assert.deepEqual(b.log.requests, []);
+  });
+});
+
+describe('entering f as a ratio of polynomials', () => {
+  let b;
+  before(async () => { b = await openBrowser({ width: 1366, height: 768 }); });
+  after(async () => { if (b) await b.close(); });
+
+  /** Open the block (on a page showing `f` in `v`), choose the form. */
+  async function openEntry(kind) {
+    if (!(await b.page.evaluate(() => document.getElementById('entry-box').open))) await b.page.click('#entry-box summary');
+    await b.page.check(`input[name=entry-kind][value=${kind}]`);
+  }
+  /** Press "Write f" and wait for the search of the written f. */
+  async function writeAndSearch() {
+    await b.page.click('#entry-write');
+    assert.equal(await b.page.getAttribute('#entry-message', 'data-look'), 'good', await b.page.textContent('#entry-message'));
+    await searchDone(b.page);
+    return b.page.evaluate(() => window.residuary.settled());
+  }
+  const sortAt = (list) => list.map((p) => ({ at: p.at, order: p.order })).sort((p, q) => p.at[0] - q.at[0] || p.at[1] - q.at[1]);
+  const near = (a, b, tol = 1e-9) => Math.hypot(a[0] - b[0], a[1] - b[1]) <= tol * Math.max(1, Math.hypot(b[0], b[1]));
+
+  test('coefficients 1 0 4 / 1 0.4 4 write f, and its poles are numpy\'s roots', async () => {
+    await load(b.page);
+    await scriptSet(b.page, { f: '1/(z - 2)', var: 'z', params: {} });
+    await openEntry('coef');
+    await b.page.selectOption('#entry-var', 's');
+    await b.page.fill('#entry-num', '1 0 4');
+    await b.page.fill('#entry-den', '1 0.4 4');
+    const r = await writeAndSearch();
+    const st = await scriptState(b.page);
+    assert.equal(st.f, '(s^2 + 4)/(s^2 + 0.4*s + 4)');
+    assert.equal(st.var, 's');
+    assert.equal(await b.page.inputValue('#expr'), st.f);
+    const poles = sortAt(r.singularities.poles);
+    // numpy 2.4 roots([1, 0.4, 4]) = -0.2 ± 1.98997487421324i
+    const want = [[-0.20000000000000012, -1.98997487421324], [-0.20000000000000012, 1.98997487421324]];
+    assert.equal(poles.length, 2);
+    poles.forEach((p, i) => { assert.ok(near(p.at, want[i], 1e-12), `${p.at} vs ${want[i]}`); assert.equal(p.order, 1); });
+    // numpy 2.4 roots([1, 0, 4]) = ±2i
+    const zeros = sortAt(r.singularities.zeros);
+    assert.ok(zeros.length === 2 && near(zeros[0].at, [0, -2], 1e-12) && near(zeros[1].at, [0, 2], 1e-12), JSON.stringify(zeros));
+    // the view was fitted (as for an example): both poles inside it
+    const v = st.view;
+    assert.ok(v[0] < -0.2 && v[1] > -0.2 && v[2] < -1.99 && v[3] > 1.99, `view ${v}`);
+    await b.page.screenshot({ path: join(artifacts, 'entry-coefficients.png') });
+  });
+
+  test('gain, zeros and poles with a ± pair and a double pole write f with those poles and orders', async () => {
+    await openEntry('zpk');
+    await b.page.fill('#entry-gain', '3');
+    await b.page.fill('#entry-zeros', '-2');
+    await b.page.fill('#entry-poles', '-1^2, -0.5±2i');
+    const r = await writeAndSearch();
+    assert.equal((await scriptState(b.page)).f, '3*(s + 2)/((s + 1)^2*(s^2 + s + 4.25))');
+    // numpy 2.4 roots([1, 1, 4.25]) = -0.5 ± 2i; the double pole −1 typed as -1^2
+    const poles = sortAt(r.singularities.poles);
+    const want = [{ at: [-1, 0], order: 2 }, { at: [-0.5, -2], order: 1 }, { at: [-0.5, 2], order: 1 }];
+    assert.equal(poles.length, 3, JSON.stringify(poles));
+    poles.forEach((p, i) => { assert.ok(near(p.at, want[i].at, 1e-10), `${p.at}`); assert.equal(p.order, want[i].order); });
+    const zeros = sortAt(r.singularities.zeros);
+    assert.ok(zeros.length === 1 && near(zeros[0].at, [-2, 0], 1e-12) && zeros[0].order === 1, JSON.stringify(zeros));
+    // residue of 3(s + 2)/((s + 1)^2 (s^2 + s + 4.25)) at the double pole −1: d/ds[3(s + 2)/(s^2 + s + 4.25)] at −1
+    // = 3[(s^2 + s + 4.25) − (s + 2)(2s + 1)]/(s^2 + s + 4.25)^2 = 3[4.25 + 1]/4.25^2 (by hand)
+    const double = r.singularities.poles.find((p) => p.order === 2);
+    assert.ok(Math.abs(double.residue[0] - 3 * 5.25 / (4.25 * 4.25)) < 1e-9, `${double.residue}`);
+  });
+
+  test('a pole pair from ωn and ζ: rad/s, and Hz multiplying by 2π', async () => {
+    await openEntry('zpk');
+    await b.page.fill('#entry-gain', '4');
+    await b.page.fill('#entry-zeros', '');
+    await b.page.fill('#entry-poles', '');
+    await b.page.fill('#entry-wn', '2');
+    await b.page.fill('#entry-zeta', '0.3');
+    await b.page.selectOption('#entry-wn-unit', 'rad/s');
+    await b.page.click('#entry-add-pair');
+    let r = await writeAndSearch();
+    // from memory: ωn²/(s² + 2ζωn s + ωn²) with ωn = 2, ζ = 0.3; poles −ζωn ± iωn√(1 − ζ²)
+    assert.equal((await scriptState(b.page)).f, '4/(s^2 + 1.2*s + 4)');
+    const wd = 2 * Math.sqrt(1 - 0.09);
+    let poles = sortAt(r.singularities.poles);
+    assert.ok(poles.length === 2 && near(poles[0].at, [-0.6, -wd], 1e-12) && near(poles[1].at, [-0.6, wd], 1e-12), JSON.stringify(poles));
+    // 1 Hz, ζ = 0.5: |p| = 2π·1 (Hz multiplies by 2π)
+    await b.page.fill('#entry-poles', '');
+    await b.page.fill('#entry-wn', '1');
+    await b.page.fill('#entry-zeta', '0.5');
+    await b.page.selectOption('#entry-wn-unit', 'Hz');
+    await b.page.click('#entry-add-pair');
+    r = await writeAndSearch();
+    poles = r.singularities.poles;
+    assert.equal(poles.length, 2);
+    for (const p of poles) assert.ok(Math.abs(Math.hypot(...p.at) - 2 * Math.PI) < 1e-9 && Math.abs(p.at[0] + Math.PI) < 1e-9, `${p.at}`);
+  });
+
+  test('an invalid item is refused with a message naming it, and f is unchanged', async () => {
+    const before = (await scriptState(b.page)).f;
+    await openEntry('zpk');
+    await b.page.fill('#entry-poles', '-1, -2, -0.5±2');
+    await b.page.click('#entry-write');
+    assert.match(await b.page.textContent('#entry-message'), /^Poles, item 3: “-0\.5±2” is not a pair a±bi.*The function is unchanged\.$/);
+    assert.equal(await b.page.getAttribute('#entry-message', 'data-look'), 'bad');
+    assert.equal(await b.page.getAttribute('#entry-poles', 'aria-invalid'), 'true');
+    assert.equal((await scriptState(b.page)).f, before);
+    assert.equal(await b.page.inputValue('#expr'), before);
+    await openEntry('coef');
+    await b.page.fill('#entry-num', '1');
+    await b.page.fill('#entry-den', '1 2 x');
+    await b.page.click('#entry-write');
+    assert.match(await b.page.textContent('#entry-message'), /^Denominator, item 3: “x” is not a number/);
+    assert.equal(await b.page.getAttribute('#entry-den', 'aria-invalid'), 'true');
+    assert.equal((await scriptState(b.page)).f, before);
+    // what was typed in the form stays through a re-render of the page's controls
+    await scriptSet(b.page, { f: before, var: 's', params: { a: 1 } });
+    assert.equal(await b.page.inputValue('#entry-den'), '1 2 x');
+    assert.equal(await b.page.inputValue('#entry-poles'), '-1, -2, -0.5±2');
+  });
+
+  test('Read from f fills k, zeros, poles and the coefficients of 2(s + 3)/((s + 1)(s² + 2s + 5))', async () => {
+    await scriptSet(b.page, { f: '2*(s+3)/((s+1)*(s^2+2*s+5))', var: 's', params: {} });
+    await openEntry('zpk');
+    await b.page.click('#entry-read');
+    await b.page.waitForFunction(() => document.getElementById('entry-message').dataset.look === 'good', null, { timeout: 20000 });
+    assert.equal(await b.page.inputValue('#entry-gain'), '2');
+    assert.equal(await b.page.inputValue('#entry-zeros'), '-3');
+    const poles = (await b.page.inputValue('#entry-poles')).split(', ').sort();
+    assert.deepEqual(poles, ['-1', '-1±2i']);
+    // by hand: (s + 1)(s² + 2s + 5) = s³ + 3s² + 7s + 5; scipy 1.17 signal.zpk2tf([-3], [-1, -1+2j, -1-2j], 2) agrees
+    assert.equal(await b.page.inputValue('#entry-num'), '2 6');
+    assert.equal(await b.page.inputValue('#entry-den'), '1 3 7 5');
+    assert.equal(await b.page.inputValue('#entry-var'), 's');
+    assert.equal(await b.page.getAttribute('#entry-message', 'data-source'), 'core', 'k and the coefficients from the core\'s response');
+    await b.page.locator('#entry-box').screenshot({ path: join(artifacts, 'entry-read.png') });
+    // written back from the coefficients: the same poles (−1, −1 ± 2i)
+    await openEntry('coef');
+    const r = await writeAndSearch();
+    assert.equal((await scriptState(b.page)).f, '(2*s + 6)/(s^3 + 3*s^2 + 7*s + 5)');
+    const got = sortAt(r.singularities.poles);
+    [[-1, -2], [-1, 0], [-1, 2]].forEach((w, i) => assert.ok(near(got[i].at, w, 1e-10), `${got[i].at}`));
+    // a double pole and an imaginary pair read back with their orders; the denominator monic (the core's D)
+    // by hand: (s + 1)^2 (s^2 + 1) = s^4 + 2s^3 + 2s^2 + 2s + 1, and 3/(2·…) has k = 1.5
+    await scriptSet(b.page, { f: '3/(2*(s+1)^2*(s^2+1))', var: 's', params: {} });
+    await b.page.click('#entry-read');
+    await b.page.waitForFunction(() => document.getElementById('entry-message').dataset.look === 'good' &&
+      document.getElementById('entry-gain').value === '1.5', null, { timeout: 20000 });
+    assert.deepEqual((await b.page.inputValue('#entry-poles')).split(', ').sort(), ['-1^2', '±i']);
+    assert.equal(await b.page.inputValue('#entry-zeros'), '');
+    assert.equal(await b.page.inputValue('#entry-num'), '1.5');
+    assert.equal(await b.page.inputValue('#entry-den'), '1 2 2 2 1');
+    await b.page.fill('#entry-den', '1 3 7 5');
+    // not a ratio of polynomials: said so, the fields keep what they had
+    await scriptSet(b.page, { f: 'exp(s)/(s + 1)', var: 's', params: {} });
+    await b.page.click('#entry-read');
+    await b.page.waitForFunction(() => /not a ratio of polynomials/.test(document.getElementById('entry-message').textContent), null, { timeout: 20000 });
+    assert.equal(await b.page.inputValue('#entry-den'), '1 3 7 5');
+  });
+
+  test('in z: coefficients 1 / 1 -0.5 and a pair mapped by z = e^(sT)', async () => {
+    await openEntry('coef');
+    await b.page.selectOption('#entry-var', 'z');
+    await b.page.fill('#entry-num', '1');
+    await b.page.fill('#entry-den', '1 -0.5');
+    let r = await writeAndSearch();
+    assert.deepEqual([(await scriptState(b.page)).f, (await scriptState(b.page)).var], ['1/(z - 0.5)', 'z']);
+    assert.ok(r.singularities.poles.length === 1 && near(r.singularities.poles[0].at, [0.5, 0], 1e-12));
+    await openEntry('zpk');
+    assert.equal(await b.page.isVisible('#entry-period'), true);
+    await b.page.fill('#entry-gain', '1');
+    await b.page.fill('#entry-zeros', '');
+    await b.page.fill('#entry-poles', '');
+    await b.page.fill('#entry-wn', '1');
+    await b.page.fill('#entry-zeta', '0.5');
+    await b.page.selectOption('#entry-wn-unit', 'rad/s');
+    await b.page.fill('#entry-period', '0.1');
+    await b.page.press('#entry-period', 'Enter'); // Enter in the pair's row adds the pair
+    assert.match(await b.page.inputValue('#entry-poles'), /^[\d.]+±[\d.]+i$/);
+    r = await writeAndSearch();
+    // from memory: z = e^(sT) maps −ζωn ± iωn√(1 − ζ²) to |z| = e^(−ζωn T), arg z = ±ωn√(1 − ζ²)T
+    for (const p of r.singularities.poles) {
+      assert.ok(Math.abs(Math.hypot(...p.at) - Math.exp(-0.05)) < 1e-9 && Math.abs(Math.abs(Math.atan2(p.at[1], p.at[0])) - Math.sqrt(0.75) * 0.1) < 1e-9, `${p.at}`);
+    }
+    assert.deepEqual(b.log.errors, []);
+  });
+
+  test('the block at 390×844: everything in it inside the window, screenshots', async () => {
+    await b.page.setViewportSize({ width: 390, height: 844 });
+    await openEntry('zpk');
+    const out = await b.page.evaluate(() => {
+      const box = document.getElementById('entry-box').getBoundingClientRect();
+      return [...document.querySelectorAll('#entry-box *')].filter((e) => { const r = e.getBoundingClientRect(); return r.width > 0 && (r.right > box.right + 0.5 || r.left < box.left - 0.5); })
+        .map((e) => e.id || e.tagName).concat(box.right > document.documentElement.clientWidth ? ['#entry-box itself'] : []);
+    });
+    assert.deepEqual(out, [], 'outside the block or the window');
+    await b.page.locator('#entry-box').screenshot({ path: join(artifacts, 'entry-phone.png') });
+    await b.page.setViewportSize({ width: 1366, height: 768 });
     assert.deepEqual(b.log.errors, []);
     assert.deepEqual(b.log.requests, []);
   });

@@ -1,7 +1,7 @@
 // Wires the page together: the state, the controls, the plot, the readout, the
 // region editor and the search pipeline. Everything the user types is kept (see state.js).
 import { $, debounce } from './dom.js';
-import { Engine, startEngine } from './engine.js';
+import { Engine, startEngine, runHeavy, runNow, responseError } from './engine.js';
 import { loadState, saveState, fromHash, toHash, hashGivesView, hasStoredState } from './state.js';
 import { showUnderline, syncMirror, checkExpression } from './expr-input.js';
 import { renderParams, functionInput } from './params.js';
@@ -17,6 +17,7 @@ import { setSymbols, refreshMarkerIcons } from './markers.js';
 import { demoList, demoState, fillExampleMenu, forgetExampleIfChanged } from './demos.js';
 import { rationalAnalysis, fitView } from './fit.js';
 import { installScripting, applyTransferState } from './scripting.js';
+import { attachEntryForms } from './entry-forms.js';
 
 const state = loadState();
 const ui = {
@@ -254,6 +255,27 @@ select.addEventListener('change', () => {
   // A rational example opens fitted to its poles and zeros.
   afterTyping.cancel();
   if (checkTyped()) fitToPoints().then(() => pipeline.autoSearchSoon());
+});
+
+// ---- entering f as a ratio of polynomials ----------------------------------------------------
+
+/** f written from the entry forms takes the path an example takes: a new function in the view
+ *  region, fitted to its poles and zeros, then searched. */
+function writeFunction(f, v) {
+  adopt({ f, var: v, infinity: false, region: Object.assign({}, state.region, { mode: 'view' }) });
+  afterTyping.cancel();
+  if (checkTyped()) fitToPoints().then(() => pipeline.autoSearchSoon());
+}
+attachEntryForms({
+  currentVar: () => state.var.trim() || 'z',
+  base: () => functionInput(state),
+  run: runHeavy,
+  check: (f, v) => {
+    if (!Engine.ready) return Engine.message || 'the computing core is still loading';
+    const err = responseError(runNow(Object.assign(functionInput(state), { f, var: v, task: 'evaluate', at: [[0.31, 0.17]] })));
+    return err ? err.message : null;
+  },
+  write: writeFunction,
 });
 
 // A link followed while the page is open (only the address hash changes).
