@@ -26,6 +26,7 @@ export function defaultState() {
     symbols: 'own',
     region: { mode: 'view', rect: [-3, 3, -3, 3], circle: [0, 0, 2] },
     autoFind: true,
+    trails: null, // pole trails for one parameter: {name, from, to, steps, shown} (trails.js)
   };
 }
 
@@ -51,6 +52,11 @@ export function sanitize(raw) {
   for (const k of ['modulus', 'phase', 'infinity', 'autoFind']) if (typeof raw[k] === 'boolean') s[k] = raw[k];
   if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
   if (raw.symbols === 'own' || raw.symbols === 'diagram') s.symbols = raw.symbols;
+  const t = raw.trails;
+  if (t && typeof t === 'object' && typeof t.name === 'string' && Number.isFinite(t.from) && Number.isFinite(t.to) && t.from !== t.to &&
+    Number.isInteger(t.steps) && t.steps >= 2 && t.steps <= 400) {
+    s.trails = { name: t.name.slice(0, 40), from: t.from, to: t.to, steps: t.steps, shown: t.shown !== false };
+  }
   const r = raw.region;
   if (r && typeof r === 'object') {
     if (['view', 'rect', 'circle'].includes(r.mode)) s.region.mode = r.mode;
