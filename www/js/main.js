@@ -1,7 +1,7 @@
 // Wires the page together: the state, the controls, the plot, the readout, the
 // region editor and the search pipeline. Everything the user types is kept (see state.js).
 import { $, debounce } from './dom.js';
-import { Engine, startEngine } from './engine.js';
+import { Engine, startEngine, runHeavy } from './engine.js';
 import { loadState, saveState, fromHash, toHash, hashGivesView, hasStoredState } from './state.js';
 import { showUnderline, syncMirror, checkExpression } from './expr-input.js';
 import { renderParams, functionInput } from './params.js';
@@ -11,9 +11,9 @@ import { createRegionEditor } from './region.js';
 import { createPipeline } from './pipeline.js';
 import { attachInverseSection } from './inverse.js';
 import { drawInverseChart } from './inverse-chart.js';
-import { attachTransferSection, redrawTransfer, runTransfer, transferOpen } from './transfer.js';
-import { runInverse } from './inverse.js';
-import { createPoleDrag } from './pole-drag.js';
+import { attachTransferSection, redrawTransfer, transferOpen, transferRequest, showTransfer } from './transfer.js';
+import { inverseRequest, showInverse, currentInverseSpan } from './inverse.js';
+import { createPoleDrag, liveTransferRequest, liveInverseRequest } from './pole-drag.js';
 import { createTrails } from './trails.js';
 import { drawWheelKey, fillMarkerKey } from './legend.js';
 import { setSymbols, refreshMarkerIcons } from './markers.js';
@@ -186,14 +186,39 @@ function liveUpdate() {
   syncMirror(ui.expr, ui.mirror);
   page.exprOk = true;
   liveLoop(live.plot, () => plot.renderLive());
-  if (transferOpen(page)) liveLoop(live.tf, () => runTransfer(page, functionInput(state)));
-  if (!ui.inv.box.hidden && ui.inv.box.open) liveLoop(live.inv, () => runInverse(page, functionInput(state)));
+  if (transferOpen(page)) liveLoop(live.tf, liveTransfer);
+  if (!ui.inv.box.hidden && ui.inv.box.open) liveLoop(live.inv, liveInverse);
   trails.changed();
+}
+
+/** One live transfer reading: the section's request on thinned grids (pole-drag.js); dropped
+ *  when the change was completed meanwhile (the search's own reading wins). */
+async function liveTransfer() {
+  const previous = page.results && page.results.transfer_function;
+  if (previous && !live.tfPrevious) live.tfPrevious = previous;
+  const request = liveTransferRequest(transferRequest(functionInput(state), ui.tf), live.tfPrevious);
+  const resp = await runHeavy(request);
+  if (!live.stale) return false;
+  showTransfer(ui.tf, request, resp);
+  return true;
+}
+
+/** One live inverse transform (thinned times, pole-drag.js); dropped like liveTransfer. */
+async function liveInverse() {
+  const base = functionInput(state);
+  const span = currentInverseSpan(page, base.var);
+  if (!span) return false;
+  const request = liveInverseRequest(inverseRequest(base, span, page.found.items));
+  const resp = await runHeavy(request);
+  if (!live.stale) return false;
+  showInverse(ui.inv, request, resp);
+  return true;
 }
 
 /** The change is complete (a drag let go, a slider released, an undo): check and search now. */
 function commitNow() {
   live.stale = false;
+  live.tfPrevious = null;
   forgetExampleIfChanged(state);
   ui.fitNote.hidden = true;
   pipeline.markStale();

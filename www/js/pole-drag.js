@@ -232,3 +232,41 @@ export function createPoleDrag(page, hooks) {
 
   return { prepare, start, move, end, undo, forget, get active() { return drag.active; }, get undoDepth() { return drag.undo.length; } };
 }
+
+/** At most this many frequencies and step times in a live transfer request (the full grids
+ *  come back with the search on release). */
+export const LIVE_FREQUENCIES = 160;
+export const LIVE_TIMES = 120;
+
+/** Every k-th value of `xs` (the first and last kept) so that at most `n` remain. */
+function thin(xs, n) {
+  if (!Array.isArray(xs) || xs.length <= n) return xs;
+  const out = [];
+  const step = (xs.length - 1) / (n - 1);
+  for (let i = 0; i < n; i++) out.push(xs[Math.round(i * step)]);
+  return out;
+}
+
+/** The transfer request for a live frame: `request` (transfer.js transferRequest) on the grids of
+ *  the last full answer `previous`, thinned (the axes stay put while dragging and the core's
+ *  work drops with the number of points). Unchanged when there is no previous answer. */
+export function liveTransferRequest(request, previous) {
+  const out = Object.assign({}, request);
+  const fr = previous && previous.frequency_response;
+  if (fr && Array.isArray(fr.omega)) {
+    const om = thin(fr.omega.filter((w) => Number.isFinite(w) && w > 0), LIVE_FREQUENCIES);
+    if (om.length >= 2) out.omega = om;
+  }
+  const st = previous && previous.step;
+  if (st && Array.isArray(st.t) && st.t.length >= 2) out.t = thin(st.t, LIVE_TIMES);
+  return out;
+}
+
+/** At most this many times in a live inverse Laplace request (inverse.js samples up to 4000). */
+export const LIVE_INVERSE_TIMES = 60;
+
+/** The inverse-transform request for a live frame: its times thinned (x[n] of z is kept whole). */
+export function liveInverseRequest(request) {
+  if (!Array.isArray(request.t)) return request;
+  return Object.assign({}, request, { t: thin(request.t, LIVE_INVERSE_TIMES) });
+}
