@@ -179,6 +179,7 @@ function liveUpdate() {
     pipeline.markStale();
     plot.markers = keep;
     live.stale = true;
+    ui.findStatus.textContent = 'Changing: the search runs once you let go.';
   }
   forgetExampleIfChanged(state);
   persist();
