@@ -186,7 +186,13 @@ export function createTrails(page, hooks) {
 
   return {
     /** The parameters or the function changed. */
-    changed() { fill(); if (state.trails) refreshSoon(); },
+    changed() {
+      fill();
+      if (!state.trails) return;
+      const t = page.plot.trails;
+      if (t && t.name === state.trails.name) { t.current = currentValue(t.name); page.plot.draw(); } // the ring follows at once
+      refreshSoon();
+    },
     /** A new state was taken over (an example, a link). */
     adopted() { key = ''; ui.from.value = ''; fill(); if (state.trails) refreshSoon(); else clear(); },
     refresh,

@@ -190,8 +190,13 @@ export function drawTrails(plot) {
       const first = pts.findIndex(Boolean);
       let last = -1;
       pts.forEach((q, i) => { if (q) last = i; });
-      if (first >= 0) label(`${t.name}=${fmt(t.values[first])}`, pts[first][0], pts[first][1]);
-      if (last > first) label(`${t.name}=${fmt(t.values[last])}`, pts[last][0], pts[last][1]);
+      // a root that does not move (its path within 3 pixels) gets no labels: the marker says where it is
+      const drawn = pts.filter(Boolean);
+      const extent = drawn.length ? Math.max(...drawn.map((q) => Math.hypot(q[0] - drawn[0][0], q[1] - drawn[0][1]))) : 0;
+      if (extent > 3) {
+        if (first >= 0) label(`${t.name}=${fmt(t.values[first])}`, pts[first][0], pts[first][1]);
+        if (last > first) label(`${t.name}=${fmt(t.values[last])}`, pts[last][0], pts[last][1]);
+      }
       // the current value
       if (Number.isFinite(t.current)) {
         const i = t.values.findIndex((v, j) => j + 1 < t.values.length && (v - t.current) * (t.values[j + 1] - t.current) <= 0);
