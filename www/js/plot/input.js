@@ -3,7 +3,7 @@
 // did not move picks the nearest marker; the pointer's plane point goes to the readout.
 // A marker the page lets move (hooks.onMarkerDragStart) is dragged instead of the view.
 import { insidePlot, toPlane } from './view.js';
-import { markerAt } from './overlays.js';
+import { markerAt, markerScreenPoint } from './overlays.js';
 
 /** Listen on `plot.canvas`. `viewChanged()` after every pan; `hooks.onPointer(point | null)`,
  *  `hooks.onMarkerClick(index)`; optional `hooks.onMarkerDragStart(index)` (true: move it),
@@ -26,7 +26,12 @@ export function attachInput(plot, viewChanged, hooks) {
     moved = false;
     if (pointers.size === 0 && hooks.onMarkerDragStart) {
       const index = markerAt(plot, pos);
-      if (index >= 0 && hooks.onMarkerDragStart(index)) { markerDrag = { id: event.pointerId, index, pos }; return; }
+      if (index >= 0 && hooks.onMarkerDragStart(index)) {
+        // the root keeps its offset from the pointer (a marker grabbed off centre does not jump)
+        const at = markerScreenPoint(plot, plot.markers[index]) || pos;
+        markerDrag = { id: event.pointerId, index, pos, offset: [at[0] - pos[0], at[1] - pos[1]] };
+        return;
+      }
     }
     if (markerDrag) return;
     pointers.set(event.pointerId, pos);
@@ -41,7 +46,7 @@ export function attachInput(plot, viewChanged, hooks) {
     const pos = localPos(event);
     if (markerDrag && markerDrag.id === event.pointerId) {
       if (Math.abs(pos[0] - markerDrag.pos[0]) + Math.abs(pos[1] - markerDrag.pos[1]) > 2) markerDrag.moved = true;
-      if (markerDrag.moved) hooks.onMarkerDrag(toPlane(plot, pos[0], pos[1]));
+      if (markerDrag.moved) hooks.onMarkerDrag(toPlane(plot, pos[0] + markerDrag.offset[0], pos[1] + markerDrag.offset[1]));
     } else if (pointers.has(event.pointerId)) {
       pointers.set(event.pointerId, pos);
       if (pointers.size === 2 && pinchStart) {

@@ -68,7 +68,7 @@ export function drawRegion(plot) {
 }
 
 /** Where marker `m` sits on the canvas, or null (the origin has no image in the view around infinity). */
-function markerScreenPoint(plot, m) {
+export function markerScreenPoint(plot, m) {
   let p = m.at;
   if (plot.infinityMode) {
     if (p[0] === 0 && p[1] === 0) return null;
