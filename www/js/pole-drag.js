@@ -35,7 +35,8 @@ function quadratic(v, p) {
   const a = Number(dragNum(-2 * p[0]));
   const b = Number(dragNum(p[0] * p[0] + p[1] * p[1]));
   let s = `${v}^2`;
-  if (a !== 0) s += a < 0 ? ` - ${dragNum(-a)}*${v}` : ` + ${dragNum(a)}*${v}`;
+  const times = (c) => (c === 1 ? v : `${dragNum(c)}*${v}`);
+  if (a !== 0) s += a < 0 ? ` - ${times(-a)}` : ` + ${times(a)}`;
   if (b !== 0) s += b < 0 ? ` - ${dragNum(-b)}` : ` + ${dragNum(b)}`;
   return `(${s})`;
 }
@@ -66,6 +67,22 @@ function sideText(v, roots, real) {
   return parts.join('*');
 }
 
+/** How many factors sideText writes for `roots`. */
+function sideCount(roots, real) {
+  const used = new Set();
+  let n = 0;
+  roots.forEach((r, i) => {
+    if (used.has(i)) return;
+    used.add(i);
+    n++;
+    if (real && !isReal(r.at)) {
+      const j = roots.findIndex((q, k) => !used.has(k) && q.order === r.order && Math.abs(q.at[0] - r.at[0]) + Math.abs(q.at[1] + r.at[1]) <= 1e-6 * Math.max(1, Math.hypot(...r.at)));
+      if (j >= 0) used.add(j);
+    }
+  });
+  return n;
+}
+
 /** f written as k·Π(v − z)^m / Π(v − p)^n for the model {k: [re, im], zeros, poles, real}. */
 export function zpkText(v, model) {
   const real = model.real;
@@ -79,7 +96,8 @@ export function zpkText(v, model) {
   else if (Number(dragNum(k[0])) === -1 && Number(dragNum(k[1])) === 0) top = `-${num0}`;
   else top = `${kText}*${num0}`;
   if (!den) return top;
-  return `${top}/${den.includes('*') ? `(${den})` : den}`;
+  // one factor needs no more brackets ("1/(s + 1)", "1/(s + 1)^2", "1/s"); a product does
+  return `${top}/${den.includes('*') && sideCount(model.poles, real) > 1 ? `(${den})` : den}`;
 }
 
 /** Roots with their multiplicities from a partial_fractions answer (the highest power at a point). */
