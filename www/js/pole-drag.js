@@ -228,8 +228,8 @@ export function createPoleDrag(page, hooks) {
     const note = document.getElementById('drag-note');
     if (note) {
       note.hidden = drag.undo.length === 0;
-      note.textContent = 'f was rewritten as k·Π(zeros)/Π(poles) with the moved root (6 significant digits' +
-        (state.params.length ? '; parameters replaced by their values' : '') + ').';
+      note.textContent = 'f was rewritten from its gain, zeros and poles with the moved root (numbers to 6 significant digits' +
+        (state.params.length ? '; parameters replaced by their values' : '') + '). Undo the drag brings back the f before it.';
     }
   }
 
