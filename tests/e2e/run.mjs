@@ -814,7 +814,36 @@ describe('moving poles and zeros, pole trails', () => {
     assert.deepEqual(b.log.errors, []);
   });
 
+  test('with the frequency-response section open, the answer after release is for the dropped pole (live answers dropped)', async () => {
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: '1/((s+1)*(s^2+0.4*s+4))', var: 's', params: {}, panels: { transfer: true } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    await b.page.waitForFunction(() => document.getElementById('plot').dataset.draggable === 'true', null, { timeout: 20000 });
+    const m = await plotMap(b.page);
+    await b.page.evaluate(() => performance.clearMarks());
+    const drop = m.toPx([-0.5, 1.5]);
+    // s^2 + 0.4 s + 4 = 0: s = −0.2 ± i√3.96 (quadratic formula, by hand)
+    await dragMouse(b.page, m.toPx([-0.2, Math.sqrt(3.96)]), drop, 30);
+    const tf = (await b.page.evaluate(() => window.residuary.settled())).transfer_function;
+    const marks = await b.page.evaluate(() => performance.getEntriesByType('mark').map((e) => e.name));
+    assert.ok(marks.some((n) => n.startsWith('residuary-live-transfer-')), 'the section followed the drag');
+    assert.ok(tf && tf.stale === false, 'a current reading');
+    const want = m.toPlane(drop);
+    const at = tf.poles.map((p) => p.at);
+    assert.equal(at.length, 3);
+    for (const w of [want, [want[0], -want[1]], [-1, 0]]) {
+      assert.ok(at.some((p) => Math.hypot(p[0] - w[0], p[1] - w[1]) <= m.scale), `transfer_function poles ${JSON.stringify(at)} lack ${w}`);
+    }
+    // the full grids are back after release (the live requests used thinned ones)
+    assert.ok(tf.frequency_response.omega.length > 160, `${tf.frequency_response.omega.length} frequencies`);
+    assert.equal(await b.page.getAttribute('#tf-box', 'data-state'), 'done');
+    // and the chart shows that answer, not a late live one on the thinned grid
+    const shown = JSON.parse(await b.page.getAttribute('#tf-chart', 'data-points'));
+    assert.equal(shown.omega.length, tf.frequency_response.omega.length);
+  });
+
   test('a parameter slider moving takes the live path (coarse plot), the search follows on release', async () => {
+    await load(b.page);
     const out = await scriptSet(b.page, { f: '1/(s^2 + k*s + 1)', var: 's', params: { k: 1 } });
     assert.ok(out.ok, JSON.stringify(out.error));
     await b.page.evaluate(() => performance.clearMarks());
@@ -837,6 +866,7 @@ describe('moving poles and zeros, pole trails', () => {
   });
 
   test('trails of 1/(s^2 + k s + 1) for k from 0 to 4: on the plot, kept in the link, hidden by the toggle', async () => {
+    await load(b.page);
     const out = await scriptSet(b.page, { f: '1/(s^2 + k*s + 1)', var: 's', params: { k: 1 } });
     assert.ok(out.ok, JSON.stringify(out.error));
     assert.equal(await b.page.isVisible('#trails-box'), true);
