@@ -1048,6 +1048,177 @@ describe('the page with the real core', () => {
   });
 });
 
+describe('moving poles and zeros, pole trails', () => {
+  let b;
+  before(async () => { b = await openBrowser(); });
+  after(async () => { if (b) await b.close(); });
+
+  /** The plot's transform (plot/view.js: MARGIN left 54, right 10, top 8) from the state's view. */
+  async function plotMap(page) {
+    const m = await page.evaluate(() => {
+      const r = document.getElementById('plot').getBoundingClientRect();
+      const v = window.residuary.state().view;
+      return { left: r.left + 54, top: r.top + 8, x0: v[0], y1: v[3], scale: (v[1] - v[0]) / (r.width - 54 - 10) };
+    });
+    m.toPx = (p) => [m.left + (p[0] - m.x0) / m.scale, m.top + (m.y1 - p[1]) / m.scale];
+    m.toPlane = (q) => [m.x0 + (q[0] - m.left) * m.scale, m.y1 - (q[1] - m.top) * m.scale];
+    return m;
+  }
+
+  async function dragMouse(page, from, to, frames = 20) {
+    await page.mouse.move(from[0], from[1]);
+    await page.mouse.down();
+    for (let i = 1; i <= frames; i++) {
+      await page.mouse.move(from[0] + ((to[0] - from[0]) * i) / frames, from[1] + ((to[1] - from[1]) * i) / frames);
+      await page.waitForTimeout(10);
+    }
+    await page.mouse.up();
+  }
+
+  const poleList = (page) => page.evaluate(() => window.residuary.results().singularities.poles.map((p) => p.at));
+
+  test('dragging a complex pole moves it and its mirror, the real pole stays; Undo and Ctrl+Z restore the typed f', async () => {
+    const typed = '1/((s+1)*(s^2+0.4*s+4))';
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: typed, var: 's', params: {} });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    await b.page.waitForFunction(() => document.getElementById('plot').dataset.draggable === 'true', null, { timeout: 20000 });
+    // s^2 + 0.4 s + 4 = 0: s = −0.2 ± i√3.96 (quadratic formula, by hand)
+    const upper = [-0.2, Math.sqrt(3.96)];
+    const m = await plotMap(b.page);
+    const viewBefore = (await scriptState(b.page)).view;
+    const drop = m.toPx([-0.8, 1.2]);
+    await dragMouse(b.page, m.toPx(upper), drop);
+    await b.page.evaluate(() => window.residuary.settled());
+    assert.deepEqual((await scriptState(b.page)).view, viewBefore, 'a marker drag must not pan the view');
+    const f = (await scriptState(b.page)).f;
+    assert.match(f, /\(s \+ 1\)/);
+    assert.match(f, /s\^2 \+ [\d.]+\*s \+ [\d.]+/, `a real quadratic for the pair: ${f}`);
+    const want = m.toPlane(drop);
+    const poles = await poleList(b.page);
+    assert.equal(poles.length, 3);
+    const near = (p, q, tol) => Math.hypot(p[0] - q[0], p[1] - q[1]) <= tol;
+    assert.ok(poles.some((p) => near(p, want, m.scale)), `no pole within a pixel of ${want}: ${JSON.stringify(poles)}`);
+    assert.ok(poles.some((p) => near(p, [want[0], -want[1]], m.scale)), `the mirror pole: ${JSON.stringify(poles)}`);
+    assert.ok(poles.some((p) => near(p, [-1, 0], 1e-9)), `the real pole −1 unchanged: ${JSON.stringify(poles)}`);
+    await b.page.screenshot({ path: join(artifacts, 'pole-drag.png') });
+    // Undo brings back exactly what was typed
+    assert.equal(await b.page.isVisible('#drag-undo'), true);
+    await b.page.click('#drag-undo');
+    await b.page.evaluate(() => window.residuary.settled());
+    assert.equal((await scriptState(b.page)).f, typed);
+    assert.equal(await b.page.inputValue('#expr'), typed);
+    // the real pole dragged: it stays on the real axis; Ctrl+Z on the plot undoes it
+    await b.page.waitForFunction(() => document.getElementById('plot').dataset.draggable === 'true', null, { timeout: 20000 });
+    const m2 = await plotMap(b.page);
+    const drop2 = m2.toPx([-2, 0.6]);
+    await dragMouse(b.page, m2.toPx([-1, 0]), drop2);
+    await b.page.evaluate(() => window.residuary.settled());
+    const p2 = await poleList(b.page);
+    const x2 = m2.toPlane(drop2)[0];
+    assert.ok(p2.some((p) => Math.abs(p[0] - x2) <= m2.scale && p[1] === 0), `the real pole moved along the axis to ${x2}: ${JSON.stringify(p2)}`);
+    assert.ok(p2.some((p) => near(p, upper, 1e-9)), `the pair unchanged: ${JSON.stringify(p2)}`);
+    await b.page.focus('#plot');
+    await b.page.keyboard.press('Control+z');
+    await b.page.evaluate(() => window.residuary.settled());
+    assert.equal((await scriptState(b.page)).f, typed);
+    assert.deepEqual(b.log.errors, []);
+  });
+
+  test('with the frequency-response section open, the answer after release is for the dropped pole (live answers dropped)', async () => {
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: '1/((s+1)*(s^2+0.4*s+4))', var: 's', params: {}, panels: { transfer: true } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    await b.page.waitForFunction(() => document.getElementById('plot').dataset.draggable === 'true', null, { timeout: 20000 });
+    const m = await plotMap(b.page);
+    await b.page.evaluate(() => performance.clearMarks());
+    const drop = m.toPx([-0.5, 1.5]);
+    // s^2 + 0.4 s + 4 = 0: s = −0.2 ± i√3.96 (quadratic formula, by hand)
+    await dragMouse(b.page, m.toPx([-0.2, Math.sqrt(3.96)]), drop, 30);
+    const tf = (await b.page.evaluate(() => window.residuary.settled())).transfer_function;
+    const marks = await b.page.evaluate(() => performance.getEntriesByType('mark').map((e) => e.name));
+    assert.ok(marks.some((n) => n.startsWith('residuary-live-transfer-')), 'the section followed the drag');
+    assert.ok(tf && tf.stale === false, 'a current reading');
+    const want = m.toPlane(drop);
+    const at = tf.poles.map((p) => p.at);
+    assert.equal(at.length, 3);
+    for (const w of [want, [want[0], -want[1]], [-1, 0]]) {
+      assert.ok(at.some((p) => Math.hypot(p[0] - w[0], p[1] - w[1]) <= m.scale), `transfer_function poles ${JSON.stringify(at)} lack ${w}`);
+    }
+    // the full grids are back after release (the live requests used thinned ones)
+    assert.ok(tf.frequency_response.omega.length > 160, `${tf.frequency_response.omega.length} frequencies`);
+    assert.equal(await b.page.getAttribute('#tf-box', 'data-state'), 'done');
+    // and the chart shows that answer, not a late live one on the thinned grid
+    const shown = JSON.parse(await b.page.getAttribute('#tf-chart', 'data-points'));
+    assert.equal(shown.omega.length, tf.frequency_response.omega.length);
+  });
+
+  test('a parameter slider moving takes the live path (coarse plot), the search follows on release', async () => {
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: '1/(s^2 + k*s + 1)', var: 's', params: { k: 1 } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    await b.page.evaluate(() => performance.clearMarks());
+    await b.page.evaluate(async () => {
+      const slider = document.querySelector('.p-slider');
+      for (const v of [1.2, 1.4, 1.6]) {
+        slider.value = String(v);
+        slider.dispatchEvent(new Event('input', { bubbles: true }));
+        await new Promise((r) => requestAnimationFrame(r));
+      }
+    });
+    await b.page.waitForFunction(() => performance.getEntriesByType('mark').some((e) => e.name.startsWith('residuary-live-plot-')), null, { timeout: 20000 });
+    await b.page.evaluate(() => document.querySelector('.p-slider').dispatchEvent(new Event('change', { bubbles: true })));
+    await b.page.evaluate(() => window.residuary.settled());
+    const k = (await scriptState(b.page)).params.k;
+    assert.ok(Math.abs(k - 1.6) < 1e-9, `k = ${k}`);
+    // s^2 + 1.6 s + 1 = 0: s = −0.8 ± 0.6i (quadratic formula, by hand)
+    const poles = await poleList(b.page);
+    for (const want of [[-0.8, 0.6], [-0.8, -0.6]]) assert.ok(poles.some((p) => Math.hypot(p[0] - want[0], p[1] - want[1]) < 1e-9), JSON.stringify(poles));
+  });
+
+  test('trails of 1/(s^2 + k s + 1) for k from 0 to 4: on the plot, kept in the link, hidden by the toggle', async () => {
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: '1/(s^2 + k*s + 1)', var: 's', params: { k: 1 } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    assert.equal(await b.page.isVisible('#trails-box'), true);
+    assert.equal(await b.page.inputValue('#trail-param'), 'k');
+    await b.page.fill('#trail-from', '0');
+    await b.page.fill('#trail-to', '4');
+    await b.page.fill('#trail-steps', '41');
+    const before = await canvasInfo(b.page);
+    await b.page.click('#trail-draw');
+    await b.page.waitForFunction(() => document.getElementById('plot').dataset.trailsState === 'done', null, { timeout: 30000 });
+    const d = await b.page.evaluate(() => JSON.parse(document.getElementById('plot').dataset.trails));
+    assert.equal(d.name, 'k');
+    assert.equal(d.values.length, 41);
+    assert.equal(d.poles.length, 2);
+    assert.equal(d.zeros.length, 0);
+    // roots of s^2 + k s + 1: (−k ± √(k² − 4))/2 (quadratic formula, by hand); at k = 1: −1/2 ± i√3/2
+    const i1 = d.values.findIndex((v) => Math.abs(v - 1) < 1e-12);
+    assert.ok(i1 >= 0, 'k = 1 is a step');
+    const at1 = d.poles.map((t) => t[i1]).sort((p, q) => p[1] - q[1]);
+    assert.ok(Math.abs(at1[0][0] + 0.5) < 1e-9 && Math.abs(at1[0][1] + Math.sqrt(3) / 2) < 1e-9, JSON.stringify(at1));
+    assert.ok(Math.abs(at1[1][0] + 0.5) < 1e-9 && Math.abs(at1[1][1] - Math.sqrt(3) / 2) < 1e-9, JSON.stringify(at1));
+    d.values.forEach((k, i) => {
+      const disc = k * k - 4;
+      const want = disc < 0 ? [[-k / 2, -Math.sqrt(-disc) / 2], [-k / 2, Math.sqrt(-disc) / 2]] : [[(-k - Math.sqrt(disc)) / 2, 0], [(-k + Math.sqrt(disc)) / 2, 0]];
+      for (const w of want) assert.ok(d.poles.some((t) => t[i] && Math.hypot(t[i][0] - w[0], t[i][1] - w[1]) < 1e-6), `k = ${k}: ${JSON.stringify(d.poles.map((t) => t[i]))}`);
+    });
+    // each trail a continuous path: no jump larger than the biggest step of the closed form (k = 2 is a double root)
+    for (const t of d.poles) for (let i = 1; i < t.length; i++) assert.ok(Math.hypot(t[i][0] - t[i - 1][0], t[i][1] - t[i - 1][1]) < 0.5, `jump at step ${i}`);
+    const drawn = await canvasInfo(b.page);
+    assert.notEqual(drawn.hash, before.hash, 'the trails change the picture');
+    await b.page.screenshot({ path: join(artifacts, 'pole-trails.png') });
+    // kept in the state (the link)
+    await b.page.waitForFunction(() => decodeURIComponent(location.hash).includes('"trails":{"name":"k","from":0,"to":4,"steps":41,"shown":true}'), null, { timeout: 5000 });
+    await b.page.uncheck('#trail-show');
+    await b.page.waitForFunction(() => decodeURIComponent(location.hash).includes('"shown":false'), null, { timeout: 5000 });
+    const hidden = await canvasInfo(b.page);
+    assert.notEqual(hidden.hash, drawn.hash, 'hiding the trails changes the picture');
+    assert.deepEqual(b.log.errors, []);
+  });
+});
+
 describe('the page inside an iframe', () => {
   let b, dir;
   before(async () => {

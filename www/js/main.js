@@ -11,7 +11,10 @@ import { createRegionEditor } from './region.js';
 import { createPipeline } from './pipeline.js';
 import { attachInverseSection } from './inverse.js';
 import { drawInverseChart } from './inverse-chart.js';
-import { attachTransferSection, redrawTransfer } from './transfer.js';
+import { attachTransferSection, redrawTransfer, transferOpen, transferRequest, showTransfer } from './transfer.js';
+import { inverseRequest, showInverse, currentInverseSpan } from './inverse.js';
+import { createPoleDrag, liveTransferRequest, liveInverseRequest } from './pole-drag.js';
+import { createTrails } from './trails.js';
 import { drawWheelKey, fillMarkerKey } from './legend.js';
 import { setSymbols, refreshMarkerIcons } from './markers.js';
 import { demoList, demoState, fillExampleMenu, forgetExampleIfChanged } from './demos.js';
@@ -71,6 +74,10 @@ const plot = createPlot(ui.canvas, {
   },
   onPointer: (p) => readoutAt(p),
   onMarkerClick: (i) => pipeline.pick(i),
+  onMarkerDragStart: (i) => { const ok = poleDrag.start(i); if (ok) ui.canvas.dataset.dragging = 'true'; return ok; },
+  onMarkerDrag: (p) => poleDrag.move(p),
+  onMarkerDragEnd: () => { delete ui.canvas.dataset.dragging; poleDrag.end(); },
+  onUndo: () => poleDrag.undo(),
   onStatus: (what) => {
     ui.plotStatus.textContent = what === 'drawing' ? 'Drawing…' : what === 'error' ? 'Plot failed (see the message on the plot).' : '';
     ui.canvas.dataset.status = what;
@@ -79,7 +86,7 @@ const plot = createPlot(ui.canvas, {
 page.plot = plot;
 const readoutAt = createReadout(page);
 const region = createRegionEditor(page, () => { pipeline.regionMoved(); plot.draw(); persist(); pipeline.autoSearchSoon(); });
-const pipeline = createPipeline(page, { contour: () => region.contour(), describePlot: () => describePlot() });
+const pipeline = createPipeline(page, { contour: () => region.contour(), describePlot: () => { describePlot(); poleDrag.prepare(); } });
 attachInverseSection(page);
 attachTransferSection(page);
 
@@ -145,7 +152,95 @@ async function fitToPoints() {
   return true;
 }
 
-function inputsChanged() {
+// ---- the live path: a pole or zero being dragged, a parameter slider moving --------------------
+// Every view follows the newest f: the coarse phase plot, the transfer section and the inverse
+// transform when open. One request of each kind is in flight at a time; when it answers, the
+// newest f (if it changed meanwhile) goes next, so stale states are skipped. The full search runs
+// once on release. performance marks (residuary-live-f/plot/transfer-<n>) time it (bench/page-drag.mjs).
+const live = { serial: 0, stale: false, plot: { busy: false, again: false }, tf: { busy: false, again: false }, inv: { busy: false, again: false } };
+
+async function liveLoop(slot, work) {
+  if (slot.busy) { slot.again = true; return; }
+  slot.busy = true;
+  do {
+    slot.again = false;
+    const serial = live.serial;
+    if (await work(serial) !== false) performance.mark(`residuary-live-${slot.name}-${serial}`);
+  } while (slot.again);
+  slot.busy = false;
+}
+live.plot.name = 'plot'; live.tf.name = 'transfer'; live.inv.name = 'inverse';
+
+function liveUpdate() {
+  live.serial++;
+  performance.mark(`residuary-live-f-${live.serial}`);
+  if (!live.stale) {
+    // the table and every result no longer belong to f; the markers being moved stay
+    const keep = plot.markers;
+    pipeline.markStale();
+    plot.markers = keep;
+    live.stale = true;
+    ui.findStatus.textContent = 'Changing: the search runs once you let go.';
+  }
+  forgetExampleIfChanged(state);
+  persist();
+  showUnderline(ui.mirror, state.f, null);
+  syncMirror(ui.expr, ui.mirror);
+  page.exprOk = true;
+  liveLoop(live.plot, () => plot.renderLive());
+  if (transferOpen(page)) liveLoop(live.tf, liveTransfer);
+  if (!ui.inv.box.hidden && ui.inv.box.open) liveLoop(live.inv, liveInverse);
+  trails.changed();
+}
+
+/** One live transfer reading: the section's request on thinned grids (pole-drag.js); dropped
+ *  when the change was completed meanwhile (the search's own reading wins). */
+async function liveTransfer() {
+  const previous = page.results && page.results.transfer_function;
+  if (previous && !live.tfPrevious) live.tfPrevious = previous;
+  const request = liveTransferRequest(transferRequest(functionInput(state), ui.tf), live.tfPrevious);
+  const resp = await runHeavy(request);
+  if (!live.stale) return false;
+  showTransfer(ui.tf, request, resp);
+  return true;
+}
+
+/** One live inverse transform (thinned times, pole-drag.js); dropped like liveTransfer. */
+async function liveInverse() {
+  const base = functionInput(state);
+  const span = currentInverseSpan(page, base.var);
+  if (!span) return false;
+  const request = liveInverseRequest(inverseRequest(base, span, page.found.items));
+  const resp = await runHeavy(request);
+  if (!live.stale) return false;
+  showInverse(ui.inv, request, resp);
+  return true;
+}
+
+/** The change is complete (a drag let go, a slider released, an undo): check and search now. */
+function commitNow() {
+  live.stale = false;
+  live.tfPrevious = null;
+  forgetExampleIfChanged(state);
+  ui.fitNote.hidden = true;
+  pipeline.markStale();
+  persist();
+  showUnderline(ui.mirror, state.f, null);
+  syncMirror(ui.expr, ui.mirror);
+  afterTyping.cancel();
+  if (checkTyped()) pipeline.find();
+  trails.changed();
+}
+
+const poleDrag = createPoleDrag(page, { liveChanged: liveUpdate, released: commitNow, undone: commitNow });
+const trails = createTrails(page, { persist: () => persist() });
+$('drag-undo').addEventListener('click', () => poleDrag.undo());
+
+function inputsChanged(how) {
+  if (how && how.live) { liveUpdate(); return; }
+  if (how && how.released) { commitNow(); return; }
+  live.stale = false;
+  trails.changed();
   forgetExampleIfChanged(state);
   ui.fitNote.hidden = true;
   pipeline.markStale();
@@ -175,7 +270,7 @@ function applyStateToControls() {
 
 // ---- the controls --------------------------------------------------------------------------
 
-ui.expr.addEventListener('input', () => { state.f = ui.expr.value; inputsChanged(); });
+ui.expr.addEventListener('input', () => { state.f = ui.expr.value; poleDrag.forget(); inputsChanged(); });
 ui.expr.addEventListener('scroll', () => { ui.mirror.scrollTop = ui.expr.scrollTop; });
 ui.varName.addEventListener('input', () => { state.var = ui.varName.value; applyAxisName(); plot.draw(); inputsChanged(); });
 $('add-param').addEventListener('click', () => {
@@ -240,6 +335,8 @@ function adopt(next) {
   plot.coarse = null; plot.fine = null;
   plot.markers = []; plot.selected = -1;
   ui.detail.box.hidden = true;
+  poleDrag.forget();
+  trails.adopted();
   describePlot();
   inputsChanged();
 }
@@ -308,6 +405,7 @@ const started = startEngine().then(async () => {
   $('version').textContent = Engine.ready ? `Core version ${Engine.version}.` : '';
   drawWheelKey($('wheel'), state.wheel);
   checkTyped();
+  trails.changed();
   if (page.exprOk && fitOnOpen) await fitToPoints();
   if (page.exprOk && state.autoFind) pipeline.find();
   document.body.dataset.workers = String(Engine.usesWorkers);

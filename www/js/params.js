@@ -48,7 +48,8 @@ export function functionInput(state) {
   return { f: state.f, var: state.var.trim() || 'z', params };
 }
 
-/** Draw the rows into `container`; `onChange()` fires on every edit. */
+/** Draw the rows into `container`; `onChange(how)` fires on every edit (`how` for the slider:
+ *  {live: true} while it moves, {released: true} when it is let go; undefined otherwise). */
 export function renderParams(container, rows, onChange) {
   container.textContent = '';
   if (rows.length === 0) {
@@ -83,8 +84,9 @@ export function renderParams(container, rows, onChange) {
       value.value = z[1] === 0 ? String(re) : `${re}${z[1] < 0 ? '-' : '+'}${Math.abs(z[1])}i`;
       p.value = value.value;
       markValidity();
-      onChange();
+      onChange({ live: true }); // while the slider moves: the live path (main.js)
     });
+    slider.addEventListener('change', () => onChange({ released: true })); // let go: the full search
     remove.addEventListener('click', () => {
       rows.splice(index, 1);
       renderParams(container, rows, onChange);

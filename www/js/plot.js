@@ -4,9 +4,9 @@
 // (progressive rendering through the core), plot/axes.js, plot/overlays.js (unit
 // circle, region, markers, message) and plot/input.js (pan, zoom, pick).
 import { viewBox, toPlane, setView, zoomAbout, fitCanvas, MARGIN } from './plot/view.js';
-import { drawLayer, renderPlot, scheduleRender } from './plot/render.js';
+import { drawLayer, renderPlot, renderLive, scheduleRender } from './plot/render.js';
 import { drawAxes } from './plot/axes.js';
-import { drawUnitCircle, drawRegion, drawMarkers, drawMessage } from './plot/overlays.js';
+import { drawUnitCircle, drawRegion, drawMarkers, drawMessage, drawTrails } from './plot/overlays.js';
 import { attachInput } from './plot/input.js';
 import { KIND_WORDS } from './markers.js';
 import { regionWords } from './region.js';
@@ -22,6 +22,7 @@ export function createPlot(canvas, hooks) {
     coarse: null, fine: null,        // {canvas, box:[x0,x1,y0,y1], rowsDone, rows}
     message: '', busy: false,
     markers: [], selected: -1, region: null, axisName: 'z',
+    trails: null,                    // pole trails to draw (trails.js), or null
     generation: 0, renderTimer: 0,
   };
 
@@ -34,6 +35,8 @@ export function createPlot(canvas, hooks) {
   plot.draw = () => drawPlot(plot);
   /** Ask the core for a new picture of the current view (coarse, then fine). */
   plot.render = () => renderPlot(plot, hooks);
+  /** A quick coarse picture while dragging (resolves true when drawn). */
+  plot.renderLive = () => renderLive(plot, hooks);
   /** Redraw soon (coalesces bursts of view changes). */
   plot.scheduleRender = (ms = 90) => scheduleRender(plot, ms);
 
@@ -71,6 +74,7 @@ function drawPlot(plot) {
   drawLayer(plot, plot.fine);
   drawUnitCircle(plot);
   drawRegion(plot);
+  drawTrails(plot);
   drawMarkers(plot);
   drawMessage(plot);
   ctx.restore();

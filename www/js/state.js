@@ -29,6 +29,7 @@ export function defaultState() {
     hz: false,           // the transfer section's frequency unit: Hz (true) or rad/s
     sample_period: 1,    // its sampling period T (z)
     point: [-1, 0],      // the point its encirclements are counted about
+    trails: null, // pole trails for one parameter: {name, from, to, steps, shown} (trails.js)
   };
 }
 
@@ -56,6 +57,11 @@ export function sanitize(raw) {
   if (Array.isArray(raw.point) && raw.point.length === 2 && raw.point.every(Number.isFinite)) s.point = raw.point.slice();
   if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
   if (raw.symbols === 'own' || raw.symbols === 'diagram') s.symbols = raw.symbols;
+  const t = raw.trails;
+  if (t && typeof t === 'object' && typeof t.name === 'string' && Number.isFinite(t.from) && Number.isFinite(t.to) && t.from !== t.to &&
+    Number.isInteger(t.steps) && t.steps >= 2 && t.steps <= 400) {
+    s.trails = { name: t.name.slice(0, 40), from: t.from, to: t.to, steps: t.steps, shown: t.shown !== false };
+  }
   const r = raw.region;
   if (r && typeof r === 'object') {
     if (['view', 'rect', 'circle'].includes(r.mode)) s.region.mode = r.mode;

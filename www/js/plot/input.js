@@ -1,15 +1,18 @@
 // Pointer, wheel and keyboard input on the plot: drag to pan, pinch or wheel to
 // zoom about the pointer, arrow keys and + − 0 from the keyboard; a click that
 // did not move picks the nearest marker; the pointer's plane point goes to the readout.
+// A marker the page lets move (hooks.onMarkerDragStart) is dragged instead of the view.
 import { insidePlot, toPlane } from './view.js';
-import { markerAt } from './overlays.js';
+import { markerAt, markerScreenPoint } from './overlays.js';
 
 /** Listen on `plot.canvas`. `viewChanged()` after every pan; `hooks.onPointer(point | null)`,
- *  `hooks.onMarkerClick(index)`. Zooming goes through plot.zoom and plot.reset. */
+ *  `hooks.onMarkerClick(index)`; optional `hooks.onMarkerDragStart(index)` (true: move it),
+ *  `hooks.onMarkerDrag(planePoint)`, `hooks.onMarkerDragEnd(moved)`, `hooks.onUndo()` (Ctrl+Z). Zooming goes through plot.zoom and plot.reset. */
 export function attachInput(plot, viewChanged, hooks) {
   const canvas = plot.canvas;
   const pointers = new Map();
   let dragStart = null, pinchStart = null, moved = false;
+  let markerDrag = null; // a marker being moved (hooks.onMarkerDragStart said yes): no panning
 
   function localPos(event) {
     const r = canvas.getBoundingClientRect();
@@ -20,8 +23,18 @@ export function attachInput(plot, viewChanged, hooks) {
     const pos = localPos(event);
     if (!insidePlot(plot, pos) && pointers.size === 0) return;
     canvas.setPointerCapture(event.pointerId);
-    pointers.set(event.pointerId, pos);
     moved = false;
+    if (pointers.size === 0 && hooks.onMarkerDragStart) {
+      const index = markerAt(plot, pos);
+      if (index >= 0 && hooks.onMarkerDragStart(index)) {
+        // the root keeps its offset from the pointer (a marker grabbed off centre does not jump)
+        const at = markerScreenPoint(plot, plot.markers[index]) || pos;
+        markerDrag = { id: event.pointerId, index, pos, offset: [at[0] - pos[0], at[1] - pos[1]] };
+        return;
+      }
+    }
+    if (markerDrag) return;
+    pointers.set(event.pointerId, pos);
     if (pointers.size === 1) dragStart = { pos, cx: plot.cx, cy: plot.cy };
     if (pointers.size === 2) {
       const [a, b] = [...pointers.values()];
@@ -31,7 +44,10 @@ export function attachInput(plot, viewChanged, hooks) {
 
   canvas.addEventListener('pointermove', (event) => {
     const pos = localPos(event);
-    if (pointers.has(event.pointerId)) {
+    if (markerDrag && markerDrag.id === event.pointerId) {
+      if (Math.abs(pos[0] - markerDrag.pos[0]) + Math.abs(pos[1] - markerDrag.pos[1]) > 2) markerDrag.moved = true;
+      if (markerDrag.moved) hooks.onMarkerDrag(toPlane(plot, pos[0] + markerDrag.offset[0], pos[1] + markerDrag.offset[1]));
+    } else if (pointers.has(event.pointerId)) {
       pointers.set(event.pointerId, pos);
       if (pointers.size === 2 && pinchStart) {
         const [a, b] = [...pointers.values()];
@@ -55,6 +71,13 @@ export function attachInput(plot, viewChanged, hooks) {
   });
 
   function endPointer(event) {
+    if (markerDrag && markerDrag.id === event.pointerId) {
+      const d = markerDrag;
+      markerDrag = null;
+      hooks.onMarkerDragEnd(d.moved);
+      if (!d.moved && event.type === 'pointerup' && hooks.onMarkerClick) hooks.onMarkerClick(d.index);
+      return;
+    }
     if (!pointers.has(event.pointerId)) return;
     const pos = pointers.get(event.pointerId);
     pointers.delete(event.pointerId);
@@ -86,6 +109,10 @@ export function attachInput(plot, viewChanged, hooks) {
 
   canvas.addEventListener('keydown', (event) => {
     const k = event.key;
+    if ((event.ctrlKey || event.metaKey) && (k === 'z' || k === 'Z') && hooks.onUndo) {
+      if (hooks.onUndo()) event.preventDefault();
+      return;
+    }
     const pan = 40 * plot.scale;
     if (k === '+' || k === '=') plot.zoom(1 / 1.25);
     else if (k === '-' || k === '_') plot.zoom(1.25);

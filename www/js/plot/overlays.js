@@ -68,7 +68,7 @@ export function drawRegion(plot) {
 }
 
 /** Where marker `m` sits on the canvas, or null (the origin has no image in the view around infinity). */
-function markerScreenPoint(plot, m) {
+export function markerScreenPoint(plot, m) {
   let p = m.at;
   if (plot.infinityMode) {
     if (p[0] === 0 && p[1] === 0) return null;
@@ -134,4 +134,82 @@ function wrapText(ctx, text, x, y, width, lineHeight) {
   if (line) lines.push(line);
   const shown = lines.slice(0, 3);
   shown.forEach((l, i) => ctx.fillText(l, x, y + (i - (shown.length - 1) / 2) * lineHeight));
+}
+
+/** Pole trails (trails.js): each root's path as the parameter runs over its range. Poles solid,
+ *  zeros dashed (told apart without colour), a small tick across the path at every step, the
+ *  first and last points labelled with the parameter's value there, and a ring where the
+ *  parameter's current value puts the root (between steps: interpolated). */
+export function drawTrails(plot) {
+  const t = plot.trails;
+  if (!t || !t.shown || plot.infinityMode) return;
+  const ctx = plot.ctx;
+  const label = (text, x, y) => {
+    ctx.font = '11px system-ui, sans-serif';
+    ctx.lineWidth = 3;
+    ctx.strokeStyle = 'rgba(255,255,255,0.9)';
+    ctx.fillStyle = '#111';
+    ctx.strokeText(text, x + 6, y - 6);
+    ctx.fillText(text, x + 6, y - 6);
+  };
+  const fmt = (v) => String(Number(v.toPrecision(3)));
+  ctx.save();
+  for (const [kind, list] of [['pole', t.poles], ['zero', t.zeros]]) {
+    for (const trail of list || []) {
+      const pts = trail.map((p) => (p ? toScreen(plot, p[0], p[1]) : null));
+      // the path, broken where the root does not exist
+      ctx.setLineDash(kind === 'zero' ? [6, 4] : []);
+      for (const [width, colour] of [[4, 'rgba(255,255,255,0.8)'], [1.6, 'rgba(15,15,15,0.95)']]) {
+        ctx.lineWidth = width;
+        ctx.strokeStyle = colour;
+        ctx.beginPath();
+        let pen = false;
+        for (const q of pts) {
+          if (!q) { pen = false; continue; }
+          if (pen) ctx.lineTo(q[0], q[1]); else ctx.moveTo(q[0], q[1]);
+          pen = true;
+        }
+        ctx.stroke();
+      }
+      ctx.setLineDash([]);
+      // ticks across the path at each step
+      ctx.lineWidth = 1;
+      ctx.strokeStyle = 'rgba(15,15,15,0.9)';
+      ctx.beginPath();
+      pts.forEach((q, i) => {
+        if (!q) return;
+        const a = pts[i - 1] || q, b = pts[i + 1] || q;
+        let dx = b[0] - a[0], dy = b[1] - a[1];
+        const len = Math.hypot(dx, dy);
+        if (!(len > 0)) return;
+        dx /= len; dy /= len;
+        ctx.moveTo(q[0] - dy * 3, q[1] + dx * 3);
+        ctx.lineTo(q[0] + dy * 3, q[1] - dx * 3);
+      });
+      ctx.stroke();
+      const first = pts.findIndex(Boolean);
+      let last = -1;
+      pts.forEach((q, i) => { if (q) last = i; });
+      // a root that does not move (its path within 3 pixels) gets no labels: the marker says where it is
+      const drawn = pts.filter(Boolean);
+      const extent = drawn.length ? Math.max(...drawn.map((q) => Math.hypot(q[0] - drawn[0][0], q[1] - drawn[0][1]))) : 0;
+      if (extent > 3) {
+        if (first >= 0) label(`${t.name}=${fmt(t.values[first])}`, pts[first][0], pts[first][1]);
+        if (last > first) label(`${t.name}=${fmt(t.values[last])}`, pts[last][0], pts[last][1]);
+      }
+      // the current value
+      if (Number.isFinite(t.current)) {
+        const i = t.values.findIndex((v, j) => j + 1 < t.values.length && (v - t.current) * (t.values[j + 1] - t.current) <= 0);
+        if (i >= 0 && trail[i] && trail[i + 1]) {
+          const span = t.values[i + 1] - t.values[i];
+          const u = span !== 0 ? (t.current - t.values[i]) / span : 0;
+          const [x, y] = toScreen(plot, trail[i][0] + u * (trail[i + 1][0] - trail[i][0]), trail[i][1] + u * (trail[i + 1][1] - trail[i][1]));
+          ctx.beginPath(); ctx.arc(x, y, 5, 0, 2 * Math.PI);
+          ctx.lineWidth = 3.5; ctx.strokeStyle = 'rgba(255,255,255,0.9)'; ctx.stroke();
+          ctx.lineWidth = 1.5; ctx.strokeStyle = '#111'; ctx.stroke();
+        }
+      }
+    }
+  }
+  ctx.restore();
 }

@@ -98,3 +98,25 @@ export function scheduleRender(plot, ms) {
   clearTimeout(plot.renderTimer);
   plot.renderTimer = setTimeout(plot.render, ms);
 }
+
+/** The live picture while something is being dragged: one coarse pass (a quarter of the
+ *  resolution, `LIVE_DIVISOR`), no fine bands; a newer call abandons an older one.
+ *  Resolves true when this picture was drawn (false: superseded or failed). */
+export const LIVE_DIVISOR = 4;
+export async function renderLive(plot, hooks) {
+  clearTimeout(plot.renderTimer);
+  const gen = ++plot.generation;
+  const base = hooks.baseRequest();
+  if (!base) return false;
+  const b = viewBox(plot);
+  const cw = Math.max(1, Math.ceil(plot.pw / LIVE_DIVISOR)), ch = Math.max(1, Math.ceil(plot.ph / LIVE_DIVISOR));
+  const layer = newLayer(cw, ch, b);
+  const req = Object.assign({}, base, { task: 'phase_plot', view: b, size: [cw, ch], format: 'rgba' });
+  const out = await plotBands(req, [null], (rows, rgba) => putRows(layer, rows, rgba));
+  if (gen !== plot.generation || out.stale || out.error) return false;
+  plot.message = '';
+  plot.coarse = layer;
+  plot.fine = null;
+  plot.draw();
+  return true;
+}
