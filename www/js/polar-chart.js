@@ -5,7 +5,7 @@
 // at w/(1 + |w|/R) so that the whole plane, infinity included, fits in the disc of radius R (the
 // map keeps the directions and the order of the radii, so the turns about the point are the same).
 import { sizedCanvas, niceTicks, tickText, nearestPixel } from './chart-kit.js';
-import { fmtReal } from './format.js';
+import { fmtReal, fmtComplex } from './format.js';
 
 /** The compression radius: R = 2 max(1, c), c the 75th percentile of |F| over the frequency grid
  *  (`fit.cap`), so that the curve's finite part keeps most of the disc; it does not depend on the
@@ -164,7 +164,7 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
   g.lineWidth = 1.2;
   g.beginPath(); g.arc(ax, ay, 8, 0, 2 * Math.PI); g.stroke();
   g.fillStyle = '#c0392b'; g.textAlign = 'left'; g.textBaseline = 'bottom';
-  g.fillText('about ' + complexText(about), ax + 9, ay - 6);
+  g.fillText('about ' + fmtComplex(about, 4), ax + 9, ay - 6);
   // the cursor
   if (cursor >= 0 && pts[cursor]) {
     const [cxp, cyp] = pts[cursor];
@@ -193,8 +193,3 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
   };
 }
 
-/** A point as short text: −1, 0.5 − 0.2i. */
-function complexText([re, im]) {
-  if (im === 0) return fmtReal(re, 4);
-  return fmtReal(re, 4) + (im < 0 ? ' − ' : ' + ') + fmtReal(Math.abs(im), 4) + 'i';
-}

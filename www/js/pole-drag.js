@@ -42,7 +42,7 @@ function quadratic(v, p) {
 }
 
 /** A complex number as the expression language reads it: "(0.3+2*i)". */
-function complexText(c) {
+function exprComplex(c) {
   const re = Number(dragNum(c[0])), im = Number(dragNum(c[1]));
   if (im === 0) return dragNum(re);
   const imPart = `${im < 0 ? '-' : '+'}${dragNum(Math.abs(im))}*i`;
@@ -62,7 +62,7 @@ function sideText(v, roots, real) {
       if (j >= 0) { used.add(j); parts.push(quadratic(v, r.at) + pw); return; }
     }
     if (isReal(r.at)) parts.push(linear(v, r.at[0]) + pw);
-    else parts.push(`(${v} - ${complexText(r.at)})${pw}`);
+    else parts.push(`(${v} - ${exprComplex(r.at)})${pw}`);
   });
   return parts.join('*');
 }
@@ -89,7 +89,7 @@ export function zpkText(v, model) {
   const k = real ? [model.k[0], 0] : model.k;
   const num0 = sideText(v, model.zeros, real);
   const den = sideText(v, model.poles, real);
-  const kText = complexText(k);
+  const kText = exprComplex(k);
   let top;
   if (!num0) top = kText;
   else if (Number(dragNum(k[0])) === 1 && Number(dragNum(k[1])) === 0) top = num0;
