@@ -10,7 +10,7 @@ import { sizedCanvas, niceTicks, tickText } from './chart-kit.js';
 export function drawInverseChart(canvas, opts = {}) {
   const { g, cssW, cssH } = sizedCanvas(canvas, { minW: 160, minH: 140, maxH: 220, aspect: 0.45 });
   if (!canvas.dataset.points) return null;
-  const { x, y } = JSON.parse(canvas.dataset.points);
+  const { x, y, err } = JSON.parse(canvas.dataset.points);
   const stems = canvas.dataset.kind === 'z';
   const finite = y.filter((v) => v !== null).concat((opts.extraY || []).filter(Number.isFinite));
   if (!finite.length) return null;
@@ -56,6 +56,7 @@ export function drawInverseChart(canvas, opts = {}) {
   const map = { px, py, left, right: cssW - right, top, bottom: cssH - bottom,
     toX: (xx) => x0 + ((xx - left) / (cssW - left - right)) * (x1 - x0) };
   if (opts.decorate) { g.save(); opts.decorate(g, map); g.restore(); }
+  if (Array.isArray(err) && !stems) errorBand(g, map, x, y, err);
   // the data
   g.strokeStyle = '#1f5f8b';
   g.fillStyle = '#1f5f8b';
@@ -87,4 +88,28 @@ export function drawInverseChart(canvas, opts = {}) {
     g.beginPath(); g.arc(px(x[c]), py(y[c]), 3.5, 0, 2 * Math.PI); g.fill();
   }
   return map;
+}
+
+/** The error band of a numerical inversion: y ± its error estimate, shaded under the line (clipped
+ *  to the plotting box; a gap where a value or its estimate is missing). */
+function errorBand(g, map, x, y, err) {
+  g.save();
+  g.beginPath();
+  g.rect(map.left, map.top, map.right - map.left, map.bottom - map.top);
+  g.clip();
+  g.fillStyle = 'rgba(31, 95, 139, 0.22)';
+  let run = [];
+  const flush = () => {
+    if (run.length > 1) {
+      g.beginPath();
+      run.forEach((i, k) => { const X = map.px(x[i]), Y = map.py(y[i] + err[i]); if (k) g.lineTo(X, Y); else g.moveTo(X, Y); });
+      for (let k = run.length - 1; k >= 0; k--) { const i = run[k]; g.lineTo(map.px(x[i]), map.py(y[i] - err[i])); }
+      g.closePath();
+      g.fill();
+    }
+    run = [];
+  };
+  x.forEach((_, i) => { if (y[i] !== null && Number.isFinite(err[i])) run.push(i); else flush(); });
+  flush();
+  g.restore();
 }

@@ -87,9 +87,14 @@ export function showInverse(parts, request, resp) {
   const ys = (isS ? resp.f : resp.x) || [];
   const values = xs.map((_, i) => (Number.isFinite(ys[i]) ? ys[i] : null));
   parts.chart.dataset.kind = isS ? 'laplace' : 'z';
-  parts.chart.dataset.points = JSON.stringify({ x: xs, y: values });
+  // A numerical inversion (no closed form) shows its error estimates as a band around the line.
+  const est = Array.isArray(resp.error_estimates) ? resp.error_estimates : [];
+  const band = isS && !resp.closed_form && est.some(Number.isFinite)
+    ? xs.map((_, i) => (Number.isFinite(est[i]) && values[i] !== null ? est[i] : null)) : null;
+  parts.chart.dataset.points = JSON.stringify(band ? { x: xs, y: values, err: band } : { x: xs, y: values });
+  parts.chart.dataset.band = band ? 'error' : 'none';
   parts.chart.setAttribute('aria-label', isS
-    ? `Line chart of f(t) for t from ${fmtReal(xs[0], 4)} to ${fmtReal(xs[xs.length - 1], 4)}`
+    ? `Line chart of f(t) for t from ${fmtReal(xs[0], 4)} to ${fmtReal(xs[xs.length - 1], 4)}` + (band ? ', shaded by its error estimate' : '')
     : `Stem plot of x[n] for n = 0 to ${xs[xs.length - 1]}`);
   drawInverseChart(parts.chart);
 
@@ -120,10 +125,9 @@ export function showInverse(parts, request, resp) {
   } else {
     fact('Agreement', 'only one way was available here, so there is no cross-check');
   }
-  const est = Array.isArray(resp.error_estimates) ? resp.error_estimates : [];
   let worst = -1;
   est.forEach((e, i) => { if (Number.isFinite(e) && (worst < 0 || e > est[worst])) worst = i; });
-  if (worst >= 0) fact('Error estimate', `at most ${fmtReal(est[worst], 2)} (largest at ${isS ? 't' : 'n'} = ${fmtReal(xs[worst], 6)})`);
+  if (worst >= 0) fact('Error estimate', `at most ${fmtReal(est[worst], 2)} (largest at ${isS ? 't' : 'n'} = ${fmtReal(xs[worst], 6)})` + (band ? '; the chart shades f ± the estimate at each time' : ''));
   if (isS && Number.isFinite(resp.delay) && resp.delay > 0) fact('Delay', `f(t) = 0 for t < ${fmtReal(resp.delay, 6)}`);
   if (isS && Array.isArray(resp.delays) && resp.delays.length) fact('Delays', `τ = ${resp.delays.map((d) => fmtReal(d, 6)).join(', ')}; H(t − τ) in the closed form is the unit step (½ at the jump)`);
   if (isS && Array.isArray(resp.declined) && resp.declined.length) fact('Declined', `${resp.declined.length} of the times have no meaningful value (gaps in the chart); see the warnings`);

@@ -26,15 +26,19 @@ function unsqueeze(x, y, R) {
   return [x * s, y * s];
 }
 
-/** The linear view's box: the point, the origin and the curve's finite part, padded by 8 %. The
- *  finite part: the samples no larger than a cap (3 max(1, |p|) or the 75th percentile of |F|, the
+/** The linear view's box: the point, the origin and the curve, padded by 8 %: all of it when it
+ *  is bounded (no detour around a pole on the contour), else its finite part: the samples no larger than a cap (3 max(1, |p|) or the 75th percentile of |F|, the
  *  larger); with `fit` {cap, wLo, wHi} (from the frequency response's grid, which spreads its
  *  points evenly over the decades where F changes) the cap is given and only the axis samples with
  *  wLo ≤ |ω| ≤ wHi count, so that the points crowded near a pole on the contour do not widen it. */
 function linearBox(samples, about, fit) {
   const pMag = Math.max(1, Math.hypot(about[0], about[1]));
+  // A curve with no detour (no pole on the contour) and a finite closing arc is bounded: all of it is shown.
+  const axisMax = Math.max(0, ...samples.filter((s) => s.kind === 'axis' && s.re !== null).map((s) => Math.hypot(s.re, s.im)).filter(Number.isFinite));
+  const bounded = !samples.some((s) => s.re === null || s.kind === 'indent' || (s.kind === 'closing' && !(Math.hypot(s.re, s.im) <= 2 * axisMax)));
   let cap;
-  if (fit && Number.isFinite(fit.cap)) cap = Math.max(3 * pMag, fit.cap);
+  if (bounded) { cap = Infinity; fit = null; }
+  else if (fit && Number.isFinite(fit.cap)) cap = Math.max(3 * pMag, fit.cap);
   else {
     const mags = samples.filter((s) => s.re !== null).map((s) => Math.hypot(s.re, s.im)).filter(Number.isFinite).sort((a, b) => a - b);
     cap = Math.max(3 * pMag, mags.length ? mags[Math.floor(0.75 * (mags.length - 1))] : 1);
