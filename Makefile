@@ -73,6 +73,9 @@ bench: bench-wasm
 	@echo "== singularities: degree-100 timing and residue accuracy (bench/singularities.rs) =="
 	$(CARGO) run -q --release --example singularities
 	@echo
+	@echo "== transfer_function and pole_trails on degree 10 (bench/transfer_function.rs) =="
+	$(CARGO) run -q --release --example transfer_function
+	@echo
 	@echo "== peers: residuary / scipy, mpmath on inverse z, partial fractions, contour, inverse Laplace (bench/peers.py, bench/peers.rs) =="
 	@if python3 -c 'import scipy, mpmath' 2>/dev/null; then $(ONE_THREAD) python3 bench/peers.py && $(CARGO) run -q --release --example peers; \
 	else echo "skipped: python3 with scipy and mpmath not found"; fi

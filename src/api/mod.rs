@@ -24,6 +24,7 @@ pub use tasks::evaluate::{EvaluateRequest, EvaluateResponse};
 pub use tasks::inverse_laplace::{InverseLaplaceRequest, InverseLaplaceResponse};
 pub use tasks::inverse_z::{InverseZRequest, InverseZResponse};
 pub use tasks::laurent::{Coefficient, LaurentRequest, LaurentResponse};
+pub use tasks::pole_trails::{PoleTrailsRequest, PoleTrailsResponse};
 pub use tasks::partial_fractions::{FractionTerm, PartialFractionsRequest, PartialFractionsResponse};
 pub use tasks::phase_plot::{phase_plot_rgba, PhasePlotRequest, Pixels, PlotOptionsInput};
 pub use tasks::real_integral::{RealIntegralRequest, RealIntegralResponse};
@@ -50,6 +51,7 @@ pub enum Request {
     InverseLaplace(InverseLaplaceRequest),
     InverseZ(InverseZRequest),
     TransferFunction(TransferFunctionRequest),
+    PoleTrails(PoleTrailsRequest),
 }
 
 /// A response: serialises to the task's own JSON object.
@@ -67,6 +69,7 @@ pub enum Response {
     InverseLaplace(InverseLaplaceResponse),
     InverseZ(InverseZResponse),
     TransferFunction(TransferFunctionResponse),
+    PoleTrails(PoleTrailsResponse),
     Json(Value),
 }
 
@@ -88,6 +91,7 @@ pub const TASKS: &[&str] = &[
     "inverse_laplace",
     "inverse_z",
     "transfer_function",
+    "pole_trails",
 ];
 
 impl Request {
@@ -124,6 +128,7 @@ impl Request {
             "inverse_laplace" => Request::InverseLaplace(body(&task, value)?),
             "inverse_z" => Request::InverseZ(body(&task, value)?),
             "transfer_function" => Request::TransferFunction(body(&task, value)?),
+            "pole_trails" => Request::PoleTrails(body(&task, value)?),
             _ => {
                 return Err(ApiError::new(
                     ErrorCode::UnknownTask,
@@ -148,6 +153,7 @@ pub fn fields_of(task: &str) -> &'static [&'static [shape::Field]] {
         "inverse_laplace" => tasks::inverse_laplace::FIELDS,
         "inverse_z" => tasks::inverse_z::FIELDS,
         "transfer_function" => tasks::transfer_function::FIELDS,
+        "pole_trails" => tasks::pole_trails::FIELDS,
         _ => &[],
     }
 }
@@ -185,6 +191,7 @@ pub fn run(request: Request) -> Result<Response, ApiError> {
         Request::InverseLaplace(r) => tasks::inverse_laplace::run(&r).map(Response::InverseLaplace),
         Request::InverseZ(r) => tasks::inverse_z::run(&r).map(Response::InverseZ),
         Request::TransferFunction(r) => tasks::transfer_function::run(&r).map(Response::TransferFunction),
+        Request::PoleTrails(r) => tasks::pole_trails::run(&r).map(Response::PoleTrails),
     }
 }
 

@@ -13,6 +13,7 @@ mod meromorphic_battery;
 mod multiplicity;
 mod overflow_and_scale;
 mod partial_fractions;
+mod pole_trails;
 mod real_integral;
 mod request_errors;
 mod transfer_function;

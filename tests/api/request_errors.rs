@@ -261,6 +261,7 @@ fn every_declared_field_is_one_serde_reads_and_no_other() {
                 Request::InverseLaplace(r) => serde_json::to_value(r),
                 Request::InverseZ(r) => serde_json::to_value(r),
                 Request::TransferFunction(r) => serde_json::to_value(r),
+                Request::PoleTrails(r) => serde_json::to_value(r),
             }
             .unwrap();
             // serde_json's Map keeps keys sorted, so both sides list them in one order.

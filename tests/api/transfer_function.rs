@@ -542,3 +542,26 @@ fn the_discrete_image_runs_along_the_unit_circle() {
     }
     assert_eq!(r["encirclement"]["winding"], 0);
 }
+
+fn error_code(request: Value) -> String {
+    let (text, is_error) = residuary::api::run_json_text(&request.to_string());
+    assert!(is_error, "request {request} should fail, got {text}");
+    let v: Value = serde_json::from_str(&text).unwrap();
+    v["error"]["code"].as_str().unwrap().to_string()
+}
+
+#[test]
+fn a_tiny_budget_runs_out() {
+    // The default grid of 1/((s+1)(s+10)) is 601 points (0.1 to 100 at 200 a decade, frequency_response.rs)
+    // and the image walk at least 2·(128 + 1) evaluations: 1000 units cannot pay for all that (by count);
+    // a budget of 1 000 000 can.
+    let req = |budget: u64| json!({"task": "transfer_function", "f": "1/((s+1)*(s+10))", "max_evaluations": budget});
+    assert_eq!(error_code(req(1000)), "budget_exhausted");
+    let r = ok_response(req(1_000_000));
+    assert_eq!(r["frequency_response"]["omega"].as_array().unwrap().len(), 601);
+    // The step samples alone: 2000 times asked at a budget that covers the grid and the walk only.
+    let r = residuary::api::run_json_text(&json!({"task": "transfer_function", "f": "1/(s+1)", "omega": [1],
+        "t": (0..10_000).map(|k| k as f64 * 1e-3).collect::<Vec<_>>(), "max_evaluations": 20_000}).to_string());
+    assert!(r.1 && r.0.contains("budget_exhausted"), "{}", r.0);
+    ok_response(json!({"task": "transfer_function", "f": "1/(s+1)", "omega": [1], "t": [0, 1], "max_evaluations": 20_000}));
+}

@@ -175,6 +175,7 @@ pub fn request(rng: &mut Rng, task: &str) -> Value {
     let (var, default_var) = match task {
         "inverse_laplace" => ("s", "s"),
         "transfer_function" if rng.chance(0.7) => ("s", "s"),
+        "pole_trails" => ("s", "s"),
         _ => ("z", "z"),
     };
     let custom_var = rng.chance(0.05);
@@ -312,6 +313,24 @@ pub fn request(rng: &mut Rng, task: &str) -> Value {
                 let n = rng.below(5);
                 m.insert("t".into(), Value::Array((0..n).map(|_| json!(real(rng).abs())).collect()));
             }
+            put_budget(&mut m);
+        }
+        "pole_trails" => {
+            if rng.chance(0.8) {
+                let f = format!("({})+a*({})", rational(rng, var), rational(rng, var));
+                m.insert("f".into(), json!(f));
+            }
+            let mut sweep = Map::new();
+            sweep.insert("name".into(), json!(if rng.chance(0.9) { "a" } else { "q" }));
+            sweep.insert("from".into(), json!(real(rng)));
+            sweep.insert("to".into(), json!(real(rng)));
+            if rng.chance(0.7) {
+                sweep.insert("steps".into(), json!(rng.below(40)));
+            }
+            if rng.chance(0.3) {
+                sweep.insert("scale".into(), json!(if rng.chance(0.5) { "log" } else { "linear" }));
+            }
+            m.insert("sweep".into(), Value::Object(sweep));
             put_budget(&mut m);
         }
         _ => {}

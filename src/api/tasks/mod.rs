@@ -11,6 +11,7 @@ pub mod inverse_z;
 pub mod laurent;
 pub mod partial_fractions;
 pub mod phase_plot;
+pub mod pole_trails;
 pub mod real_integral;
 pub mod residue;
 pub mod singularities;

@@ -10,7 +10,8 @@
 //! the response says which in `unit`.
 
 use crate::api::error::ApiError;
-use crate::api::input::{compile_text, CAUTION};
+use crate::api::input::{budget, compile_text, CAUTION};
+use crate::budget::Budget;
 use crate::api::shape::{Expect, Field};
 use crate::error::Failure;
 use crate::api::wire::{pair, FunctionInput, Number, BUDGET_FIELD, FUNCTION_FIELDS};
@@ -81,7 +82,7 @@ pub struct TransferFunctionRequest {
     /// the nearest sample n = t/T); default a grid.
     #[serde(default)]
     pub t: Option<Vec<f64>>,
-    /// Accepted for symmetry with the other tasks: the work here is bounded by the grid caps.
+    /// The work budget: the frequency-grid evaluations, the image walk and the step/impulse samples are charged.
     #[serde(default)]
     pub max_evaluations: Option<u64>,
 }
@@ -228,6 +229,7 @@ pub fn run(req: &TransferFunctionRequest) -> Result<TransferFunctionResponse, Ap
     let to_unit = if hz { 1.0 / (2.0 * PI) } else { 1.0 };
     let unit = if hz { "Hz" } else { "rad/s" }.to_string();
     let eval = |x: C| f.eval(x);
+    let mut budget = budget(req.max_evaluations).weighted(f.weight());
 
     let roots = |list: Vec<RootData>| list.into_iter().map(|d| root_out(d, to_unit)).collect::<Vec<_>>();
     let poles = roots(a.poles.iter().map(|p| root_data(p.at, p.order, domain)).collect());
@@ -240,11 +242,15 @@ pub fn run(req: &TransferFunctionRequest) -> Result<TransferFunctionResponse, Ap
         Some(w) => frequencies(w, hz, domain)?,
         None => default_grid(&root_sizes(&a, domain), domain),
     };
+    budget.spend(omega.len() as u64)?;
     let fr = response(&eval, &omega, domain);
     let m = margins(&eval, &fr, domain);
+    // Each crossing: about 62 evaluations of its bisection.
+    budget.spend(62 * (m.gain_crossovers.len() + m.phase_crossovers.len()) as u64)?;
 
     let about = req.point.map(|p| p.to_c()).unwrap_or(C::new(-1.0, 0.0));
-    let e = count(&num, &den, about, domain, IMAGE_EVALUATIONS)?;
+    let e = count(&num, &den, about, domain, (budget.remaining() / budget.weight()).min(IMAGE_EVALUATIONS))?;
+    budget.spend(e.evaluations)?;
     if e.on_contour > 0 {
         warnings.push(format!(
             "F − ({}) has a root on the {}: the image passes through the point, so no encirclement count is given",
@@ -261,8 +267,8 @@ pub fn run(req: &TransferFunctionRequest) -> Result<TransferFunctionResponse, Ap
     }
 
     let (step, impulse) = match domain {
-        Domain::S => continuous_responses(&a, &num, &den, dc, req.t.as_deref(), &mut warnings)?,
-        Domain::Z { period } => discrete_responses(&a, &num, &den, dc, period, req.t.as_deref())?,
+        Domain::S => continuous_responses(&a, &num, &den, dc, req.t.as_deref(), &mut warnings, &mut budget)?,
+        Domain::Z { period } => discrete_responses(&a, &num, &den, dc, period, req.t.as_deref(), &mut budget)?,
     };
     Ok(TransferFunctionResponse {
         domain: if domain == Domain::S { "s" } else { "z" }.into(),
@@ -414,6 +420,7 @@ fn continuous_responses(
     dc: Gain,
     t: Option<&[f64]>,
     warnings: &mut Vec<String>,
+    budget: &mut Budget,
 ) -> Result<(StepOut, ImpulseOut), ApiError> {
     let s = step_analysis(num, den)?;
     let stable = all_stable(a, Domain::S);
@@ -433,6 +440,8 @@ fn continuous_responses(
         );
     }
     let t = times(t, thin(grid(a)))?;
+    // Each sample of the step and the impulse sums one exponential term a pole (and its powers).
+    budget.spend_units(2 * t.len() as u64 * (den.len() as u64 + 1))?;
     let at = |x: &RationalAnalysis| -> Vec<f64> {
         // At t = 0 the residue sum is the limit from the right.
         residue_series(x, &t).iter().map(|v| v.0.re).collect()
@@ -460,6 +469,7 @@ fn discrete_responses(
     dc: Gain,
     period: f64,
     t: Option<&[f64]>,
+    budget: &mut Budget,
 ) -> Result<(StepOut, ImpulseOut), ApiError> {
     let default_n = discrete_span(a, MAX_RESPONSE_SAMPLES);
     let n: Vec<usize> = match t {
@@ -475,6 +485,9 @@ fn discrete_responses(
         None => (0..default_n).collect(),
     };
     let count = n.iter().copied().max().unwrap_or(0) + 1;
+    // The difference equations: each sample costs one multiply-add a coefficient, three sequences.
+    let span = count.max(discrete_span(a, MAX_RESPONSE_SAMPLES));
+    budget.spend_units(3 * span as u64 * (num.len() + den.len() + 2) as u64 / 4)?;
     let h = impulse_response(num, den, count, &[1.0])?;
     let step_num = mul(num, &[C::new(0.0, 0.0), C::new(1.0, 0.0)]);
     let step_den = mul(den, &[C::new(-1.0, 0.0), C::new(1.0, 0.0)]);
@@ -482,7 +495,6 @@ fn discrete_responses(
     let stable = all_stable(a, Domain::Z { period });
     let tk: Vec<f64> = n.iter().map(|&k| k as f64 * period).collect();
     // The metrics read on the default span of samples (or up to the largest requested one, if longer).
-    let span = count.max(discrete_span(a, MAX_RESPONSE_SAMPLES));
     let whole = if span > count { impulse_response(&step_num, &step_den, span, &[1.0])? } else { s.clone() };
     let sequence: Vec<f64> = whole.values.iter().map(|v| v.re).collect();
     let m = sequence_metrics(&sequence, period, dc.value.filter(|_| stable).map(|v| v.re));

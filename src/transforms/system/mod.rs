@@ -7,6 +7,7 @@ pub mod contour_image;
 pub mod encirclement;
 pub mod frequency_response;
 pub mod pole_data;
+pub mod pole_trails;
 pub mod step_response;
 
 /// Continuous (s) or discrete (z, with the sampling period T) systems.
