@@ -223,21 +223,29 @@ export function zpkToF(gainText, zerosText, polesText, v) {
   if (!zeros.ok) return zeros;
   const poles = parseRoots(polesText, 'poles');
   if (!poles.ok) return poles;
-  const zTop = productText(rootFactors(zeros.roots, v));
-  const poleFactors = rootFactors(poles.roots, v);
+  return { ok: true, f: zpkExpression(k.gain, zeros.roots, poles.roots, v) };
+}
+
+/** f = k·Π(v − zᵢ)/Π(v − pⱼ) as a plain expression in `v`: the gain {value: [re, im], text?} and
+ *  the roots [{value, text?, order}] grouped by rootFactors (a conjugate pair as its real
+ *  quadratic, equal roots as one power; a plain real number kept as typed). The one writer of
+ *  the factored form: the forms here and a dragged root (pole-drag.js) both use it. */
+export function zpkExpression(k, zeros, poles, v) {
+  const zTop = productText(rootFactors(zeros, v));
+  const poleFactors = rootFactors(poles, v);
   const pBottom = productText(poleFactors);
-  const [kr, ki] = k.gain.value;
+  const [kr, ki] = k.value;
   let top;
-  if (ki !== 0) top = `(${entryComplex(k.gain.value)})` + (zTop ? '*' + zTop : '');
+  if (ki !== 0) top = `(${entryComplex(k.value)})` + (zTop ? '*' + zTop : '');
   else {
-    const mag = magnitudeText(k.gain);
+    const mag = magnitudeText(k);
     const sign = kr < 0 ? '-' : '';
     if (!zTop) top = sign + mag;
     else if (Math.abs(kr) === 1) top = sign + zTop;
     else top = `${sign}${mag}*${zTop}`;
   }
-  if (!pBottom) return { ok: true, f: top };
-  return { ok: true, f: `${top}/${poleFactors.length === 1 ? pBottom : `(${pBottom})`}` };
+  if (!pBottom) return top;
+  return `${top}/${poleFactors.length === 1 ? pBottom : `(${pBottom})`}`;
 }
 
 /** The pole pair of a second-order section from ωn (> 0; rad per unit time, or Hz: × 2π) and ζ,

@@ -9,6 +9,7 @@
 // "Undo the drag" (and Ctrl+Z on the plot) brings back the f typed before the drag, exactly.
 import { runHeavy, runNow, responseError } from './engine.js';
 import { functionInput } from './params.js';
+import { zpkExpression } from './entry-forms.js';
 
 /** Significant digits of the rewritten form. */
 export const DRAG_DIGITS = 6;
@@ -23,81 +24,22 @@ export function dragNum(x) {
 
 const isReal = (p) => Math.abs(p[1]) <= REAL_TOL * Math.max(1, Math.hypot(p[0], p[1]));
 
-/** "(v - a)" for a real a ("v" for 0, "(v + 2)" for −2). */
-function linear(v, a) {
-  const r = Number(dragNum(a));
-  if (r === 0) return v;
-  return r < 0 ? `(${v} + ${dragNum(-r)})` : `(${v} - ${dragNum(r)})`;
-}
-
-/** "(v^2 + a*v + b)" for the pair p, conj(p): a = −2 Re p, b = |p|². */
-function quadratic(v, p) {
-  const a = Number(dragNum(-2 * p[0]));
-  const b = Number(dragNum(p[0] * p[0] + p[1] * p[1]));
-  let s = `${v}^2`;
-  const times = (c) => (c === 1 ? v : `${dragNum(c)}*${v}`);
-  if (a !== 0) s += a < 0 ? ` - ${times(-a)}` : ` + ${times(a)}`;
-  if (b !== 0) s += b < 0 ? ` - ${dragNum(-b)}` : ` + ${dragNum(b)}`;
-  return `(${s})`;
-}
-
-/** A complex number as the expression language reads it: "(0.3+2*i)". */
-function exprComplex(c) {
-  const re = Number(dragNum(c[0])), im = Number(dragNum(c[1]));
-  if (im === 0) return dragNum(re);
-  const imPart = `${im < 0 ? '-' : '+'}${dragNum(Math.abs(im))}*i`;
-  return re === 0 ? `(${im < 0 ? '-' : ''}${dragNum(Math.abs(im))}*i)` : `(${dragNum(re)}${imPart})`;
-}
-
-/** The factors of one side, [{at, order}], as a product text ('' for none). */
-function sideText(v, roots, real) {
-  const parts = [];
-  const used = new Set();
-  roots.forEach((r, i) => {
-    if (used.has(i)) return;
-    used.add(i);
-    const pw = r.order > 1 ? `^${r.order}` : '';
-    if (real && !isReal(r.at)) {
-      const j = roots.findIndex((q, k) => !used.has(k) && q.order === r.order && Math.abs(q.at[0] - r.at[0]) + Math.abs(q.at[1] + r.at[1]) <= 1e-6 * Math.max(1, Math.hypot(...r.at)));
-      if (j >= 0) { used.add(j); parts.push(quadratic(v, r.at) + pw); return; }
-    }
-    if (isReal(r.at)) parts.push(linear(v, r.at[0]) + pw);
-    else parts.push(`(${v} - ${exprComplex(r.at)})${pw}`);
-  });
-  return parts.join('*');
-}
-
-/** How many factors sideText writes for `roots`. */
-function sideCount(roots, real) {
-  const used = new Set();
-  let n = 0;
-  roots.forEach((r, i) => {
-    if (used.has(i)) return;
-    used.add(i);
-    n++;
-    if (real && !isReal(r.at)) {
-      const j = roots.findIndex((q, k) => !used.has(k) && q.order === r.order && Math.abs(q.at[0] - r.at[0]) + Math.abs(q.at[1] + r.at[1]) <= 1e-6 * Math.max(1, Math.hypot(...r.at)));
-      if (j >= 0) used.add(j);
-    }
-  });
-  return n;
-}
-
-/** f written as k·Π(v − z)^m / Π(v − p)^n for the model {k: [re, im], zeros, poles, real}. */
+/** f written as k·Π(v − z)^m / Π(v − p)^n for the model {k: [re, im], zeros, poles, real}, every
+ *  number rounded to DRAG_DIGITS significant digits (a root within REAL_TOL of the real axis put
+ *  on it), by the one writer of the factored form (entry-forms.js). */
 export function zpkText(v, model) {
-  const real = model.real;
-  const k = real ? [model.k[0], 0] : model.k;
-  const num0 = sideText(v, model.zeros, real);
-  const den = sideText(v, model.poles, real);
-  const kText = exprComplex(k);
-  let top;
-  if (!num0) top = kText;
-  else if (Number(dragNum(k[0])) === 1 && Number(dragNum(k[1])) === 0) top = num0;
-  else if (Number(dragNum(k[0])) === -1 && Number(dragNum(k[1])) === 0) top = `-${num0}`;
-  else top = `${kText}*${num0}`;
-  if (!den) return top;
-  // one factor needs no more brackets ("1/(s + 1)", "1/(s + 1)^2", "1/s"); a product does
-  return `${top}/${den.includes('*') && sideCount(model.poles, real) > 1 ? `(${den})` : den}`;
+  const round = (x) => Number(dragNum(x));
+  // A complex root is rounded through its quadratic's coefficients (−2 Re p, |p|², as written), so
+  // a pair left where it was keeps typed coefficients such as 0.4 and 4 exactly.
+  const rounded = (at) => {
+    if (isReal(at)) return [round(at[0]), 0];
+    const re = -round(-2 * at[0]) / 2, m2 = round(at[0] * at[0] + at[1] * at[1]);
+    const im = Math.sqrt(Math.max(0, m2 - re * re));
+    return [re, at[1] < 0 ? -im : im];
+  };
+  const roots = (list) => list.map((r) => ({ value: rounded(r.at), order: r.order }));
+  const k = model.real ? [round(model.k[0]), 0] : [round(model.k[0]), round(model.k[1])];
+  return zpkExpression({ value: k }, roots(model.zeros), roots(model.poles), v);
 }
 
 /** Roots with their multiplicities from a partial_fractions answer (the highest power at a point). */
