@@ -24,7 +24,7 @@ export function transferDomain(variable) {
 
 /** What the section shows and asks: the request it answers (key), the chosen unit and sampling
  *  period, and a serial that makes an answer arriving after Stop or a newer request go unused. */
-const section = { key: '', serial: 0, forceOpen: null, chart: null,
+const section = { key: '', serial: 0, forceOpen: null, chart: null, openedFor: '',
   point: null,        // the point the encirclements are counted about ([re, im]); null: −1
   polar: null,        // {samples: [{re, im, w, kind}], about, unit, domain}: the polar plot's data
   shown: 0,           // counts the responses shown (a deferred drawing of an older one is dropped)
@@ -389,7 +389,8 @@ export function transferOpen(page) {
   return !box.hidden && box.open;
 }
 
-/** After a search: show the section when f is rational in s or z; folded unless asked. */
+/** After a search: show the section when f is rational in s or z, opened for a new function
+ *  unless set() asked otherwise. */
 export async function prepareTransfer(page, base) {
   const tf = page.ui.tf;
   const domain = transferDomain(base.var);
@@ -399,8 +400,13 @@ export async function prepareTransfer(page, base) {
     shown = Boolean(known && known.rational);
   }
   tf.box.hidden = !shown;
+  // A function that reads as a transfer function opens the section when it is new (typed, an
+  // example, a link, set()); folding it keeps it folded while the function stays the same.
+  const fresh = JSON.stringify([base.f, base.var, base.params]);
   if (typeof section.forceOpen === 'boolean') tf.box.open = section.forceOpen;
+  else if (shown && fresh !== section.openedFor) tf.box.open = true;
   section.forceOpen = null;
+  if (shown) section.openedFor = fresh;
   if (!shown) return;
   tf.periodRow.hidden = domain !== 'z';
   tf.box.dataset.var = domain;
