@@ -1217,6 +1217,45 @@ describe('moving poles and zeros, pole trails', () => {
     assert.notEqual(hidden.hash, drawn.hash, 'hiding the trails changes the picture');
     assert.deepEqual(b.log.errors, []);
   });
+
+  test('trails through window.residuary: set({trails}) resolves with results().pole_trails; a bad trails field is refused', async () => {
+    await load(b.page);
+    // (s + k)/(s^2 + k^2): poles ±ik, zero −k (by hand)
+    const out = await scriptSet(b.page, { f: '(s+k)/(s^2+k^2)', var: 's', params: { k: 1 }, trails: { name: 'k', from: 1, to: 3, steps: 5 } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const t = out.results.pole_trails;
+    assert.ok(t && !t.error, JSON.stringify(t));
+    assert.deepEqual(t.values, [1, 1.5, 2, 2.5, 3]);
+    t.values.forEach((k, i) => {
+      for (const w of [[0, k], [0, -k]]) assert.ok(t.poles.some((tr) => tr[i] && Math.hypot(tr[i][0] - w[0], tr[i][1] - w[1]) < 1e-9), `k = ${k}: ${JSON.stringify(t.poles.map((tr) => tr[i]))}`);
+      assert.ok(Math.hypot(t.zeros[0][i][0] + k, t.zeros[0][i][1]) < 1e-9, `zero at k = ${k}`);
+    });
+    assert.deepEqual((await scriptState(b.page)).trails, { name: 'k', from: 1, to: 3, steps: 5, shown: true });
+    const bad = await scriptSet(b.page, { trails: { name: 'k', from: 2, to: 2 } });
+    assert.equal(bad.ok, false);
+    assert.equal(bad.error.code, 'invalid_field');
+    const none = await scriptSet(b.page, { trails: null });
+    assert.ok(none.ok);
+    assert.equal('pole_trails' in none.results, false);
+    assert.deepEqual(b.log.errors, []);
+  });
+
+  test('a numerical inverse Laplace transform shades its error band: J0(t) from 1/(sqrt(s+i) sqrt(s-i))', async () => {
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: '1/(sqrt(s+i)*sqrt(s-i))', var: 's', params: {}, panels: { inverse: true }, t: 10 });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const inv = out.results.inverse_laplace;
+    assert.equal(inv.closed_form, null);
+    assert.equal(await b.page.getAttribute('#inv-chart', 'data-band'), 'error');
+    const pts = await b.page.evaluate(() => JSON.parse(document.getElementById('inv-chart').dataset.points));
+    assert.equal(pts.err.length, inv.t.length);
+    pts.err.forEach((e, i) => assert.equal(e, inv.error_estimates[i]));
+    // L[J0](s) = 1/sqrt(s^2 + 1) (a standard Laplace-transform table entry, from memory); J0(10) = -0.24593576445134832 (scipy 1.17 special.j0)
+    const last = inv.f[inv.f.length - 1];
+    assert.ok(Math.abs(last + 0.24593576445134832) <= Math.max(1e-6, inv.error_estimates[inv.error_estimates.length - 1]), `f(10) = ${last}`);
+    assert.ok(inv.error_estimates[inv.error_estimates.length - 1] >= Math.abs(last + 0.24593576445134832), 'the estimate bounds the error');
+    assert.deepEqual(b.log.errors, []);
+  });
 });
 
 describe('the page inside an iframe', () => {

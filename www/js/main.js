@@ -419,4 +419,5 @@ installScripting(page, {
   fit: fitToPoints,
   contour: () => region.contour(),
   pipeline,
+  trails: () => trails.refresh(),
 });

@@ -42,7 +42,7 @@ function regionFrom(value, region) {
 }
 
 const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',
-  'hz', 'sample_period', 'point'];
+  'hz', 'sample_period', 'point', 'trails'];
 
 /** The transfer section's controls from the page state: the unit (#tf-unit), the sampling period
  *  (#tf-period) and the encirclement point (transfer.js's setTransferPoint). */
@@ -96,7 +96,21 @@ function nextPageState(current, partial) {
     else throw scriptError('bad_request', 'point must be a number or [re, im]');
   }
   if ('wheel' in partial) { if (!['oklch', 'hsv'].includes(partial.wheel)) throw scriptError('invalid_field', 'wheel must be "oklch" or "hsv"'); next.wheel = partial.wheel; }
+  if ('trails' in partial) next.trails = trailsFrom(partial.trails);
   return sanitize(next);
+}
+
+/** set()'s `trails`: null (none), or {name, from, to, steps (default 41), shown (default true)}. */
+function trailsFrom(t) {
+  if (t === null) return null;
+  if (!t || typeof t !== 'object' || Array.isArray(t)) throw scriptError('bad_request', 'trails must be null or {name, from, to, steps, shown}');
+  for (const k of Object.keys(t)) if (!['name', 'from', 'to', 'steps', 'shown'].includes(k)) throw scriptError('bad_request', `unknown field "trails.${k}" (known: name, from, to, steps, shown)`);
+  if (typeof t.name !== 'string' || !t.name.trim()) throw scriptError('bad_request', 'trails.name must name a parameter');
+  if (!isNum(t.from) || !isNum(t.to) || t.from === t.to) throw scriptError('invalid_field', 'trails.from and trails.to must be two different numbers');
+  const steps = t.steps === undefined ? 41 : t.steps;
+  if (!(Number.isInteger(steps) && steps >= 2 && steps <= 400)) throw scriptError('invalid_field', 'trails.steps must be a whole number from 2 to 400');
+  if (t.shown !== undefined && typeof t.shown !== 'boolean') throw scriptError('bad_request', 'trails.shown must be true or false');
+  return { name: t.name.trim(), from: t.from, to: t.to, steps, shown: t.shown !== false };
 }
 
 /** Install window.residuary. `hooks`: started (a promise: the core has loaded), adopt(state)
@@ -134,6 +148,7 @@ export function installScripting(page, hooks) {
       panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page) },
       modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, symbols: state.symbols, autoFind: state.autoFind,
       hz: state.hz, point: transferPoint(state),
+      trails: state.trails ? { name: state.trails.name, from: state.trails.from, to: state.trails.to, steps: state.trails.steps, shown: state.trails.shown } : null,
     };
     const res = page.results;
     if (res && res.contour && !ui.singTable.classList.contains('stale')) out.contour = res.contour; // as searched (a nudge moves it)
@@ -160,6 +175,7 @@ export function installScripting(page, hooks) {
     }
     if (res.transfer_function && transferOpen(page)) out.transfer_function = entry(res.transfer_function);
     if (res.partial_fractions) out.partial_fractions = entry(res.partial_fractions);
+    if (state.trails && page.trailsResult) out.pole_trails = entry(page.trailsResult);
     return out;
   }
 
@@ -191,6 +207,8 @@ export function installScripting(page, hooks) {
     const outcome = await hooks.pipeline.find();
     if (outcome.status === 'failed') throw scriptError(outcome.error.code, outcome.error.message);
     if (outcome.status === 'superseded') throw scriptError('cancelled', 'a newer change or Stop came in before the panels finished');
+    // the trails: computed after the search (a refresh already under way may supersede one call)
+    for (let i = 0; i < 3 && state.trails && state.trails.shown && !page.trailsResult; i++) await hooks.trails();
     return currentResults();
   }
 

@@ -1,8 +1,6 @@
 // Pole trails: how the poles and zeros of f move while one parameter runs over a range.
-// The core's `pole_trails` task gives the paths (docs/contract.md); while a core without that
-// task is loaded (code "unknown_task"), the page computes the same shape itself from the
-// `partial_fractions` of f and of 1/f at each step, matching each root to the nearest root of
-// the step before. The plot draws them (plot/overlays.js drawTrails); the drawn data is on the
+// The core's `pole_trails` task gives the paths (docs/contract.md: roots matched step to step by
+// least total distance). The plot draws them (plot/overlays.js drawTrails); the drawn data is on the
 // plot canvas as data-trails (JSON {name, values, poles, zeros}, docs/page.md).
 import { $, el, debounce } from './dom.js';
 import { runHeavy, responseError } from './engine.js';
@@ -12,77 +10,12 @@ import { functionInput, parseComplex } from './params.js';
 export const TRAIL_STEPS = 41;
 const MAX_STEPS = 400;
 
-/** Roots of one partial_fractions answer, each repeated by its multiplicity. */
-function rootList(pf) {
-  const seen = [];
-  for (const t of Array.isArray(pf.terms) ? pf.terms : []) {
-    if (!Array.isArray(t.at) || !t.at.every(Number.isFinite)) continue;
-    const same = seen.find((r) => Math.abs(r.at[0] - t.at[0]) + Math.abs(r.at[1] - t.at[1]) <= 1e-12 * Math.max(1, Math.hypot(...t.at)));
-    if (same) same.order = Math.max(same.order, t.power || 1);
-    else seen.push({ at: t.at, order: t.power || 1 });
-  }
-  const out = [];
-  for (const r of seen) for (let i = 0; i < r.order; i++) out.push(r.at);
-  return out;
-}
-
-/** Continuous paths from the roots at each step: greedy nearest matching to each trail's last point. */
-export function matchTrails(steps) {
-  const trails = [];
-  steps.forEach((roots, s) => {
-    const free = roots.map((_, i) => i);
-    const pairs = [];
-    trails.forEach((trail, t) => {
-      let last = null;
-      for (let k = trail.length - 1; k >= 0 && !last; k--) last = trail[k];
-      if (last) roots.forEach((r, i) => pairs.push([Math.hypot(r[0] - last[0], r[1] - last[1]), t, i]));
-    });
-    pairs.sort((a, b) => a[0] - b[0]);
-    const usedT = new Set(), usedR = new Set();
-    for (const [, t, i] of pairs) {
-      if (usedT.has(t) || usedR.has(i)) continue;
-      usedT.add(t); usedR.add(i);
-      trails[t].push(roots[i]);
-    }
-    trails.forEach((trail, t) => { if (!usedT.has(t)) trail.push(null); });
-    for (const i of free) if (!usedR.has(i)) trails.push(new Array(s).fill(null).concat([roots[i]]));
-  });
-  return trails;
-}
-
-/** The parameter values of a sweep {from, to, steps, scale}: `steps` values, both ends included. */
-export function sweepValues(sweep) {
-  const n = Math.max(2, Math.min(MAX_STEPS, Math.round(sweep.steps)));
-  const out = [];
-  for (let i = 0; i < n; i++) {
-    const u = i / (n - 1);
-    out.push(sweep.scale === 'log' ? sweep.from * Math.pow(sweep.to / sweep.from, u) : sweep.from + u * (sweep.to - sweep.from));
-  }
-  return out;
-}
-
 /** The trails for `base` ({f, var, params}) over `sweep` ({name, from, to, steps, scale}):
  *  {name, values, poles, zeros, warnings} or {error: {code, message}}. */
-export async function computeTrails(base, sweep, isCurrent = () => true) {
+export async function computeTrails(base, sweep) {
   const resp = await runHeavy(Object.assign({}, base, { task: 'pole_trails', sweep }));
   const err = responseError(resp);
-  if (!err) return resp;
-  if (err.code !== 'unknown_task') return { error: err };
-  const values = sweepValues(sweep);
-  const poles = [], zeros = [];
-  for (const v of values) {
-    if (!isCurrent()) return { error: { code: 'cancelled', message: 'superseded' } };
-    const at = Object.assign({}, base, { params: Object.assign({}, base.params, { [sweep.name]: v }) });
-    const pf = await runHeavy(Object.assign({}, at, { task: 'partial_fractions' }));
-    const e1 = responseError(pf);
-    if (e1 && e1.code !== 'not_applicable') return { error: e1 };
-    if (e1) return { error: { code: 'not_applicable', message: `f is not rational at ${sweep.name} = ${v}` } };
-    const inv = await runHeavy(Object.assign({}, at, { f: `1/(${base.f})`, task: 'partial_fractions' }));
-    const e2 = responseError(inv);
-    poles.push(rootList(pf));
-    zeros.push(e2 ? [] : rootList(inv));
-  }
-  return { name: sweep.name, values, poles: matchTrails(poles), zeros: matchTrails(zeros), warnings: [] };
+  return err ? { error: err } : resp;
 }
 
 /** The "Trails" controls under the parameters, over `page`; hooks.persist() keeps the state. */
@@ -125,6 +58,7 @@ export function createTrails(page, hooks) {
 
   function clear(text) {
     page.plot.trails = null;
+    page.trailsResult = null;
     delete canvas.dataset.trails;
     canvas.dataset.trailsState = 'none';
     ui.status.textContent = text || '';
@@ -148,12 +82,14 @@ export function createTrails(page, hooks) {
       return;
     }
     const mine = ++serial;
+    page.trailsResult = null;
     canvas.dataset.trailsState = 'busy';
     ui.status.textContent = 'Computing the trails…';
-    const out = await computeTrails(base, sweep, () => mine === serial);
+    const out = await computeTrails(base, sweep);
     if (mine !== serial) return;
-    if (out.error) { key = ''; clear('No trails: ' + out.error.message); return; }
+    if (out.error) { key = ''; clear('No trails: ' + out.error.message); page.trailsResult = out; return; }
     key = k;
+    page.trailsResult = out; // results().pole_trails (scripting.js)
     const data = { name: out.name, values: out.values, poles: out.poles, zeros: out.zeros };
     page.plot.trails = Object.assign({}, data, { current: currentValue(t.name), shown: t.shown });
     canvas.dataset.trails = JSON.stringify(data);
