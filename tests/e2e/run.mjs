@@ -573,6 +573,28 @@ describe('the page with the real core', () => {
     assert.equal(await b.page.isVisible('#fit-note'), false, 'two poles of one modulus span no decades');
   });
 
+  test('from 1e-3 to 1e10 rad/s: a second-order section at either end opens fitted, with its frequency response around ωn', async () => {
+    // poles −ζωn ± iωn√(1−ζ²) (the standard second-order section, common practice)
+    await load(b.page);
+    for (const wn of [1e-3, 1e10]) {
+      const zeta = 0.2;
+      const out = await scriptSet(b.page, { f: 'w^2/(s^2+2*zeta*w*s+w^2)', var: 's', params: { w: wn, zeta }, panels: { transfer: true } });
+      assert.ok(out.ok, JSON.stringify(out.error));
+      const v = (await scriptState(b.page)).view;
+      const im = wn * Math.sqrt(1 - zeta * zeta);
+      for (const p of [[-zeta * wn, im], [-zeta * wn, -im]]) assert.ok(p[0] > v[0] && p[0] < v[1] && p[1] > v[2] && p[1] < v[3], `ωn = ${wn}: pole ${p} outside the view ${v}`);
+      assert.ok(v[3] < 2 * im, `ωn = ${wn}: the view ${v} is not fitted`);
+      const tf = out.results.transfer_function;
+      assert.equal(out.results.singularities.poles.length, 2);
+      const fr = tf.frequency_response;
+      assert.ok(fr.omega[0] <= wn / 5 && fr.omega[fr.omega.length - 1] >= 5 * wn, `ωn = ${wn}: the grid ${fr.omega[0]} … ${fr.omega[fr.omega.length - 1]}`);
+      const peak = Math.max(...fr.magnitude_db.filter((x) => x !== null));
+      const want = 20 * Math.log10(1 / (2 * zeta * Math.sqrt(1 - zeta * zeta))); // the resonant peak 1/(2ζ√(1−ζ²)) (common practice)
+      assert.ok(Math.abs(peak - want) < 0.01, `ωn = ${wn}: peak ${peak} dB, want ${want}`);
+      tf.poles.forEach((p) => { assert.ok(Math.abs(p.natural_frequency - wn) <= 1e-9 * wn); assert.ok(Math.abs(p.damping_ratio - zeta) <= 1e-9); });
+    }
+  });
+
   test('pole and zero symbols: × and ○ of a pole–zero diagram as an option, kept in the state', async () => {
     // The convention (× pole, ○ zero) is common practice in control texts; the default stays ours.
     const out = await scriptSet(b.page, { f: '(s+1)/(s^2+2*s+5)', var: 's', params: {}, symbols: 'diagram' });
