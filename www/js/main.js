@@ -219,14 +219,8 @@ async function liveInverse() {
 
 /** The change is complete (a drag let go, a slider released, an undo): check and search now. */
 function commitNow() {
-  live.stale = false;
   live.tfPrevious = null;
-  forgetExampleIfChanged(state);
-  ui.fitNote.hidden = true;
-  pipeline.markStale();
-  persist();
-  showUnderline(ui.mirror, state.f, null);
-  syncMirror(ui.expr, ui.mirror);
+  markChanged();
   afterTyping.cancel();
   if (checkTyped()) pipeline.find();
   trails.changed();
@@ -239,15 +233,21 @@ $('drag-undo').addEventListener('click', () => poleDrag.undo());
 function inputsChanged(how) {
   if (how && how.live) { liveUpdate(); return; }
   if (how && how.released) { commitNow(); return; }
-  live.stale = false;
   trails.changed();
+  markChanged();
+  afterTyping();
+}
+
+/** What every change of f, its variable or its parameters does at once: the results go stale,
+ *  the state is kept, the underline follows the text. */
+function markChanged() {
+  live.stale = false;
   forgetExampleIfChanged(state);
   ui.fitNote.hidden = true;
   pipeline.markStale();
   persist();
   showUnderline(ui.mirror, state.f, null);
   syncMirror(ui.expr, ui.mirror);
-  afterTyping();
 }
 
 function applyStateToControls() {
