@@ -595,6 +595,41 @@ describe('the page with the real core', () => {
     }
   });
 
+  test('a transfer function in another variable: domain "s" or "z" chosen, mode read back; null folds the reading away', async () => {
+    await load(b.page);
+    // 1/(x^2 + x + 1): poles −1/2 ± i√3/2 (quadratic formula); not read by default (the variable is x)
+    const plain = await scriptSet(b.page, { f: '1/(x^2+x+1)', var: 'x', params: {} });
+    assert.ok(plain.ok, JSON.stringify(plain.error));
+    assert.equal('transfer_function' in plain.results, false);
+    assert.equal((await scriptState(b.page)).mode, 'function');
+    const asS = await scriptSet(b.page, { domain: 's' });
+    assert.ok(asS.ok, JSON.stringify(asS.error));
+    const tf = asS.results.transfer_function;
+    assert.equal(tf.domain, 's');
+    tf.poles.forEach((p) => { assert.ok(Math.abs(p.natural_frequency - 1) < 1e-12); assert.ok(Math.abs(p.damping_ratio - 0.5) < 1e-12); });
+    const st = await scriptState(b.page);
+    assert.equal(st.domain, 's');
+    assert.equal(st.mode, 'transfer_function');
+    assert.equal(await b.page.inputValue('#var-domain'), 's');
+    // discrete: 0.5/(w − 0.5) read in z with T = 0.1: DC gain F(1) = 1, |p| = 0.5, s = ln(0.5)/T (by definition)
+    const asZ = await scriptSet(b.page, { f: '0.5/(w-0.5)', var: 'w', domain: 'z', sample_period: 0.1 });
+    assert.ok(asZ.ok, JSON.stringify(asZ.error));
+    const z = asZ.results.transfer_function;
+    assert.equal(z.domain, 'z');
+    assert.ok(Math.abs(z.dc_gain.value[0] - 1) < 1e-12);
+    assert.ok(Math.abs(z.poles[0].s_equivalent[0] - Math.log(0.5) / 0.1) < 1e-9);
+    const v = (await scriptState(b.page)).view;
+    assert.ok(v[0] <= -1 && v[1] >= 1 && v[2] <= -1 && v[3] >= 1, `the unit circle in view: ${v}`);
+    const none = await scriptSet(b.page, { domain: null });
+    assert.ok(none.ok);
+    assert.equal('transfer_function' in none.results, false);
+    assert.equal((await scriptState(b.page)).domain, null);
+    const bad = await scriptSet(b.page, { domain: 'laplace' });
+    assert.equal(bad.ok, false);
+    assert.equal(bad.error.code, 'invalid_field');
+    await scriptSet(b.page, { domain: 'auto' });
+  });
+
   test('pole and zero symbols: × and ○ of a pole–zero diagram as an option, kept in the state', async () => {
     // The convention (× pole, ○ zero) is common practice in control texts; the default stays ours.
     const out = await scriptSet(b.page, { f: '(s+1)/(s^2+2*s+5)', var: 's', params: {}, symbols: 'diagram' });
@@ -824,7 +859,7 @@ describe('the page with the real core', () => {
   test('transfer function in z: the polar table is F(e^(jωT)), the impulse stems read h[n] by keyboard', async () => {
     // F(z) = 0.4 (z + 0.5)/(z² − z + 0.5), T = 1: poles 0.5 ± 0.5i inside the unit circle
     await load(b.page);
-    const out = await scriptSet(b.page, { f: '0.4*(z+0.5)/(z^2 - z + 0.5)', var: 'z', params: {}, panels: { transfer: true } });
+    const out = await scriptSet(b.page, { f: '0.4*(z+0.5)/(z^2 - z + 0.5)', var: 'z', params: {}, sample_period: 1, panels: { transfer: true } });
     assert.ok(out.ok, JSON.stringify(out.error));
     const tf = out.results.transfer_function;
     assert.equal(tf.domain, 'z');

@@ -61,10 +61,12 @@ function niceUp(x) {
 }
 
 /** The view [x0, x1, y0, y1] (square: the plot widens it to its own aspect) holding every point
- *  with a margin of FIT_MARGIN of the span, and at least a minimal size; with `decades` set (and
+ *  (the poles, the zeros and `extra` points that must be seen, such as the unit circle's four
+ *  extreme points for a discrete-time f) with a margin of FIT_MARGIN of the span, and at least a
+ *  minimal size; with `decades` set (and
  *  a one-line `note`) when the nonzero pole moduli span more than FIT_DECADES. Null for no point. */
-export function fitView(poles, zeros) {
-  const pts = poles.concat(zeros);
+export function fitView(poles, zeros, extra = []) {
+  const pts = poles.concat(zeros, extra);
   if (!pts.length) return null;
   const xs = pts.map((p) => p[0]);
   const ys = pts.map((p) => p[1]);
@@ -135,3 +137,7 @@ export function nudgeNote(variable, nudge, poles) {
   const what = poles.includes(nudge.at) ? 'pole' : 'zero';
   return `The region was widened by ${fmtReal(nudge.widenedBy, 3)} on every side so that the ${what} at ${variable} = ${fmtComplex(nudge.at, 6)} is not on its edge.`;
 }
+
+/** The unit circle's extreme points: a discrete-time transfer function's view holds the circle
+ *  (its stability boundary, common practice for z-plane diagrams). */
+export const UNIT_CIRCLE_BOX = [[1, 0], [-1, 0], [0, 1], [0, -1]];

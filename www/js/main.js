@@ -11,20 +11,20 @@ import { createRegionEditor } from './region.js';
 import { createPipeline } from './pipeline.js';
 import { attachInverseSection } from './inverse.js';
 import { drawInverseChart } from './inverse-chart.js';
-import { attachTransferSection, redrawTransfer, transferOpen, transferRequest, showTransfer } from './transfer.js';
+import { attachTransferSection, redrawTransfer, transferOpen, transferRequest, showTransfer, setTransferDomain, transferDomain } from './transfer.js';
 import { inverseRequest, showInverse, currentInverseSpan } from './inverse.js';
 import { createPoleDrag, liveTransferRequest, liveInverseRequest } from './pole-drag.js';
 import { createTrails } from './trails.js';
 import { drawWheelKey, fillMarkerKey } from './legend.js';
 import { setSymbols, refreshMarkerIcons } from './markers.js';
 import { demoList, demoState, fillExampleMenu, forgetExampleIfChanged } from './demos.js';
-import { rationalAnalysis, fitView } from './fit.js';
+import { rationalAnalysis, fitView, UNIT_CIRCLE_BOX } from './fit.js';
 import { installScripting, applyTransferState } from './scripting.js';
 import { attachEntryForms } from './entry-forms.js';
 
 const state = loadState();
 const ui = {
-  expr: $('expr'), mirror: $('expr-mirror'), message: $('expr-message'), varName: $('var-name'),
+  expr: $('expr'), mirror: $('expr-mirror'), message: $('expr-message'), varName: $('var-name'), varDomain: $('var-domain'),
   params: $('params'), modulus: $('opt-modulus'), phase: $('opt-phase'), infinity: $('opt-infinity'),
   wheel: $('opt-wheel'), symbols: $('opt-symbols'), canvas: $('plot'), readout: $('readout'), plotStatus: $('plot-status'),
   fit: $('zoom-fit'), fitNote: $('fit-note'), fitNoteText: $('fit-note-text'), zoomSmall: $('zoom-small'), regionNote: $('region-note'),
@@ -138,7 +138,8 @@ async function fitToPoints() {
   const base = functionInput(state);
   const known = await rationalAnalysis(base);
   if (JSON.stringify(functionInput(state)) !== JSON.stringify(base) || state.infinity) return false;
-  const fit = known && known.rational ? fitView(known.poles, known.zeros) : null;
+  const extra = transferDomain(base.var) === 'z' ? UNIT_CIRCLE_BOX : [];
+  const fit = known && known.rational ? fitView(known.poles, known.zeros, extra) : null;
   ui.fit.hidden = !fit;
   if (!fit) return false;
   ui.fitNote.hidden = !fit.decades;
@@ -273,6 +274,7 @@ function applyStateToControls() {
 ui.expr.addEventListener('input', () => { state.f = ui.expr.value; poleDrag.forget(); inputsChanged(); });
 ui.expr.addEventListener('scroll', () => { ui.mirror.scrollTop = ui.expr.scrollTop; });
 ui.varName.addEventListener('input', () => { state.var = ui.varName.value; applyAxisName(); plot.draw(); inputsChanged(); });
+ui.varDomain.addEventListener('change', () => { state.domain = ui.varDomain.value; setTransferDomain(state.domain); inputsChanged(); });
 $('add-param').addEventListener('click', () => {
   const used = new Set(state.params.map((p) => p.name));
   const name = ['a', 'b', 'c', 'k', 'w0', 'zeta', 'tau'].find((n) => !used.has(n)) || 'p' + (state.params.length + 1);

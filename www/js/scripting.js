@@ -8,7 +8,7 @@ import { paramsForRequest, functionInput } from './params.js';
 import { sanitize, saveState } from './state.js';
 import { regionProblem } from './region.js';
 import { askInverse, currentInverseSpan } from './inverse.js';
-import { askTransfer, transferOpen, setTransferPoint, currentTransferPoint } from './transfer.js';
+import { askTransfer, transferOpen, setTransferPoint, currentTransferPoint, setTransferDomain } from './transfer.js';
 
 /** A failure of set(): rejects with {code, message} (the contract's codes, plus the page's). */
 function scriptError(code, message) {
@@ -42,7 +42,7 @@ function regionFrom(value, region) {
 }
 
 const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',
-  'hz', 'sample_period', 'point', 'trails'];
+  'hz', 'sample_period', 'point', 'trails', 'domain', 'mode'];
 
 /** The transfer section's controls from the page state: the unit (#tf-unit), the sampling period
  *  (#tf-period) and the encirclement point (transfer.js's setTransferPoint). */
@@ -51,6 +51,8 @@ export function applyTransferState(page) {
   ui.tf.unit.value = state.hz ? 'Hz' : 'rad/s';
   ui.tf.period.value = String(state.sample_period);
   setTransferPoint(state.point.slice());
+  setTransferDomain(state.domain);
+  if (ui.varDomain) ui.varDomain.value = state.domain;
 }
 
 /** The encirclement point in use: transfer.js's (a click on its chart may have moved it), else the state's. */
@@ -86,7 +88,9 @@ function nextPageState(current, partial) {
     const T = partial.sample_period;
     if (!isNum(T)) throw scriptError('bad_request', 'sample_period must be a number');
     if (!(T > 0)) throw scriptError('invalid_field', 'sample_period must be T > 0');
-    if ((next.var.trim() || 'z') !== 'z') throw scriptError('invalid_field', 'sample_period is for var z only (a discrete-time F(z))');
+    const d = 'domain' in partial ? (partial.domain === null ? 'none' : partial.domain) : next.domain;
+    const discrete = d === 'z' || (d === 'auto' && (next.var.trim() || 'z') === 'z');
+    if (!discrete) throw scriptError('invalid_field', 'sample_period is for a discrete-time F: var z, or domain "z"');
     next.sample_period = T;
   }
   if ('point' in partial) {
@@ -97,6 +101,12 @@ function nextPageState(current, partial) {
   }
   if ('wheel' in partial) { if (!['oklch', 'hsv'].includes(partial.wheel)) throw scriptError('invalid_field', 'wheel must be "oklch" or "hsv"'); next.wheel = partial.wheel; }
   if ('trails' in partial) next.trails = trailsFrom(partial.trails);
+  if ('domain' in partial) {
+    const d = partial.domain === null ? 'none' : partial.domain;
+    if (!['auto', 's', 'z', 'none'].includes(d)) throw scriptError('invalid_field', 'domain must be "s", "z", "auto" (by the variable\'s name) or null (not read as a transfer function)');
+    next.domain = d;
+  }
+  if ('mode' in partial && !['transfer_function', 'function'].includes(partial.mode)) throw scriptError('invalid_field', 'mode must be "transfer_function" or "function"');
   return sanitize(next);
 }
 
@@ -148,13 +158,16 @@ export function installScripting(page, hooks) {
       panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page) },
       modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, symbols: state.symbols, autoFind: state.autoFind,
       hz: state.hz, point: transferPoint(state),
+      domain: state.domain === 'none' ? null : state.domain,
+      mode: !ui.tf.box.hidden ? 'transfer_function' : 'function',
       trails: state.trails ? { name: state.trails.name, from: state.trails.from, to: state.trails.to, steps: state.trails.steps, shown: state.trails.shown } : null,
     };
     const res = page.results;
     if (res && res.contour && !ui.singTable.classList.contains('stale')) out.contour = res.contour; // as searched (a nudge moves it)
     const span = currentInverseSpan(page, v);
     if (v === 's') out.t = span;
-    if (v === 'z') { out.n = span; out.sample_period = state.sample_period; }
+    if (v === 'z') out.n = span;
+    if (state.domain === 'z' || (state.domain === 'auto' && v === 'z')) out.sample_period = state.sample_period;
     return out;
   }
 
@@ -191,7 +204,9 @@ export function installScripting(page, hooks) {
       ['inverse', 'transfer'].some((k) => panels[k] !== undefined && typeof panels[k] !== 'boolean'))) throw scriptError('bad_request', 'panels must be {inverse: true | false, transfer: true | false}');
     hooks.adopt(next);
     askInverse(page, v, span, panels ? panels.inverse : null);
-    askTransfer(panels ? panels.transfer : null);
+    // mode "transfer_function" opens the frequency-response section, "function" folds it (panels.transfer wins)
+    const modeOpen = partial.mode === 'transfer_function' ? true : partial.mode === 'function' ? false : null;
+    askTransfer(panels && typeof panels.transfer === 'boolean' ? panels.transfer : modeOpen);
     if (!hooks.checkNow()) {
       const { problems } = paramsForRequest(state.params);
       const resp = runNow(Object.assign(functionInput(state), { task: 'evaluate', at: [[0.31, 0.17]] }));

@@ -29,6 +29,7 @@ export function defaultState() {
     hz: false,           // the transfer section's frequency unit: Hz (true) or rad/s
     sample_period: 1,    // its sampling period T (z)
     point: [-1, 0],      // the point its encirclements are counted about
+    domain: 'auto',      // f read as a transfer function: 'auto' (by the variable's name), 's', 'z', 'none'
     trails: null, // pole trails for one parameter: {name, from, to, steps, shown} (trails.js)
   };
 }
@@ -55,6 +56,7 @@ export function sanitize(raw) {
   for (const k of ['modulus', 'phase', 'infinity', 'autoFind', 'hz']) if (typeof raw[k] === 'boolean') s[k] = raw[k];
   if (Number.isFinite(raw.sample_period) && raw.sample_period > 0) s.sample_period = raw.sample_period;
   if (Array.isArray(raw.point) && raw.point.length === 2 && raw.point.every(Number.isFinite)) s.point = raw.point.slice();
+  if (['auto', 's', 'z', 'none'].includes(raw.domain)) s.domain = raw.domain;
   if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
   if (raw.symbols === 'own' || raw.symbols === 'diagram') s.symbols = raw.symbols;
   const t = raw.trails;

@@ -17,8 +17,17 @@ import { drawPolarChart } from './polar-chart.js';
 import { attachCursor } from './chart-kit.js';
 import { setDataTable } from './data-table.js';
 
-/** Only these variables are read as a transfer function. */
+/** How f is read as a transfer function: 'auto' (by the variable's name: s continuous, z
+ *  discrete, any other not at all), 's', 'z', or 'none' (never). The page state's `domain`. */
+let chosenDomain = 'auto';
+export const DOMAIN_CHOICES = ['auto', 's', 'z', 'none'];
+export function setTransferDomain(d) { chosenDomain = DOMAIN_CHOICES.includes(d) ? d : 'auto'; }
+export function currentTransferDomain() { return chosenDomain; }
+
+/** The domain f in `variable` is read in ('s' or 'z'), or null when it is not read as a transfer function. */
 export function transferDomain(variable) {
+  if (chosenDomain === 'none') return null;
+  if (chosenDomain === 's' || chosenDomain === 'z') return chosenDomain;
   return variable === 's' || variable === 'z' ? variable : null;
 }
 
@@ -60,8 +69,9 @@ function samplePeriod(ui) {
 
 /** The request for the function `base` ({f, var, params}) with the section's choices. */
 export function transferRequest(base, ui) {
-  const req = { task: 'transfer_function', f: base.f, var: base.var, params: base.params, hz: ui.unit.value === 'Hz' };
-  if (base.var === 'z') req.sample_period = samplePeriod(ui);
+  const domain = transferDomain(base.var) || 's';
+  const req = { task: 'transfer_function', f: base.f, var: base.var, params: base.params, domain, hz: ui.unit.value === 'Hz' };
+  if (domain === 'z') req.sample_period = samplePeriod(ui);
   if (section.point) req.point = section.point.slice();
   return req;
 }
@@ -402,7 +412,7 @@ export async function prepareTransfer(page, base) {
   tf.box.hidden = !shown;
   // A function that reads as a transfer function opens the section when it is new (typed, an
   // example, a link, set()); folding it keeps it folded while the function stays the same.
-  const fresh = JSON.stringify([base.f, base.var, base.params]);
+  const fresh = JSON.stringify([base.f, base.var, base.params, domain]);
   if (typeof section.forceOpen === 'boolean') tf.box.open = section.forceOpen;
   else if (shown && fresh !== section.openedFor) tf.box.open = true;
   section.forceOpen = null;
