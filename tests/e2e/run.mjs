@@ -1297,6 +1297,20 @@ describe('moving poles and zeros, pole trails', () => {
     assert.deepEqual(b.log.errors, []);
   });
 
+  test('a delay\'s jump is sampled on both sides: e^(−2s)/(s + 1) ↔ e^(−(t−2)) H(t − 2)', async () => {
+    // the shift theorem with the pair 1/(s + 1) ↔ e^(−t) (Laplace-transform tables, from memory)
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: 'exp(-2*s)/(s+1)', var: 's', params: {}, panels: { inverse: true }, t: 6 });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const inv = out.results.inverse_laplace;
+    assert.deepEqual(inv.delays, [2]);
+    const before = inv.t.findIndex((t) => t < 2 && t > 2 - 1e-6), after = inv.t.findIndex((t) => t > 2 && t < 2 + 1e-6);
+    assert.ok(before >= 0 && after >= 0, 'times just before and just after the jump');
+    assert.equal(inv.f[before], 0);
+    assert.ok(Math.abs(inv.f[after] - Math.exp(-(inv.t[after] - 2))) < 1e-12, `f just after the jump: ${inv.f[after]}`);
+    inv.t.forEach((t, i) => { if (t > 2 + 1e-6 || t < 2 - 1e-6) assert.ok(Math.abs(inv.f[i] - (t > 2 ? Math.exp(-(t - 2)) : 0)) < 1e-9, `f(${t}) = ${inv.f[i]}`); });
+  });
+
   test('a numerical inverse Laplace transform shades its error band: J0(t) from 1/(sqrt(s+i) sqrt(s-i))', async () => {
     await load(b.page);
     const out = await scriptSet(b.page, { f: '1/(sqrt(s+i)*sqrt(s-i))', var: 's', params: {}, panels: { inverse: true }, t: 10 });

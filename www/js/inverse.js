@@ -56,8 +56,24 @@ export function inverseRequest(base, span, items) {
   return { task: 'inverse_z', X: base.f, var: 'z', params: base.params, n };
 }
 
-export function requestInverse(base, span, items) {
-  return runHeavy(inverseRequest(base, span, items));
+/** `request` (inverse_laplace on a uniform grid) with times packed around each delay τ inside it:
+ *  τ(1 ∓ 1e-9) (the values just before and after the jump) and τ ± kh/4, k = 1…3 (h the grid
+ *  step); null when no delay falls inside or the grid is not a Laplace one. */
+export function denserNearJumps(request, delays) {
+  if (request.task !== 'inverse_laplace' || !Array.isArray(delays) || !delays.length) return null;
+  const t = request.t;
+  const T = t[t.length - 1];
+  const h = T / t.length;
+  const inside = delays.filter((d) => Number.isFinite(d) && d > 0 && d < T);
+  if (!inside.length) return null;
+  const extra = [];
+  for (const d of inside) {
+    extra.push(d * (1 - 1e-9), d * (1 + 1e-9));
+    for (let k = 1; k <= 3; k++) extra.push(d - (k * h) / 4, d + (k * h) / 4);
+  }
+  const all = Array.from(new Set(t.concat(extra.filter((x) => x > 0 && x <= T)))).sort((a, b) => a - b);
+  if (all.length > 10000) return null;
+  return Object.assign({}, request, { t: all });
 }
 
 /** A status line and a look ('busy', 'stale', 'done', 'error', 'closed'). */
@@ -211,13 +227,22 @@ export async function runInverse(page, base) {
   if (!kind) return;
   const span = inverseSpan(page, kind);
   if (!inverseSection.spanTyped) inv.span.value = String(span);
-  const request = inverseRequest(base, span, page.found.items);
+  const asked = inverseRequest(base, span, page.found.items);
   const serial = ++inverseSection.serial;
   inverseStatus(inv, kind === 'laplace' ? 'Computing f(t)…' : 'Computing x[n]…', 'busy');
-  const resp = await requestInverse(base, span, page.found.items);
+  let request = asked;
+  let resp = await runHeavy(asked);
   if (serial !== inverseSection.serial) return;
+  // f jumps at each delay τ: sample again with times packed around the jumps, so the chart shows
+  // each jump where it is instead of a slope across one sampling interval
+  const denser = responseError(resp) ? null : denserNearJumps(asked, resp.delays);
+  if (denser) {
+    const again = await runHeavy(denser);
+    if (serial !== inverseSection.serial) return;
+    if (!responseError(again)) { request = denser; resp = again; }
+  }
   showInverse(inv, request, resp);
-  inverseSection.key = JSON.stringify(request);
+  inverseSection.key = JSON.stringify(asked);
   if (page.results) { page.results.inverse = resp; page.results.inverseRequest = request; }
 }
 
