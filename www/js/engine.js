@@ -5,7 +5,7 @@
 // When workers are not available everything runs on the main thread in small steps.
 import * as wasmGlue from '../../dist/pkg/residuary.js';
 
-/* global WASM_BASE64, GLUE_SOURCE, WORKER_SOURCE */
+/* global WASM_GZIP_BASE64, GLUE_SOURCE, WORKER_SOURCE */
 
 export const Engine = {
   ready: false,
@@ -45,6 +45,15 @@ function decodeBase64(text) {
   return bytes;
 }
 
+/** The core's wasm bytes from the page: base64 of gzip, inflated by the browser's own
+ *  DecompressionStream (every current browser has it; without it the core cannot start, and the
+ *  page says so). */
+async function wasmBytes(text) {
+  if (typeof DecompressionStream !== 'function') throw new Error('this browser cannot inflate the page\'s compressed core (it has no DecompressionStream); use a current browser');
+  const stream = new Blob([decodeBase64(text)]).stream().pipeThrough(new DecompressionStream('gzip'));
+  return new Uint8Array(await new Response(stream).arrayBuffer());
+}
+
 /** An error response from a thrown value: the core's own error object passes through as it is;
  *  anything else (a trap, a failed call) becomes code "internal", or `code` when given. */
 function errorObject(e, code = 'internal') {
@@ -55,8 +64,8 @@ function errorObject(e, code = 'internal') {
 /** Load the core; resolves with {ok, message}. Never rejects. */
 export async function startEngine() {
   try {
-    if (typeof WASM_BASE64 === 'string') {
-      Engine.module = await WebAssembly.compile(decodeBase64(WASM_BASE64));
+    if (typeof WASM_GZIP_BASE64 === 'string') {
+      Engine.module = await WebAssembly.compile(await wasmBytes(WASM_GZIP_BASE64));
       await wasmGlue.default({ module_or_path: Engine.module });
     } else {
       await wasmGlue.default();

@@ -33,7 +33,7 @@ export function transferDomain(variable) {
 
 /** What the section shows and asks: the request it answers (key), the chosen unit and sampling
  *  period, and a serial that makes an answer arriving after Stop or a newer request go unused. */
-const section = { key: '', serial: 0, forceOpen: null, chart: null, openedFor: '',
+const section = { key: '', serial: 0, forceOpen: null, chart: null, openedFor: '', autoOpened: false,
   point: null,        // the point the encirclements are counted about ([re, im]); null: −1
   polar: null,        // {samples: [{re, im, w, kind}], about, unit, domain}: the polar plot's data
   shown: 0,           // counts the responses shown (a deferred drawing of an older one is dropped)
@@ -413,8 +413,9 @@ export async function prepareTransfer(page, base) {
   // A function that reads as a transfer function opens the section when it is new (typed, an
   // example, a link, set()); folding it keeps it folded while the function stays the same.
   const fresh = JSON.stringify([base.f, base.var, base.params, domain]);
+  section.autoOpened = false;
   if (typeof section.forceOpen === 'boolean') tf.box.open = section.forceOpen;
-  else if (shown && fresh !== section.openedFor) tf.box.open = true;
+  else if (shown && fresh !== section.openedFor) { tf.box.open = true; section.autoOpened = true; }
   section.forceOpen = null;
   if (shown) section.openedFor = fresh;
   if (!shown) return;
@@ -438,6 +439,11 @@ export async function runTransfer(page, base) {
   const resp = await runHeavy(request);
   if (serial !== section.serial) return;
   showTransfer(tf, request, resp);
+  // opened by itself for a function the reading does not apply to (an improper F(z)): folded
+  // again, its reason kept inside
+  const err = responseError(resp);
+  if (section.autoOpened && err && err.code === 'not_applicable') tf.box.open = false;
+  section.autoOpened = false;
   section.key = JSON.stringify(request);
   if (page.results) { page.results.transfer_function = resp; page.results.transferRequest = request; }
 }
