@@ -11,9 +11,9 @@ import { createRegionEditor } from './region.js';
 import { createPipeline } from './pipeline.js';
 import { attachInverseSection } from './inverse.js';
 import { drawInverseChart } from './inverse-chart.js';
-import { attachTransferSection, redrawTransfer, transferOpen, transferRequest, showTransfer, setTransferDomain, transferDomain } from './transfer.js';
-import { inverseRequest, showInverse, currentInverseSpan } from './inverse.js';
-import { createPoleDrag, liveTransferRequest, liveInverseRequest } from './pole-drag.js';
+import { attachTransferSection, redrawTransfer, setTransferDomain, transferDomain } from './transfer.js';
+import { createPoleDrag } from './pole-drag.js';
+import { createLivePath } from './live.js';
 import { createTrails } from './trails.js';
 import { drawWheelKey, fillMarkerKey } from './legend.js';
 import { setSymbols, refreshMarkerIcons } from './markers.js';
@@ -153,74 +153,22 @@ async function fitToPoints() {
   return true;
 }
 
-// ---- the live path: a pole or zero being dragged, a parameter slider moving --------------------
-// Every view follows the newest f: the coarse phase plot, the transfer section and the inverse
-// transform when open. One request of each kind is in flight at a time; when it answers, the
-// newest f (if it changed meanwhile) goes next, so stale states are skipped. The full search runs
-// once on release. performance marks (residuary-live-f/plot/transfer-<n>) time it (bench/page-drag.mjs).
-const live = { serial: 0, stale: false, plot: { busy: false, again: false }, tf: { busy: false, again: false }, inv: { busy: false, again: false } };
-
-async function liveLoop(slot, work) {
-  if (slot.busy) { slot.again = true; return; }
-  slot.busy = true;
-  do {
-    slot.again = false;
-    const serial = live.serial;
-    if (await work(serial) !== false) performance.mark(`residuary-live-${slot.name}-${serial}`);
-  } while (slot.again);
-  slot.busy = false;
-}
-live.plot.name = 'plot'; live.tf.name = 'transfer'; live.inv.name = 'inverse';
-
-function liveUpdate() {
-  live.serial++;
-  performance.mark(`residuary-live-f-${live.serial}`);
-  if (!live.stale) {
-    // the table and every result no longer belong to f; the markers being moved stay
-    const keep = plot.markers;
-    pipeline.markStale();
-    plot.markers = keep;
-    live.stale = true;
-    ui.findStatus.textContent = 'Changing: the search runs once you let go.';
-  }
-  forgetExampleIfChanged(state);
-  persist();
-  showUnderline(ui.mirror, state.f, null);
-  syncMirror(ui.expr, ui.mirror);
-  page.exprOk = true;
-  liveLoop(live.plot, () => plot.renderLive());
-  if (transferOpen(page)) liveLoop(live.tf, liveTransfer);
-  if (!ui.inv.box.hidden && ui.inv.box.open) liveLoop(live.inv, liveInverse);
-  trails.changed();
-}
-
-/** One live transfer reading: the section's request on thinned grids (pole-drag.js); dropped
- *  when the change was completed meanwhile (the search's own reading wins). */
-async function liveTransfer() {
-  const previous = page.results && page.results.transfer_function;
-  if (previous && !live.tfPrevious) live.tfPrevious = previous;
-  const request = liveTransferRequest(transferRequest(functionInput(state), ui.tf), live.tfPrevious);
-  const resp = await runHeavy(request);
-  if (!live.stale) return false;
-  showTransfer(ui.tf, request, resp);
-  return true;
-}
-
-/** One live inverse transform (thinned times, pole-drag.js); dropped like liveTransfer. */
-async function liveInverse() {
-  const base = functionInput(state);
-  const span = currentInverseSpan(page, base.var);
-  if (!span) return false;
-  const request = liveInverseRequest(inverseRequest(base, span, page.found.items));
-  const resp = await runHeavy(request);
-  if (!live.stale) return false;
-  showInverse(ui.inv, request, resp);
-  return true;
-}
+const live = createLivePath(page, {
+  plot, pipeline,
+  /** What a live change does at once besides the views: the state kept, the underline follows. */
+  edited() {
+    forgetExampleIfChanged(state);
+    persist();
+    showUnderline(ui.mirror, state.f, null);
+    syncMirror(ui.expr, ui.mirror);
+  },
+  trailsChanged: () => trails.changed(),
+});
+const liveUpdate = () => live.update();
 
 /** The change is complete (a drag let go, a slider released, an undo): check and search now. */
 function commitNow() {
-  live.tfPrevious = null;
+  live.committed();
   markChanged();
   afterTyping.cancel();
   if (checkTyped()) pipeline.find();
@@ -242,7 +190,7 @@ function inputsChanged(how) {
 /** What every change of f, its variable or its parameters does at once: the results go stale,
  *  the state is kept, the underline follows the text. */
 function markChanged() {
-  live.stale = false;
+  live.settle();
   forgetExampleIfChanged(state);
   ui.fitNote.hidden = true;
   pipeline.markStale();

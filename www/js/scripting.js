@@ -223,7 +223,10 @@ export function installScripting(page, hooks) {
     if (outcome.status === 'failed') throw scriptError(outcome.error.code, outcome.error.message);
     if (outcome.status === 'superseded') throw scriptError('cancelled', 'a newer change or Stop came in before the panels finished');
     // the trails: computed after the search (a refresh already under way may supersede one call)
-    for (let i = 0; i < 3 && state.trails && state.trails.shown && !page.trailsResult; i++) await hooks.trails();
+    if (state.trails && state.trails.shown) {
+      await hooks.trails();
+      for (let i = 0; i < 3 && !page.trailsResult; i++) await hooks.trails();
+    }
     return currentResults();
   }
 
