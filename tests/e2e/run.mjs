@@ -1275,6 +1275,33 @@ describe('moving poles and zeros, pole trails', () => {
     assert.deepEqual(b.log.errors, []);
   });
 
+  test('a selected pole moves from the keyboard: Alt + arrows, applied when Alt is let go', async () => {
+    const typed = '1/((s+1)*(s^2+0.4*s+4))';
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: typed, var: 's', params: {} });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    await b.page.waitForFunction(() => document.getElementById('plot').dataset.draggable === 'true', null, { timeout: 20000 });
+    const upper = [-0.2, Math.sqrt(3.96)]; // s^2 + 0.4 s + 4 = 0 (quadratic formula, by hand)
+    const m = await plotMap(b.page);
+    const at = m.toPx(upper);
+    await b.page.mouse.click(at[0], at[1]); // selects the marker (a click that does not move)
+    await b.page.focus('#plot');
+    await b.page.keyboard.down('Alt');
+    for (let i = 0; i < 5; i++) await b.page.keyboard.press('ArrowLeft');
+    await b.page.keyboard.press('ArrowUp');
+    await b.page.keyboard.up('Alt');
+    await b.page.evaluate(() => window.residuary.settled());
+    const want = [upper[0] - 20 * m.scale, upper[1] + 4 * m.scale]; // 4 pixels a press
+    const poles = await poleList(b.page);
+    const near = (p, q) => Math.hypot(p[0] - q[0], p[1] - q[1]) <= 1e-4 * Math.max(1, Math.hypot(...q));
+    assert.ok(poles.some((p) => near(p, want)), `no pole at ${want}: ${JSON.stringify(poles)}`);
+    assert.ok(poles.some((p) => near(p, [want[0], -want[1]])), `the mirror: ${JSON.stringify(poles)}`);
+    assert.ok(poles.some((p) => near(p, [-1, 0])), 'the real pole stays');
+    await b.page.click('#drag-undo');
+    await b.page.evaluate(() => window.residuary.settled());
+    assert.equal((await scriptState(b.page)).f, typed);
+  });
+
   test('trails through window.residuary: set({trails}) resolves with results().pole_trails; a bad trails field is refused', async () => {
     await load(b.page);
     // (s + k)/(s^2 + k^2): poles ±ik, zero −k (by hand)

@@ -78,6 +78,8 @@ const plot = createPlot(ui.canvas, {
   onMarkerDrag: (p) => poleDrag.move(p),
   onMarkerDragEnd: () => { delete ui.canvas.dataset.dragging; poleDrag.end(); },
   onUndo: () => poleDrag.undo(),
+  onMarkerNudge: (index, d) => poleDrag.nudge(index, d),
+  onMarkerNudgeEnd: () => poleDrag.nudgeEnd(),
   onStatus: (what) => {
     ui.plotStatus.textContent = what === 'drawing' ? 'Drawing…' : what === 'error' ? 'Plot failed (see the message on the plot).' : '';
     ui.canvas.dataset.status = what;

@@ -187,10 +187,29 @@ export function createPoleDrag(page, hooks) {
     return true;
   }
 
+  /** Alt + arrows on marker `index`: the first press starts a drag, each press moves the root by
+   *  `d` (plane units); nudgeEnd() applies it like a pointer release. False when it cannot move. */
+  let nudgeAt = null;
+  function nudge(index, d) {
+    if (!drag.active) {
+      if (index < 0 || !start(index)) return false;
+      nudgeAt = page.plot.markers[index].at.slice();
+    }
+    if (!nudgeAt) return false; // a pointer drag is under way
+    nudgeAt = [nudgeAt[0] + d[0], nudgeAt[1] + d[1]];
+    move(nudgeAt);
+    return true;
+  }
+  function nudgeEnd() {
+    if (!nudgeAt) return;
+    nudgeAt = null;
+    end();
+  }
+
   /** f was typed or replaced: the undo list no longer applies. */
   function forget() { drag.undo.length = 0; drag.model = null; drag.modelKey = ''; showUndo(); }
 
-  return { prepare, start, move, end, undo, forget, get active() { return drag.active; }, get undoDepth() { return drag.undo.length; } };
+  return { prepare, start, move, end, nudge, nudgeEnd, undo, forget, get active() { return drag.active; }, get undoDepth() { return drag.undo.length; } };
 }
 
 /** At most this many frequencies and step times in a live transfer request (the full grids

@@ -7,7 +7,9 @@ import { markerAt, markerScreenPoint } from './overlays.js';
 
 /** Listen on `plot.canvas`. `viewChanged()` after every pan; `hooks.onPointer(point | null)`,
  *  `hooks.onMarkerClick(index)`; optional `hooks.onMarkerDragStart(index)` (true: move it),
- *  `hooks.onMarkerDrag(planePoint)`, `hooks.onMarkerDragEnd(moved)`, `hooks.onUndo()` (Ctrl+Z). Zooming goes through plot.zoom and plot.reset. */
+ *  `hooks.onMarkerDrag(planePoint)`, `hooks.onMarkerDragEnd(moved)`, `hooks.onUndo()` (Ctrl+Z),
+ *  `hooks.onMarkerNudge(index, [dx, dy])` (Alt + arrows on the selected marker; true: it moves) and
+ *  `hooks.onMarkerNudgeEnd()` (Alt let go, or the plot loses focus). Zooming goes through plot.zoom and plot.reset. */
 export function attachInput(plot, viewChanged, hooks) {
   const canvas = plot.canvas;
   const pointers = new Map();
@@ -113,6 +115,13 @@ export function attachInput(plot, viewChanged, hooks) {
       if (hooks.onUndo()) event.preventDefault();
       return;
     }
+    // Alt + arrows move the selected pole or zero (4 pixels a press, Shift: 40), as a drag that
+    // ends when Alt is let go
+    if (event.altKey && k.startsWith('Arrow') && hooks.onMarkerNudge) {
+      const step = (event.shiftKey ? 10 : 1) * 4 * plot.scale;
+      const d = { ArrowLeft: [-step, 0], ArrowRight: [step, 0], ArrowUp: [0, step], ArrowDown: [0, -step] }[k];
+      if (d && hooks.onMarkerNudge(plot.selected, d)) { event.preventDefault(); return; }
+    }
     const pan = 40 * plot.scale;
     if (k === '+' || k === '=') plot.zoom(1 / 1.25);
     else if (k === '-' || k === '_') plot.zoom(1.25);
@@ -124,4 +133,7 @@ export function attachInput(plot, viewChanged, hooks) {
     else return;
     event.preventDefault();
   });
+  const nudgeDone = () => { if (hooks.onMarkerNudgeEnd) hooks.onMarkerNudgeEnd(); };
+  canvas.addEventListener('keyup', (event) => { if (event.key === 'Alt') nudgeDone(); });
+  canvas.addEventListener('blur', nudgeDone);
 }
