@@ -21,6 +21,7 @@ import { demoList, demoState, fillExampleMenu, forgetExampleIfChanged } from './
 import { rationalAnalysis, fitView } from './fit.js';
 import { installScripting, applyTransferState } from './scripting.js';
 import { attachEntryForms } from './entry-forms.js';
+import { attachRealIntegral } from './real-integral.js';
 
 const state = loadState();
 const ui = {
@@ -89,6 +90,8 @@ const region = createRegionEditor(page, () => { pipeline.regionMoved(); plot.dra
 const pipeline = createPipeline(page, { contour: () => region.contour(), describePlot: () => { describePlot(); poleDrag.prepare(); } });
 attachInverseSection(page);
 attachTransferSection(page);
+// The real-integral block (real-integral.js): recomputed when open and f or its fields change.
+const realIntegral = attachRealIntegral(page, { redraw: () => plot.draw(), persist: () => persist(), show: (v) => plot.show(v) });
 
 function applyAxisName() {
   plot.axisName = state.infinity ? 'w' : (state.var.trim() || 'z');
@@ -188,6 +191,7 @@ function liveUpdate() {
   syncMirror(ui.expr, ui.mirror);
   page.exprOk = true;
   liveLoop(live.plot, () => plot.renderLive());
+  realIntegral.changed();
   if (transferOpen(page)) liveLoop(live.tf, liveTransfer);
   if (!ui.inv.box.hidden && ui.inv.box.open) liveLoop(live.inv, liveInverse);
   trails.changed();
@@ -230,6 +234,7 @@ function commitNow() {
   afterTyping.cancel();
   if (checkTyped()) pipeline.find();
   trails.changed();
+  realIntegral.changed();
 }
 
 const poleDrag = createPoleDrag(page, { liveChanged: liveUpdate, released: commitNow, undone: commitNow });
@@ -248,6 +253,7 @@ function inputsChanged(how) {
   showUnderline(ui.mirror, state.f, null);
   syncMirror(ui.expr, ui.mirror);
   afterTyping();
+  realIntegral.changed();
 }
 
 function applyStateToControls() {
@@ -318,7 +324,7 @@ $('zoom-reset').addEventListener('click', () => plot.reset());
 ui.fit.addEventListener('click', () => fitToPoints());
 ui.zoomSmall.addEventListener('click', () => { if (page.smallView) plot.show(page.smallView); });
 ui.find.addEventListener('click', pipeline.find);
-ui.cancel.addEventListener('click', pipeline.stop);
+ui.cancel.addEventListener('click', () => { pipeline.stop(); realIntegral.stop(); });
 ui.autoFind.addEventListener('change', () => { state.autoFind = ui.autoFind.checked; persist(); });
 
 // ---- examples and links ------------------------------------------------------------------
@@ -419,4 +425,5 @@ installScripting(page, {
   fit: fitToPoints,
   contour: () => region.contour(),
   pipeline,
+  integral: realIntegral,
 });
