@@ -166,7 +166,7 @@ export function drawIntegralContour(plot) {
   if (c.shape === 'unit_circle') {
     ctx.arc(ox, oy, rad(1), 0, 2 * Math.PI);
   } else if (c.shape === 'keyhole') {
-    const eps = c.inner_radius, gap = Math.min(0.08, 0.3 * eps / R);
+    const eps = c.inner_radius, gap = Math.min(0.03, 0.3 * eps / R);
     const a = Math.asin(Math.min(0.9, gap * R / eps));
     ctx.moveTo(ox + rad(eps) * Math.cos(a), oy - rad(eps) * Math.sin(a));
     ctx.lineTo(ox + rad(R) * Math.cos(gap), oy - rad(R) * Math.sin(gap));
@@ -185,7 +185,7 @@ export function drawIntegralContour(plot) {
       ctx.arc(bx, by, rad(bump), Math.PI, 0, !up); // into the closing half-plane, the pole outside
     }
     ctx.lineTo(...px(R, 0));
-    ctx.arc(ox, oy, rad(R), 0, Math.PI, !up);
+    ctx.arc(ox, oy, rad(R), 0, Math.PI, up); // the canvas's y points down: anticlockwise on screen is the upper half
   }
   ctx.lineWidth = 3.5;
   ctx.strokeStyle = 'rgba(255,255,255,0.8)';
@@ -305,7 +305,7 @@ export function attachRealIntegral(page, hooks) {
       const step = (title, ...body) => ui.derivation.append(el('li', { 'data-step': title }, el('strong', { text: title + '. ' }), ...body));
       if (d.substitution) step('Substitution', el('span', { class: 'ri-sub', text: d.substitution + ': the integral becomes ∮ over |z| = 1 of g(z) dz.' }));
       const r = d.contour.radius;
-      const radius = d.contour.shape === 'unit_circle' ? '' : d.contour.shape === 'keyhole'
+      const radius = d.contour.shape === 'unit_circle' ? ' It lies in the plane of z = e^(iθ), not in the plane of the page’s variable: the plot draws it for reference, and the points in the table are points of that plane.' : d.contour.shape === 'keyhole'
         ? ` Drawn on the plot with R = ${fmtReal(r, 4)}, ε = ${fmtReal(d.contour.inner_radius, 4)} (the derivation lets R → ∞, ε → 0).`
         : ` Drawn on the plot with R = ${fmtReal(r, 4)} (the derivation lets R → ∞).`;
       const dents = d.contour.indentations.length
@@ -315,10 +315,10 @@ export function attachRealIntegral(page, hooks) {
       step('Residues', el('span', { text: `of ${d.residues_of} at the singular points the contour encloses (table).` }));
       step('Lemma', el('span', { class: 'ri-lemma', 'data-lemma': d.lemma, text: `${RI_LEMMA_WORDS[d.lemma] || d.lemma}: ${d.lemma_condition}.` }));
       const [fRow, fPlain] = residueFormula(resp);
-      const sumBox = el('div', { class: 'ri-sum' }, mathBlock(fRow, fPlain), mathBlock(mrow(mmo('='), mml('mtext', d.sum)), '= ' + d.sum, 'ri-math ri-written'));
+      const sumBox = el('div', { class: 'ri-sum' }, mathBlock(fRow, fPlain), el('code', { class: 'ri-written', text: '= ' + d.sum }));
       step('Sum', sumBox);
       for (const t of resp.residues_used) {
-        const cell = (z, e) => el('td', { class: 'num', title: 'Full precision: ' + fmtExact(z), text: fmtSig(e ? trimBelow(z, e) : z, 10) });
+        const cell = (z, e) => el('td', { class: 'num', title: 'Full precision: ' + fmtExact(z), text: fmtSig(e ? trimBelow(z, e) : z, 8) });
         ui.residues.append(el('tr', { title: t.note }, cell(t.at, 0), el('td', { class: 'num', text: t.order === null || t.order === undefined ? 'essential' : String(t.order) }),
           cell(t.residue, t.error_estimate), cell(t.weight, 0), el('td', { class: 'ri-note', text: t.note })));
       }
