@@ -1564,6 +1564,17 @@ describe('the real-integral section', () => {
     assert.equal(await b.page.evaluate(() => document.getElementById('ri-result').classList.contains('stale')), false);
   });
 
+  test('the dispersion example opens the section with its integral, π/(ab(a + b))', async () => {
+    const index = await b.page.evaluate(() => [...document.querySelectorAll('#demo-select option')].find((o) => o.textContent === 'Dispersion integrand').value);
+    await b.page.selectOption('#demo-select', index);
+    await b.page.waitForFunction(() => document.getElementById('ri-box').dataset.state === 'done', null, { timeout: 20000 });
+    const out = await b.page.evaluate(() => window.residuary.settled());
+    // ∫ dx/((x² + a²)(x² + b²)) = π/(ab(a + b)) (partial fractions into π/a and π/b terms, by hand), a = 1, b = 2.
+    near(out.real_integral.value, [Math.PI / 6, 0], 1e-12, 'the dispersion integral');
+    assert.equal(out.real_integral.request.var, 'x');
+    assert.equal(out.real_integral.residues_used.length, 2);
+  });
+
   test('folded, it sends nothing and results() leaves it out; no console errors', async () => {
     const out = await b.page.evaluate(() => window.residuary.set({ panels: { integral: false } }));
     assert.equal(out.real_integral, undefined);

@@ -352,7 +352,9 @@ select.addEventListener('change', () => {
   if (!d) return;
   page.readingOpenNext = Boolean(d.transfer_function);
   page.inverseOpenNext = Boolean(d.transfer_function);
-  adopt(Object.assign(demoState(d), { infinity: false, region: Object.assign({}, state.region, { mode: 'view' }) }));
+  const next = Object.assign(demoState(d), { infinity: false, region: Object.assign({}, state.region, { mode: 'view' }) });
+  if (d.real_integral) next.integral = Object.assign({}, state.integral, d.real_integral, { open: true }); // the example opens its integral
+  adopt(next);
   $('demo-description').hidden = !d.description;
   $('demo-description').textContent = d.description || '';
   // A rational example opens fitted to its poles and zeros.

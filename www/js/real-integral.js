@@ -69,6 +69,7 @@ const mrow = (...c) => mml('mrow', ...c);
 const msup = (b, e) => mml('msup', b, e);
 const msubsup = (b, lo, hi) => mml('msubsup', b, lo, hi);
 const msub = (b, lo) => mml('msub', b, lo);
+const mspace = () => { const sp = mml('mspace'); sp.setAttribute('width', '1em'); return sp; };
 const mnum = (x) => { const t = fmtReal(x, 10); return t.startsWith('−') ? mrow(mmo('−'), mmn(t.slice(1))) : mmn(t); };
 
 /** A formula: <math> with `alttext`, and the plain text in a copyable code element beside it. */
@@ -90,13 +91,13 @@ function integralStatement(kind, omega, alpha, pv, value) {
   const eq = [mmo('='), mml('mtext', value)];
   if (kind === 'line') return [mrow(...P, int(mrow(mmo('−'), mmi('∞')), mmi('∞')), ...fx, ...dx, ...eq), `${P_t}∫_{−∞}^{∞} f(x) dx = ${value}`];
   if (kind === 'fourier') {
-    return [mrow(...P, int(mrow(mmo('−'), mmi('∞')), mmi('∞')), ...fx, msup(mmi('e'), mrow(mmi('i'), mmi('ω'), mmi(x))), ...dx, mmo(','), mmi('ω'), mmo('='), mnum(omega), ...eq),
-      `${P_t}∫_{−∞}^{∞} f(x) e^(iωx) dx, ω = ${fmtReal(omega, 10)}, = ${value}`];
+    return [mrow(...P, int(mrow(mmo('−'), mmi('∞')), mmi('∞')), ...fx, msup(mmi('e'), mrow(mmi('i'), mmi('ω'), mmi(x))), ...dx, ...eq, mspace(), mmo('('), mmi('ω'), mmo('='), mnum(omega), mmo(')')),
+      `${P_t}∫_{−∞}^{∞} f(x) e^(iωx) dx = ${value}   (ω = ${fmtReal(omega, 10)})`];
   }
   if (kind === 'trig') return [mrow(int(mmn('0'), mrow(mmn('2'), mmi('π'))), ...fx, ...dx, ...eq), `∫_0^{2π} f(θ) dθ = ${value}`];
   const a = Array.isArray(alpha) ? fmtSig(alpha, 10) : fmtReal(alpha, 10);
-  return [mrow(int(mmn('0'), mmi('∞')), msup(mmi('x'), mrow(mmi('α'), mmo('−'), mmn('1'))), ...fx, ...dx, mmo(','), mmi('α'), mmo('='), mml('mtext', a), ...eq),
-    `∫_0^∞ x^(α−1) f(x) dx, α = ${a}, = ${value}`];
+  return [mrow(int(mmn('0'), mmi('∞')), msup(mmi('x'), mrow(mmi('α'), mmo('−'), mmn('1'))), ...fx, ...dx, ...eq, mspace(), mmo('('), mmi('α'), mmo('='), mml('mtext', a), mmo(')')),
+    `∫_0^∞ x^(α−1) f(x) dx = ${value}   (α = ${a})`];
 }
 
 /** The residue formula of the derivation, as MathML and text. */
