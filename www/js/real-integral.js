@@ -195,6 +195,25 @@ export function drawIntegralContour(plot) {
   ctx.lineWidth = 1.5;
   ctx.strokeStyle = 'rgba(20,20,20,0.95)';
   ctx.stroke();
+  ctx.setLineDash([]);
+  // The direction of travel: arrowheads at plane points [x, y] pointing right (+1) or left (−1).
+  const arrows = c.shape === 'unit_circle' ? [[0, 1, -1], [0, -1, 1]]
+    : c.shape === 'keyhole' ? [[(R + c.inner_radius) / 2, 0, 1], [0, R, -1], [0, c.inner_radius, 1]]
+      : [[-R / 2, 0, 1], [0, c.shape === 'upper_half_disc' ? R : -R, -1]];
+  for (const [x, y, dir] of arrows) {
+    const [sx, sy] = px(x, y);
+    const yy = c.shape === 'keyhole' && y === 0 ? sy - 4 : sy;
+    ctx.beginPath();
+    ctx.moveTo(sx + 6 * dir, yy);
+    ctx.lineTo(sx - 5 * dir, yy - 5);
+    ctx.lineTo(sx - 5 * dir, yy + 5);
+    ctx.closePath();
+    ctx.fillStyle = 'rgba(20,20,20,0.95)';
+    ctx.strokeStyle = 'rgba(255,255,255,0.85)';
+    ctx.lineWidth = 1.5;
+    ctx.stroke();
+    ctx.fill();
+  }
   ctx.restore();
 }
 
