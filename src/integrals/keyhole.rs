@@ -68,6 +68,16 @@ pub fn check_alpha(num: &[C], den: &[C], alpha: C) -> Result<Strip, Failure> {
     Ok(Strip { at_zero: k, at_infinity: d })
 }
 
+/// The radii to draw the keyhole with: (R, ε), R beyond every pole, ε inside
+/// every pole but the branch point 0 (the derivation lets R → ∞, ε → 0).
+pub fn drawn_radii(a: &RationalAnalysis) -> (f64, f64) {
+    let norms = a.poles.iter().map(|p| p.at.norm()).filter(|r| *r > 0.0);
+    let (lo, hi) = norms.fold((f64::INFINITY, 0.0_f64), |(lo, hi), r| (lo.min(r), hi.max(r)));
+    let outer = 1.0 + 1.25 * hi;
+    let inner = if lo.is_finite() { (0.5 * lo).min(0.25 * outer) } else { 0.25 * outer };
+    (outer, inner)
+}
+
 /// The keyhole residue sum for the rational f analysed in `a` (α already
 /// checked by [`check_alpha`]); a pole on the positive real axis is refused
 /// (`Divergent`), a pole at 0 is the branch point and is skipped.

@@ -3,6 +3,7 @@
 //! Each file is one method with its `//! Method:` doc and a slow reference test.
 
 pub mod contour_residues;
+pub mod derivation;
 pub mod keyhole;
 pub mod product_residue;
 pub mod real_line;

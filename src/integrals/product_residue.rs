@@ -33,6 +33,15 @@ pub enum Role {
 }
 
 impl Role {
+    /// The pole's order (1 for a principal-value pole); `None` for an essential singularity.
+    pub fn order(self) -> Option<u32> {
+        match self {
+            Role::HalfPlanePole { order, .. } | Role::LocatedPole { order } | Role::DiskPole { order } | Role::KeyholePole { order } => Some(order),
+            Role::RealAxisPole => Some(1),
+            Role::DiskEssential => None,
+        }
+    }
+
     /// The point and its weight in words (the `note` of the real-integral response).
     pub fn note(self) -> String {
         match self {

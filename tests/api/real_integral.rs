@@ -332,3 +332,76 @@ fn a_removable_point_on_the_line_is_not_a_singularity() {
     // A true pole at the same place is still refused.
     assert!(error(request(json!({"f": "1/x", "var": "x", "kind": "line"}))).contains("diverges"));
 }
+
+/// The derivation's closing contour, lemma and written sum, per kind (the
+/// contours and lemmas of the residue method: Ahlfors, "Complex Analysis",
+/// 3rd ed., ch. 4 §5.3, from memory; the values are the handbook ones named).
+#[test]
+fn derivation_names_contour_lemma_and_sum() {
+    // ω > 0: upper half-disc, Jordan; ∫ e^{3ix}/(x²+4) dx = π e^{−6}/2 (G&R 3.723.2, from memory).
+    let r = call(request(json!({"kind": "fourier", "f": "1/(x^2+4)", "omega": 3})));
+    let d = &r["derivation"];
+    assert_eq!(d["contour"]["shape"], "upper_half_disc", "{r}");
+    assert_eq!(d["lemma"], "jordan");
+    assert_eq!(d["residues_of"], "f(z) e^(iωz)");
+    let radius = d["contour"]["radius"].as_f64().unwrap();
+    assert!(radius > 2.0, "the drawn radius encloses the pole 2i: {radius}");
+    assert_eq!(r["residues_used"][0]["order"], 1);
+    let exact = PI * (-6f64).exp() / 2.0;
+    let written = d["sum"].as_str().unwrap();
+    let total: f64 = written.rsplit("= ").next().unwrap().parse().unwrap();
+    assert!((total - exact).abs() < 1e-12 * exact, "{written}");
+
+    // ω < 0: lower half-disc, weight −2πi; the same value (f even).
+    let r = call(request(json!({"kind": "fourier", "f": "1/(x^2+4)", "omega": -3})));
+    assert_eq!(r["derivation"]["contour"]["shape"], "lower_half_disc");
+    assert_eq!(r["derivation"]["lemma"], "jordan");
+    assert!((cx(&r["residues_used"][0]["weight"]) - C::new(0.0, -2.0 * PI)).norm() < 1e-15);
+
+    // ω = 0 (line): ML estimate; ∫ x²/(x⁴+1) dx = π/√2 (G&R 3.241.2 with μ = 3, ν = 4, from memory).
+    let r = call(request(json!({"kind": "line", "f": "x^2/(x^4+1)"})));
+    let d = &r["derivation"];
+    assert_eq!(d["lemma"], "ml_estimate");
+    assert_eq!(d["contour"]["shape"], "upper_half_disc");
+    assert!(d["lemma_condition"].as_str().unwrap().contains("= 2"), "{d}");
+    assert_eq!(r["residues_used"].as_array().unwrap().len(), 2);
+    let total: f64 = d["sum"].as_str().unwrap().rsplit("= ").next().unwrap().parse().unwrap();
+    assert!((total - PI / 2f64.sqrt()).abs() < 1e-11, "{d}");
+
+    // A principal value: indented at 0; PV ∫ e^{ix}/x dx = iπ (Dirichlet integral, common practice).
+    let r = call(request(json!({"kind": "fourier", "f": "1/x", "omega": 1})));
+    assert_eq!(r["derivation"]["contour"]["indentations"], json!([[0.0, 0.0]]));
+    assert_eq!(r["residues_used"][0]["order"], 1);
+
+    // trig: unit circle, no lemma, the substitution; ∫ dθ/(2+cos θ) = 2π/√3 (from memory).
+    let r = call(request(json!({"kind": "trig", "f": "1/(2+cos(x))"})));
+    let d = &r["derivation"];
+    assert_eq!(d["contour"]["shape"], "unit_circle");
+    assert_eq!(d["contour"]["radius"], 1.0);
+    assert_eq!(d["lemma"], "none");
+    assert!(d["substitution"].as_str().unwrap().starts_with("z = e^(iθ), dθ = dz/(iz)"));
+    // The pole of g inside |z| = 1 is −2 + √3 (root of z² + 4z + 1, by hand).
+    assert!((cx(&r["residues_used"][0]["at"]) - C::new(3f64.sqrt() - 2.0, 0.0)).norm() < 1e-10);
+
+    // mellin: keyhole with the strip 0 < Re α < 1 of ∫ x^{α−1}/(1+x) dx = π/sin πα (DLMF 5.12.3, 5.5.3).
+    let r = call(request(json!({"kind": "mellin", "f": "1/(1+x)", "alpha": 0.25})));
+    let d = &r["derivation"];
+    assert_eq!(d["contour"]["shape"], "keyhole");
+    assert_eq!(d["lemma"], "keyhole_circles");
+    assert_eq!(d["strip"], json!([0, 1]));
+    let (inner, outer) = (d["contour"]["inner_radius"].as_f64().unwrap(), d["contour"]["radius"].as_f64().unwrap());
+    assert!(inner < 1.0 && outer > 1.0, "the circles bracket the pole −1: {d}");
+    let total: f64 = d["sum"].as_str().unwrap().rsplit("= ").next().unwrap().parse().unwrap();
+    assert!((total - PI / (PI / 4.0).sin()).abs() < 1e-11, "{d}");
+    // 1/(x(1+x)²): f ~ x^{−1} at 0, x^{−3} at ∞, so 1 < Re α < 3 (from memory).
+    let r = call(request(json!({"kind": "mellin", "f": "1/(x*(1+x)^2)", "alpha": 1.5})));
+    assert_eq!(r["derivation"]["strip"], json!([1, 3]), "{r}");
+}
+
+/// No residue side, no derivation: a branch amplitude is integrated by quadrature only.
+#[test]
+fn no_derivation_without_residues() {
+    let r = call(request(json!({"kind": "line", "f": "exp(-x^2)"})));
+    assert!(r["by_residues"].is_null(), "{r}");
+    assert!(r["derivation"].is_null(), "{r}");
+}

@@ -525,7 +525,7 @@ describe('the page with the real core', () => {
   test('scripting: state() after set equals what was set (normalised)', async () => {
     await load(b.page);
     const want = { f: '1/(z^2 + 0.5*z + 2)', var: 'z', params: { a: [0.3, 0.1], k: 2 }, view: [-2, 2, -2, 2],
-      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true, transfer: false }, n: 12 };
+      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true, transfer: false, integral: false }, n: 12 };
     const out = await scriptSet(b.page, want);
     assert.ok(out.ok, JSON.stringify(out.error));
     const got = await scriptState(b.page);
@@ -1584,6 +1584,138 @@ describe('entering f as a ratio of polynomials', () => {
     assert.deepEqual(out, [], 'outside the block or the window');
     await b.page.locator('#entry-box').screenshot({ path: join(artifacts, 'entry-phone.png') });
     await b.page.setViewportSize({ width: 1366, height: 768 });
+    assert.deepEqual(b.log.errors, []);
+    assert.deepEqual(b.log.requests, []);
+  });
+});
+
+// ---- the real-integral section (www/js/real-integral.js) ------------------------------------------
+// Each kind set through window.residuary and compared with mpmath quadrature at 30 digits
+// (tests/fixtures/gen_real_integral_page.py → real_integral_page.json, a handbook closed form
+// beside each there), both results().real_integral.value and the value shown on the page.
+describe('the real-integral section', () => {
+  const fixture = JSON.parse(readFileSync(join(root, 'tests', 'fixtures', 'real_integral_page.json'), 'utf8'));
+  let b;
+  before(async () => { b = await openBrowser({ width: 1366, height: 900 }); await load(b.page); });
+  after(async () => { if (b) await b.close(); });
+
+  /** "0.00553202719809 − 0.0780094386795i" → [re, im] (the page's minus sign is U+2212). */
+  const parseShown = (t) => {
+    const s = t.replace(/−/g, '-').replace(/\s+/g, '');
+    const m = /^([+-]?[\d.]+(?:e[+-]?\d+)?)?(?:([+-][\d.]*(?:e[+-]?\d+)?)i)?$/.exec(s);
+    assert.ok(m, `cannot read the shown value "${t}"`);
+    const re = m[1] !== undefined ? Number(m[1]) : 0;
+    const im = m[2] === undefined ? 0 : m[2] === '+' ? 1 : m[2] === '-' ? -1 : Number(m[2]);
+    if (m[1] !== undefined && m[2] === undefined && /i$/.test(s)) return [0, re];
+    return [re, im];
+  };
+  const near = (got, want, rel, what) => {
+    const d = Math.hypot(got[0] - want[0], got[1] - want[1]);
+    assert.ok(d <= rel * Math.max(1, Math.hypot(...want)), `${what}: ${JSON.stringify(got)} vs ${JSON.stringify(want)} (|Δ| = ${d})`);
+  };
+
+  for (const c of fixture.cases) {
+    test(`${c.name}: the value, the two ways agreeing and the derivation (${c.source})`, async () => {
+      const out = await b.page.evaluate((s) => window.residuary.set(s), c.state);
+      const ri = out.real_integral;
+      assert.ok(ri && !ri.error, JSON.stringify(ri));
+      assert.equal(ri.stale, false);
+      assert.equal(ri.request.kind, c.state.kind);
+      assert.equal(ri.request.var, 'z', 'the page\'s variable is the integrand\'s');
+      near(ri.value, c.value, 1e-10, 'results().real_integral.value');          // mpmath 30 digits
+      near(ri.by_quadrature, c.value, 1e-8, 'the independent quadrature');      // mpmath 30 digits
+      assert.ok(['agree', 'single'].includes(ri.verdict), ri.verdict);
+      assert.equal(ri.derivation.contour.shape, c.shape);
+      assert.equal(ri.derivation.lemma, c.lemma);
+      const shown = await b.page.evaluate(() => ({
+        value: document.querySelector('#ri-value .ci-number').textContent,
+        agree: document.getElementById('ri-box').dataset.agree,
+        drawn: document.getElementById('ri-box').dataset.drawn,
+        resultHidden: document.getElementById('ri-result').hidden,
+        math: document.querySelectorAll('#ri-statement math').length,
+        plain: document.querySelector('#ri-statement .ri-plain').textContent,
+        rows: document.querySelectorAll('#ri-residues tr').length,
+        steps: [...document.querySelectorAll('#ri-derivation li')].map((li) => li.dataset.step),
+        pv: !document.getElementById('ri-pv').hidden,
+        open: window.residuary.state().panels.integral,
+        kind: window.residuary.state().kind,
+      }));
+      assert.equal(shown.resultHidden, false);
+      near(parseShown(shown.value), c.value, 1e-10, 'the value shown');        // 12 digits shown
+      assert.equal(shown.agree, 'yes');
+      assert.equal(shown.drawn, c.shape, 'the closing contour is drawn on the plot');
+      assert.equal(shown.math, 1, 'the integral is typeset in MathML');
+      assert.ok(shown.plain.includes(shown.value), `the plain-text copy carries the value: ${shown.plain}`);
+      assert.equal(shown.rows, ri.residues_used.length);
+      assert.ok(shown.rows >= 1);
+      assert.deepEqual(shown.steps.filter((s) => s !== 'Substitution'), ['Closing contour', 'Residues', 'Lemma', 'Sum']);
+      assert.equal(shown.steps.includes('Substitution'), c.state.kind === 'trig');
+      assert.equal(shown.pv, c.name === 'principal value', 'a principal value is shown as such');
+      assert.equal(ri.principal_value, c.name === 'principal value');
+      if (ri.principal_value) assert.deepEqual(ri.derivation.contour.indentations, [[1, 0]]);
+      assert.equal(shown.open, true);
+      assert.equal(shown.kind, c.state.kind);
+      if (c.state.kind === 'fourier') assert.equal((await b.page.evaluate(() => window.residuary.state().omega)), c.state.omega);
+      if (c.state.kind === 'mellin') assert.equal((await b.page.evaluate(() => window.residuary.state().alpha)), c.state.alpha);
+      await b.page.screenshot({ path: join(artifacts, `real-integral-${c.state.kind}.png`) });
+    });
+  }
+
+  for (const c of fixture.divergent) {
+    test(`${c.name}: refused with the condition that fails`, async () => {
+      const out = await b.page.evaluate((s) => window.residuary.set(s), c.state);
+      const ri = out.real_integral;
+      assert.equal(ri.error.code, c.code, JSON.stringify(ri));
+      const shown = await b.page.evaluate(() => ({
+        refusal: document.getElementById('ri-refusal').textContent,
+        refusalHidden: document.getElementById('ri-refusal').hidden,
+        resultHidden: document.getElementById('ri-result').hidden,
+        drawn: document.getElementById('ri-box').dataset.drawn,
+      }));
+      assert.equal(shown.refusalHidden, false);
+      assert.equal(shown.resultHidden, true, 'no value is shown for a divergent integral');
+      assert.ok(shown.refusal.includes(ri.error.message), shown.refusal);
+      assert.ok(/diverge/.test(shown.refusal));
+      assert.equal(shown.drawn, '');
+    });
+  }
+
+  test('a result computed for another f is stale and inert until recomputed', async () => {
+    // ∫ dx/(x² + 1) = π (common practice).
+    await b.page.evaluate(() => window.residuary.set({ f: '1/(z^2+1)', var: 'z', kind: 'line' }));
+    await b.page.fill('#expr', '1/(z^2+4)');
+    const during = await b.page.evaluate(() => ({
+      stale: window.residuary.results().real_integral.stale,
+      dimmed: document.getElementById('ri-result').classList.contains('stale'),
+      pointer: getComputedStyle(document.getElementById('ri-result')).pointerEvents,
+      label: document.getElementById('ri-stale').textContent,
+    }));
+    assert.equal(during.stale, true);
+    assert.equal(during.dimmed, true);
+    assert.equal(during.pointer, 'none');
+    assert.ok(during.label.includes('1/(z^2+1)'), during.label);
+    const after = await b.page.evaluate(() => window.residuary.settled());
+    // ∫ dx/(x² + 4) = π/2 (common practice).
+    near(after.real_integral.value, [Math.PI / 2, 0], 1e-12, '∫ 1/(x²+4)');
+    assert.equal(after.real_integral.stale, false);
+    assert.equal(await b.page.evaluate(() => document.getElementById('ri-result').classList.contains('stale')), false);
+  });
+
+  test('the dispersion example opens the section with its integral, π/(ab(a + b))', async () => {
+    const index = await b.page.evaluate(() => [...document.querySelectorAll('#demo-select option')].find((o) => o.textContent === 'Dispersion integrand').value);
+    await b.page.selectOption('#demo-select', index);
+    await b.page.waitForFunction(() => document.getElementById('ri-box').dataset.state === 'done', null, { timeout: 20000 });
+    const out = await b.page.evaluate(() => window.residuary.settled());
+    // ∫ dx/((x² + a²)(x² + b²)) = π/(ab(a + b)) (partial fractions into π/a and π/b terms, by hand), a = 1, b = 2.
+    near(out.real_integral.value, [Math.PI / 6, 0], 1e-12, 'the dispersion integral');
+    assert.equal(out.real_integral.request.var, 'x');
+    assert.equal(out.real_integral.residues_used.length, 2);
+  });
+
+  test('folded, it sends nothing and results() leaves it out; no console errors', async () => {
+    const out = await b.page.evaluate(() => window.residuary.set({ panels: { integral: false } }));
+    assert.equal(out.real_integral, undefined);
+    assert.equal(await b.page.evaluate(() => window.residuary.state().panels.integral), false);
     assert.deepEqual(b.log.errors, []);
     assert.deepEqual(b.log.requests, []);
   });

@@ -105,27 +105,37 @@ export function showContourIntegral(parts, variable, contour, isView, resp) {
     parts.ways.append(tr);
   }
 
-  // The largest discrepancy against the error estimates: disagreement is shown, never hidden.
+  showAgreement(parts.verdict, parts.box, resp, available.map((a) => a.e));
+  for (const w of warnings) parts.warnings.append(el('li', { text: w }));
+}
+
+/** How independent ways agree, shown in `verdict` (a <p>) and marked on `box` (data-agree
+ *  yes | no | unchecked, class disagree): the largest difference against the sum of the error
+ *  estimates `errors` (one per available way), and the core's `agreement` sentence and `verdict`
+ *  word from `resp`. Disagreement is shown, never hidden. Shared by every block computing one
+ *  value in independent ways (the contour integral, the real integral). Returns 'yes' | 'no' | 'unchecked'. */
+export function showAgreement(verdict, box, resp, errors) {
   const maxD = Number(resp.max_discrepancy);
-  const sumErr = available.reduce((s, a) => s + (Number.isFinite(a.e) ? a.e : Infinity), 0);
+  const sumErr = errors.reduce((s, e) => s + (Number.isFinite(e) ? e : Infinity), 0);
   const agreement = typeof resp.agreement === 'string' ? resp.agreement : '';
   const flagged = resp.verdict === 'disagree' || resp.verdict === 'covered';
-  const disagree = available.length >= 2 && (!(maxD <= sumErr) || flagged);
+  const disagree = errors.length >= 2 && (!(maxD <= sumErr) || flagged);
   const lines = [];
-  if (available.length >= 2) {
-    lines.push(`Largest difference between the ${available.length} ways: ${estimateText(maxD)}` +
+  if (errors.length >= 2) {
+    lines.push(`Largest difference between the ${errors.length} ways: ${estimateText(maxD)}` +
       ` (their error estimates add up to ${estimateText(sumErr)}${disagree ? '' : '; the difference is within them'}).`);
   } else {
     lines.push('Only one way could be computed, so nothing checks this value.');
   }
   if (agreement) lines.push('Verdict: ' + agreement.charAt(0).toUpperCase() + agreement.slice(1) + (agreement.endsWith('.') ? '' : '.'));
-  parts.verdict.textContent = lines.join(' ');
-  if (disagree) parts.verdict.prepend(el('strong', { text: 'The ways disagree by more than their error estimates allow: do not rely on the value until the cause is found. ' }));
-  parts.verdict.classList.toggle('disagree', disagree);
-  parts.verdict.classList.toggle('unchecked', available.length < 2);
-  parts.box.classList.toggle('disagree', disagree);
-  parts.box.dataset.agree = disagree ? 'no' : available.length < 2 ? 'unchecked' : 'yes';
-  for (const w of warnings) parts.warnings.append(el('li', { text: w }));
+  verdict.textContent = lines.join(' ');
+  if (disagree) verdict.prepend(el('strong', { text: 'The ways disagree by more than their error estimates allow: do not rely on the value until the cause is found. ' }));
+  verdict.classList.toggle('disagree', disagree);
+  verdict.classList.toggle('unchecked', errors.length < 2);
+  box.classList.toggle('disagree', disagree);
+  const word = disagree ? 'no' : errors.length < 2 ? 'unchecked' : 'yes';
+  box.dataset.agree = word;
+  return word;
 }
 
 /** One line from an argument_count response: "Inside the contour: N zeros, P poles (...)". */

@@ -21,6 +21,7 @@ import { demoList, demoState, fillExampleMenu, forgetExampleIfChanged } from './
 import { rationalAnalysis, fitView, UNIT_CIRCLE_BOX } from './fit.js';
 import { installScripting, applyTransferState } from './scripting.js';
 import { attachEntryForms } from './entry-forms.js';
+import { attachRealIntegral } from './real-integral.js';
 
 const state = loadState();
 const ui = {
@@ -91,6 +92,8 @@ const region = createRegionEditor(page, () => { pipeline.regionMoved(); plot.dra
 const pipeline = createPipeline(page, { contour: () => region.contour(), describePlot: () => { describePlot(); poleDrag.prepare(); } });
 attachInverseSection(page);
 attachTransferSection(page);
+// The real-integral block (real-integral.js): recomputed when open and f or its fields change.
+const realIntegral = attachRealIntegral(page, { redraw: () => plot.draw(), persist: () => persist(), show: (v) => plot.show(v) });
 
 function applyAxisName() {
   plot.axisName = state.infinity ? 'w' : (state.var.trim() || 'z');
@@ -163,6 +166,7 @@ const live = createLivePath(page, {
     persist();
     showUnderline(ui.mirror, state.f, null);
     syncMirror(ui.expr, ui.mirror);
+    realIntegral.changed();
   },
   trailsChanged: () => trails.changed(),
 });
@@ -199,6 +203,7 @@ function markChanged() {
   persist();
   showUnderline(ui.mirror, state.f, null);
   syncMirror(ui.expr, ui.mirror);
+  realIntegral.changed();
 }
 
 function applyStateToControls() {
@@ -270,7 +275,7 @@ $('zoom-reset').addEventListener('click', () => plot.reset());
 ui.fit.addEventListener('click', () => fitToPoints());
 ui.zoomSmall.addEventListener('click', () => { if (page.smallView) plot.show(page.smallView); });
 ui.find.addEventListener('click', pipeline.find);
-ui.cancel.addEventListener('click', pipeline.stop);
+ui.cancel.addEventListener('click', () => { pipeline.stop(); realIntegral.stop(); });
 ui.autoFind.addEventListener('change', () => { state.autoFind = ui.autoFind.checked; persist(); });
 
 // ---- examples and links ------------------------------------------------------------------
@@ -298,7 +303,9 @@ select.addEventListener('change', () => {
   if (!d) return;
   page.readingOpenNext = Boolean(d.transfer_function);
   page.inverseOpenNext = Boolean(d.transfer_function);
-  adopt(Object.assign(demoState(d), { infinity: false, region: Object.assign({}, state.region, { mode: 'view' }) }));
+  const next = Object.assign(demoState(d), { infinity: false, region: Object.assign({}, state.region, { mode: 'view' }) });
+  if (d.real_integral) next.integral = Object.assign({}, state.integral, d.real_integral, { open: true }); // the example opens its integral
+  adopt(next);
   $('demo-description').hidden = !d.description;
   $('demo-description').textContent = d.description || '';
   // A rational example opens fitted to its poles and zeros.
@@ -372,4 +379,5 @@ installScripting(page, {
   contour: () => region.contour(),
   pipeline,
   trails: () => trails.refresh(),
+  integral: realIntegral,
 });

@@ -10,6 +10,7 @@ import { drawUnitCircle, drawRegion, drawMarkers, drawMessage, drawTrails } from
 import { attachInput } from './plot/input.js';
 import { KIND_WORDS } from './markers.js';
 import { regionWords } from './region.js';
+import { drawIntegralContour } from './real-integral.js';
 
 /** The plot on `canvas`. Hooks: baseRequest() (the request without view and size, or null while
  *  the core loads), onViewChange(view), onPointer(point | null), onMarkerClick(index), onStatus(what, error). */
@@ -74,6 +75,7 @@ function drawPlot(plot) {
   drawLayer(plot, plot.fine);
   drawUnitCircle(plot);
   drawRegion(plot);
+  drawIntegralContour(plot);
   drawTrails(plot);
   drawMarkers(plot);
   drawMessage(plot);

@@ -9,6 +9,7 @@ import { sanitize, saveState } from './state.js';
 import { regionProblem } from './region.js';
 import { askInverse, currentInverseSpan } from './inverse.js';
 import { askTransfer, transferOpen, setTransferPoint, currentTransferPoint, setTransferDomain } from './transfer.js';
+import { INTEGRAL_KINDS } from './real-integral.js';
 
 /** A failure of set(): rejects with {code, message} (the contract's codes, plus the page's). */
 function scriptError(code, message) {
@@ -42,7 +43,7 @@ function regionFrom(value, region) {
 }
 
 const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',
-  'hz', 'sample_period', 'point', 'trails', 'domain', 'mode'];
+  'hz', 'sample_period', 'point', 'trails', 'domain', 'mode', 'kind', 'omega', 'alpha'];
 
 /** The transfer section's controls from the page state: the unit (#tf-unit), the sampling period
  *  (#tf-period) and the encirclement point (transfer.js's setTransferPoint). */
@@ -99,6 +100,19 @@ function nextPageState(current, partial) {
     else if (isPair(p)) next.point = p.slice();
     else throw scriptError('bad_request', 'point must be a number or [re, im]');
   }
+  // The real-integral block (real-integral.js): the contract's kind, omega, alpha; giving kind opens it.
+  if ('kind' in partial) {
+    if (!INTEGRAL_KINDS.includes(partial.kind)) throw scriptError('invalid_field', `kind must be one of ${INTEGRAL_KINDS.join(', ')}`);
+    next.integral.kind = partial.kind;
+    next.integral.open = true;
+  }
+  if ('omega' in partial) { if (!isNum(partial.omega)) throw scriptError('bad_request', 'omega must be a real number'); next.integral.omega = partial.omega; }
+  if ('alpha' in partial) {
+    const a = partial.alpha;
+    if (!(isNum(a) || isPair(a))) throw scriptError('bad_request', 'alpha must be a number or [re, im]');
+    next.integral.alpha = isPair(a) && a[1] === 0 ? a[0] : a;
+  }
+  if (partial.panels && typeof partial.panels.integral === 'boolean') next.integral.open = partial.panels.integral;
   if ('wheel' in partial) { if (!['oklch', 'hsv'].includes(partial.wheel)) throw scriptError('invalid_field', 'wheel must be "oklch" or "hsv"'); next.wheel = partial.wheel; }
   if ('trails' in partial) next.trails = trailsFrom(partial.trails);
   if ('domain' in partial) {
@@ -155,7 +169,8 @@ export function installScripting(page, hooks) {
         : r.mode === 'rect' ? { shape: 'rectangle', corners: [[r.rect[0], r.rect[2]], [r.rect[1], r.rect[3]]] }
           : { shape: 'circle', center: [r.circle[0], r.circle[1]], radius: r.circle[2] },
       contour: hooks.contour(),
-      panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page) },
+      panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page), integral: hooks.integral.open() },
+      kind: state.integral.kind, omega: state.integral.omega, alpha: state.integral.alpha,
       modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, symbols: state.symbols, autoFind: state.autoFind,
       hz: state.hz, point: transferPoint(state),
       domain: state.domain === 'none' ? null : state.domain,
@@ -171,9 +186,16 @@ export function installScripting(page, hooks) {
     return out;
   }
 
+  /** results().real_integral: the block's response (the contract's, or its {error}) with its request and stale. */
+  function addIntegral(out) {
+    const r = hooks.integral.result();
+    if (r) out.real_integral = Object.assign(JSON.parse(JSON.stringify(r.response)), { request: r.request, stale: r.stale });
+    return out;
+  }
+
   function currentResults() {
     const res = page.results;
-    if (!res) return {};
+    if (!res) return addIntegral({});
     const stale = ui.singTable.classList.contains('stale') || res.serial !== page.searchSerial;
     const entry = (resp, extra = {}) => (resp ? Object.assign({}, JSON.parse(JSON.stringify(resp)), { stale }, extra) : undefined);
     const out = {};
@@ -189,6 +211,7 @@ export function installScripting(page, hooks) {
     if (res.transfer_function && transferOpen(page)) out.transfer_function = entry(res.transfer_function);
     if (res.partial_fractions) out.partial_fractions = entry(res.partial_fractions);
     if (state.trails && page.trailsResult) out.pole_trails = entry(page.trailsResult);
+    addIntegral(out);
     return out;
   }
 
@@ -200,8 +223,8 @@ export function installScripting(page, hooks) {
     const span = v === 's' ? partial.t : v === 'z' ? partial.n : undefined;
     if (span !== undefined && !(isNum(span) && span > 0)) throw scriptError('invalid_field', v === 's' ? 't must be T > 0 (the page samples t = T/120 … T)' : 'n must be N > 0 (the page computes n = 0 … N)');
     const panels = partial.panels;
-    if (panels !== undefined && (!panels || typeof panels !== 'object' || Object.keys(panels).some((k) => !['inverse', 'transfer'].includes(k)) ||
-      ['inverse', 'transfer'].some((k) => panels[k] !== undefined && typeof panels[k] !== 'boolean'))) throw scriptError('bad_request', 'panels must be {inverse: true | false, transfer: true | false}');
+    if (panels !== undefined && (!panels || typeof panels !== 'object' || Object.keys(panels).some((k) => !['inverse', 'transfer', 'integral'].includes(k)) ||
+      ['inverse', 'transfer', 'integral'].some((k) => panels[k] !== undefined && typeof panels[k] !== 'boolean'))) throw scriptError('bad_request', 'panels must be {inverse: true | false, transfer: true | false, integral: true | false}');
     hooks.adopt(next);
     askInverse(page, v, span, panels ? panels.inverse : null);
     // mode "transfer_function" opens the frequency-response section, "function" folds it (panels.transfer wins)
@@ -217,11 +240,14 @@ export function installScripting(page, hooks) {
     }
     const problem = regionProblem(hooks.contour());
     if (problem) throw scriptError('invalid_field', 'region: ' + problem);
+    const integralDone = hooks.integral.ensure();
     const newFunction = ['f', 'var', 'params'].some((k) => k in partial);
     if (newFunction && !('view' in partial) && !next.infinity) await hooks.fit();
     const outcome = await hooks.pipeline.find();
     if (outcome.status === 'failed') throw scriptError(outcome.error.code, outcome.error.message);
     if (outcome.status === 'superseded') throw scriptError('cancelled', 'a newer change or Stop came in before the panels finished');
+    await integralDone;
+    await hooks.integral.ensure();
     // the trails: computed after the search (a refresh already under way may supersede one call)
     if (state.trails && state.trails.shown) {
       await hooks.trails();
@@ -239,6 +265,6 @@ export function installScripting(page, hooks) {
     /** What each shown panel computed, keyed by task. */
     results: currentResults,
     /** Resolves when whatever is computing now has finished (with results()). */
-    settled: async () => { await hooks.started; await hooks.pipeline.settled(); return currentResults(); },
+    settled: async () => { await hooks.started; await hooks.pipeline.settled(); await hooks.integral.ensure(); return currentResults(); },
   };
 }

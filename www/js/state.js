@@ -1,6 +1,8 @@
 // The page state, and keeping it: localStorage (when the browser allows it on
 // this page) and the URL hash, so a link can carry a whole setup.
 
+import { defaultIntegral, sanitizeIntegral } from './real-integral.js';
+
 const STORAGE_KEY = 'residuary.page.v1';
 
 /** localStorage that never throws (file:// pages may refuse it). */
@@ -30,6 +32,7 @@ export function defaultState() {
     sample_period: 1,    // its sampling period T (z)
     point: [-1, 0],      // the point its encirclements are counted about
     domain: 'auto',      // f read as a transfer function: 'auto' (by the variable's name), 's', 'z', 'none'
+    integral: defaultIntegral(), // the real-integral block: {kind, omega, alpha, open} (real-integral.js)
     trails: null, // pole trails for one parameter: {name, from, to, steps, shown} (trails.js)
   };
 }
@@ -59,6 +62,7 @@ export function sanitize(raw) {
   if (['auto', 's', 'z', 'none'].includes(raw.domain)) s.domain = raw.domain;
   if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
   if (raw.symbols === 'own' || raw.symbols === 'diagram') s.symbols = raw.symbols;
+  s.integral = sanitizeIntegral(raw.integral);
   const t = raw.trails;
   if (t && typeof t === 'object' && typeof t.name === 'string' && Number.isFinite(t.from) && Number.isFinite(t.to) && t.from !== t.to &&
     Number.isInteger(t.steps) && t.steps >= 2 && t.steps <= 400) {

@@ -21,6 +21,7 @@ use crate::api::wire::BUDGET_FIELD;
 use crate::budget::Budget;
 use crate::expr::Function;
 use crate::integrals::product_residue::ResidueSum;
+use crate::integrals::derivation::{self, Derivation};
 use crate::integrals::{keyhole, real_line, unit_circle};
 use crate::quad::real_line::{line_integral, log_substituted_integral, periodic_integral};
 use crate::quad::QuadResult;
@@ -64,9 +65,61 @@ pub struct ResidueUsed {
     /// The residue of the whole integrand (f·e^{iωz}, z^{α−1}f, or f(−i log z)/(iz)).
     pub residue: [f64; 2],
     pub weight: [f64; 2],
+    /// The pole's order (1 for a principal-value pole); `null` for an essential singularity.
+    pub order: Option<u32>,
     /// What the point is and why it has this weight.
     pub note: String,
     pub error_estimate: f64,
+}
+
+/// The closed contour of the derivation (`derivation.contour`).
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct ClosingContour {
+    /// `"upper_half_disc"`, `"lower_half_disc"`, `"unit_circle"` or `"keyhole"`.
+    pub shape: String,
+    /// A radius enclosing every point of the sum (the derivation lets R → ∞); 1 for the unit circle.
+    pub radius: Option<f64>,
+    /// The keyhole's small circle (the derivation lets ε → 0); `null` for other shapes.
+    pub inner_radius: Option<f64>,
+    /// The real-axis poles the line is indented around (principal values), `[x, 0]`.
+    pub indentations: Vec<[f64; 2]>,
+}
+
+/// The derivation as a report writes it (`null` when the residue side is not available).
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct DerivationOut {
+    pub contour: ClosingContour,
+    /// `"jordan"`, `"ml_estimate"`, `"keyhole_circles"` or `"none"`.
+    pub lemma: String,
+    /// Why the lemma applies to this f, one sentence.
+    pub lemma_condition: String,
+    /// Mellin: the convergence strip `[lower, upper]` of Re α; else `null`.
+    pub strip: Option<[i64; 2]>,
+    /// Trig: the change of variable; else `null`.
+    pub substitution: Option<String>,
+    /// The function whose residues are summed.
+    pub residues_of: String,
+    /// Σ weight · residue written out, then "= value".
+    pub sum: String,
+}
+
+impl From<Derivation> for DerivationOut {
+    fn from(d: Derivation) -> Self {
+        DerivationOut {
+            contour: ClosingContour {
+                shape: d.shape.word().into(),
+                radius: d.radius.filter(|r| r.is_finite()),
+                inner_radius: d.inner_radius.filter(|r| r.is_finite()),
+                indentations: d.indentations.iter().map(|x| [*x + 0.0, 0.0]).collect(),
+            },
+            lemma: d.lemma.word().into(),
+            lemma_condition: d.lemma_condition,
+            strip: d.strip.map(|(a, b)| [a, b]),
+            substitution: d.substitution.map(Into::into),
+            residues_of: d.residues_of.into(),
+            sum: d.sum,
+        }
+    }
 }
 
 /// Which way the value comes from.
@@ -102,6 +155,8 @@ pub struct RealIntegralResponse {
     pub principal_value: bool,
     pub method: Method,
     pub warnings: Vec<String>,
+    /// The derivation: closing contour, lemma, substitution, the sum written out.
+    pub derivation: Option<DerivationOut>,
 }
 
 /// What may cause a disagreement of the two ways.
@@ -113,6 +168,8 @@ struct ResidueSide {
     method: Method,
     formula: String,
     principal_value: bool,
+    /// The derivation, its `sum` written by `assemble`.
+    derivation: Option<Derivation>,
 }
 
 pub fn run(req: &RealIntegralRequest) -> Result<RealIntegralResponse, ApiError> {
@@ -163,7 +220,8 @@ fn line(f: &Function, omega: f64, budget: &mut Budget, warnings: &mut Vec<String
         let rays = decay.arcs_decay && omega != 0.0;
         let q = line_integral(&eval, omega, &[], decay.box_radius, rays, budget)?;
         let formula = real_line::formula(omega, false);
-        return Ok((ResidueSide { sum, method: Method::Numerical, formula, principal_value: false }, q));
+        let d = derivation::half_disc(omega, decay.box_radius, Vec::new(), None, String::new());
+        return Ok((ResidueSide { sum, method: Method::Numerical, formula, principal_value: false, derivation: Some(d) }, q));
     };
     let a = analyse_function(f)?;
     warnings.extend(a.warnings.iter().cloned());
@@ -173,7 +231,9 @@ fn line(f: &Function, omega: f64, budget: &mut Budget, warnings: &mut Vec<String
     let q = line_integral(&eval, omega, &res.real_poles, res.clear_beyond, omega != 0.0, budget)?;
     let pv = res.principal_value();
     let formula = real_line::formula(omega, pv);
-    Ok((ResidueSide { sum: Some(res.sum), method: Method::Rational, formula, principal_value: pv }, q))
+    let indentations = res.real_poles.iter().map(|p| p.0).collect();
+    let d = derivation::half_disc(omega, res.clear_beyond, indentations, Some(-a.infinity_order), String::new());
+    Ok((ResidueSide { sum: Some(res.sum), method: Method::Rational, formula, principal_value: pv, derivation: Some(d) }, q))
 }
 
 /// `trig`: residues of g inside the unit circle; the periodic trapezoidal rule.
@@ -184,7 +244,8 @@ fn trig(f: &Function, budget: &mut Budget, warnings: &mut Vec<String>) -> Result
     let branches = f.analysis().uses_branch_functions;
     let sum = unit_circle::unit_circle_residues(&eval, &|z| f.eval_d(z), branches, budget, warnings)?;
     let formula = unit_circle::FORMULA.into();
-    Ok((ResidueSide { sum, method: Method::Numerical, formula, principal_value: false }, q))
+    let d = derivation::unit_circle(String::new());
+    Ok((ResidueSide { sum, method: Method::Numerical, formula, principal_value: false, derivation: Some(d) }, q))
 }
 
 /// `mellin`: the keyhole sum for rational f; quadrature in u = ln x.
@@ -193,13 +254,15 @@ fn mellin(f: &Function, alpha: crate::C, budget: &mut Budget, warnings: &mut Vec
         return Err(ApiError::invalid("kind \"mellin\" needs f rational in the variable (a ratio of polynomials) with no poles on (0, ∞); for other f use kind \"line\" after the substitution x = e^u"));
     };
     let (num, den) = (crate::poly::trim(&r.num), crate::poly::trim(&r.den));
-    keyhole::check_alpha(&num, &den, alpha)?;
+    let strip = keyhole::check_alpha(&num, &den, alpha)?;
     let a = analyse_function(f)?;
     warnings.extend(a.warnings.iter().cloned());
     let sum = keyhole::keyhole_residues(&a, alpha)?;
     let q = log_substituted_integral(&|z| f.eval(z), &num, &den, alpha, budget, warnings)?;
     let formula = keyhole::FORMULA.into();
-    Ok((ResidueSide { sum: Some(sum), method: Method::Rational, formula, principal_value: false }, q))
+    let (outer, inner) = keyhole::drawn_radii(&a);
+    let d = derivation::keyhole(outer, inner, strip.at_zero, strip.at_infinity, alpha, String::new());
+    Ok((ResidueSide { sum: Some(sum), method: Method::Rational, formula, principal_value: false, derivation: Some(d) }, q))
 }
 
 /// Reconcile the two ways (residues preferred for rational f) and write the response.
@@ -220,13 +283,21 @@ fn assemble(side: ResidueSide, q: QuadResult, mut warnings: Vec<String>) -> Real
     if verdict.needs_warning() {
         warnings.push(agreement.clone());
     }
+    let derivation = match (side.derivation, &side.sum) {
+        (Some(mut d), Some(s)) => {
+            let pairs: Vec<_> = s.terms.iter().map(|t| (t.weight, t.residue)).collect();
+            d.sum = derivation::written_sum(&pairs, s.value);
+            Some(DerivationOut::from(d))
+        }
+        _ => None,
+    };
     let terms = side.sum.map(|s| s.terms).unwrap_or_default();
     RealIntegralResponse {
         value: pair(verdict.value),
         by_quadrature: pair(quad.value),
         by_residues: residues.map(|w| pair(w.value)),
         residues_used: (terms.into_iter())
-            .map(|t| ResidueUsed { at: pair(t.at), residue: pair(t.residue), weight: pair(t.weight), note: t.role.note(), error_estimate: t.error })
+            .map(|t| ResidueUsed { at: pair(t.at), residue: pair(t.residue), weight: pair(t.weight), order: t.role.order(), note: t.role.note(), error_estimate: t.error })
             .collect(),
         max_discrepancy: verdict.max_discrepancy,
         error_estimate: verdict.error,
@@ -239,5 +310,6 @@ fn assemble(side: ResidueSide, q: QuadResult, mut warnings: Vec<String>) -> Real
         principal_value: side.principal_value,
         method: side.method,
         warnings,
+        derivation,
     }
 }
