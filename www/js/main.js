@@ -21,6 +21,7 @@ import { demoList, demoState, fillExampleMenu, forgetExampleIfChanged } from './
 import { rationalAnalysis, fitView } from './fit.js';
 import { installScripting, applyTransferState } from './scripting.js';
 import { attachEntryForms } from './entry-forms.js';
+import { attachLaurentPanel } from './laurent-panel.js';
 
 const state = loadState();
 const ui = {
@@ -86,7 +87,10 @@ const plot = createPlot(ui.canvas, {
 page.plot = plot;
 const readoutAt = createReadout(page);
 const region = createRegionEditor(page, () => { pipeline.regionMoved(); plot.draw(); persist(); pipeline.autoSearchSoon(); });
-const pipeline = createPipeline(page, { contour: () => region.contour(), describePlot: () => { describePlot(); poleDrag.prepare(); } });
+const pipeline = createPipeline(page, { contour: () => region.contour(), describePlot: () => { describePlot(); poleDrag.prepare(); },
+  searched: (serial) => laurent.afterSearch(serial), stale: () => laurent.stale() });
+const laurent = attachLaurentPanel(page, { persist: () => persist() });
+page.laurent = laurent;
 attachInverseSection(page);
 attachTransferSection(page);
 
