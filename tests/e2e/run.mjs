@@ -1501,6 +1501,7 @@ describe('the Laurent section and the point at infinity', () => {
     assert.match(await b.page.textContent('#lp-method'), /numerical, error ≤/);
     assert.deepEqual((await scriptState(b.page)).laurent, { center: [0, 0], inner: 1, outer: 2, from: -5, to: 5 });
     assert.equal((await scriptState(b.page)).panels.laurent, true);
+    assert.deepEqual(JSON.parse(await b.page.getAttribute('#plot', 'data-annulus')), [[0, 0], 1, 2], 'the annulus is drawn on the plot');
     await b.page.locator('#lp-box').screenshot({ path: join(artifacts, 'laurent-annulus.png') });
 
     // the next annulus chosen in the panel itself, as a person would
@@ -1569,6 +1570,17 @@ describe('the Laurent section and the point at infinity', () => {
 
     await setLaurent({ infinity: false });
     assert.equal(await b.page.getAttribute('#plot', 'data-infinity-marker'), null, 'only in the view at infinity');
+    // folding the section takes its annulus off the plot; a new f makes its answer stale (dimmed, no result)
+    await setLaurent({ f: '1/(z^2+1)', laurent: { center: [0, 1], inner: 0, outer: 2, from: -2, to: 2 } });
+    assert.deepEqual(JSON.parse(await b.page.getAttribute('#plot', 'data-annulus')), [[0, 1], 0, 2]);
+    await b.page.fill('#expr', '1/(z^2+4)');
+    await b.page.waitForFunction(() => document.getElementById('lp-box').dataset.state === 'stale');
+    assert.equal(await b.page.isVisible('#lp-result'), false);
+    assert.equal(await b.page.getAttribute('#plot', 'data-annulus'), null);
+    assert.equal(await b.page.evaluate(() => window.residuary.results().laurent.stale), true);
+    await b.page.evaluate(() => window.residuary.settled());
+    await b.page.click('#lp-title');
+    assert.equal(await b.page.getAttribute('#plot', 'data-annulus'), null);
     assert.deepEqual(b.log.errors, []);
     assert.deepEqual(b.log.requests, []);
   });

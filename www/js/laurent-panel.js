@@ -98,7 +98,8 @@ function annulusWords(v, c, a) {
     const w = `${a.w[0] === 0 ? '0' : r(a.w[0])} < |w| < ${r(a.w[1])}`;
     return `${w}, w = 1/${v} (${r(a.inner)} < |${v}| < ${r(a.outer)})`;
   }
-  const d = c[0] === 0 && c[1] === 0 ? `|${v}|` : `|${v} − ${fmtSig(c, 8)}|`;
+  const t = fmtSig(c, 8);
+  const d = c[0] === 0 && c[1] === 0 ? `|${v}|` : c[1] === 0 && c[0] > 0 ? `|${v} − ${t}|` : c[1] === 0 ? `|${v} + ${t.slice(1)}|` : `|${v} − (${t})|`;
   return `${r(a.inner)} < ${d} < ${r(a.outer)}`;
 }
 
@@ -241,7 +242,7 @@ export function attachLaurentPanel(page, hooks) {
       }
       ui.from.value = String(choice.from);
       ui.to.value = String(choice.to);
-    } else if (!ui.center.value) ui.center.value = ui.center.options[0].value;
+    } else if (!ui.center.value || my.explicit) ui.center.value = ui.center.options[0].value;
     ui.pointRow.hidden = ui.center.value !== 'point';
     fillAnnuli(choice);
   }
@@ -301,6 +302,13 @@ export function attachLaurentPanel(page, hooks) {
     return parts.join(' ');
   }
 
+  /** The annulus drawn on the plot (plot/overlays.js drawAnnulus) while the section is open. */
+  function showAnnulus(req) {
+    const outer = req && req.center !== 'infinity' && Number.isFinite(req.outer) ? req.outer : Infinity;
+    page.plot.annulus = req && ui.box.open ? { center: req.center === 'infinity' ? [0, 0] : req.center, inner: req.inner, outer } : null;
+    page.plot.draw();
+  }
+
   function clearResult() {
     ui.result.hidden = true;
     ui.method.textContent = '';
@@ -323,6 +331,7 @@ export function attachLaurentPanel(page, hooks) {
     ui.note.textContent = a ? describeAnnulus(c, a) : '';
     state.laurent = req.error ? state.laurent : { center: req.center, inner: req.inner, outer: req.outer === undefined ? null : req.outer, from: req.from, to: req.to };
     hooks.persist();
+    showAnnulus(req.error ? null : req);
     if (req.error) { my.response = req; setStatus('Not computed: ' + req.error.message + '.', 'error'); return; }
     const inf = infinityKind(my.infinityResp);
     let resp;
@@ -413,7 +422,7 @@ export function attachLaurentPanel(page, hooks) {
 
   function stale() {
     my.serial = -1;
-    if (page.plot) page.plot.infinityPoint = null;
+    if (page.plot && (page.plot.infinityPoint || page.plot.annulus)) { page.plot.infinityPoint = null; page.plot.annulus = null; page.plot.draw(); }
     if (ui.box.dataset.state !== 'none') setStatus('The function changed: the series is computed again with the next search.', 'stale');
     ui.infinity.textContent = '';
     clearResult();
@@ -424,7 +433,10 @@ export function attachLaurentPanel(page, hooks) {
   ui.center.addEventListener('change', () => { ui.pointRow.hidden = ui.center.value !== 'point'; fillAnnuli(null); ui.annulus.value = '0'; rerun(); });
   for (const input of [ui.x, ui.y]) input.addEventListener('change', () => { fillAnnuli(null); ui.annulus.value = '0'; rerun(); });
   for (const input of [ui.annulus, ui.from, ui.to]) input.addEventListener('change', rerun);
-  ui.box.addEventListener('toggle', () => { if (ui.box.open && my.serial === page.searchSerial && !my.response) run(); });
+  ui.box.addEventListener('toggle', () => {
+    if (!ui.box.open) { page.plot.annulus = null; page.plot.draw(); return; }
+    if (my.serial === page.searchSerial) { if (!my.response) run(); else showAnnulus(my.request && !my.request.error ? my.request : null); }
+  });
 
   return {
     afterSearch, stale,

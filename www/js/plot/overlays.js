@@ -248,3 +248,28 @@ export function drawInfinityMarker(plot) {
   ctx.restore();
   plot.canvas.dataset.infinityMarker = p.kind;
 }
+
+/** The Laurent section's annulus (plot.annulus = {center, inner, outer}): its two circles dashed,
+ *  dark on a light edge. In the view at infinity only an annulus about 0 is drawn (|w| = 1/r). */
+export function drawAnnulus(plot) {
+  const a = plot.annulus;
+  if (!a) { delete plot.canvas.dataset.annulus; return; }
+  let c = a.center, radii = [a.inner, a.outer];
+  if (plot.infinityMode) {
+    if (c[0] !== 0 || c[1] !== 0) { delete plot.canvas.dataset.annulus; return; }
+    radii = radii.map((r) => (r > 0 ? 1 / r : Infinity));
+  }
+  const [sx, sy] = toScreen(plot, c[0], c[1]);
+  const ctx = plot.ctx;
+  ctx.save();
+  ctx.setLineDash([7, 4]);
+  for (const r of radii) {
+    if (!(r > 0) || !Number.isFinite(r)) continue;
+    ctx.beginPath();
+    ctx.arc(sx, sy, r / plot.scale, 0, 2 * Math.PI);
+    ctx.lineWidth = 3; ctx.strokeStyle = 'rgba(255,255,255,0.7)'; ctx.stroke();
+    ctx.lineWidth = 1.2; ctx.strokeStyle = 'rgba(15,15,15,0.85)'; ctx.stroke();
+  }
+  ctx.restore();
+  plot.canvas.dataset.annulus = JSON.stringify([c, a.inner, Number.isFinite(a.outer) ? a.outer : null]);
+}
