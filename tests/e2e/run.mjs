@@ -525,7 +525,7 @@ describe('the page with the real core', () => {
   test('scripting: state() after set equals what was set (normalised)', async () => {
     await load(b.page);
     const want = { f: '1/(z^2 + 0.5*z + 2)', var: 'z', params: { a: [0.3, 0.1], k: 2 }, view: [-2, 2, -2, 2],
-      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true, transfer: false }, n: 12 };
+      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true, transfer: false, laurent: false }, n: 12 };
     const out = await scriptSet(b.page, want);
     assert.ok(out.ok, JSON.stringify(out.error));
     const got = await scriptState(b.page);
