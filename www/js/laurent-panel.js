@@ -98,6 +98,7 @@ function annulusWords(v, c, a) {
     const w = `${a.w[0] === 0 ? '0' : r(a.w[0])} < |w| < ${r(a.w[1])}`;
     return `${w}, w = 1/${v} (${r(a.inner)} < |${v}| < ${r(a.outer)})`;
   }
+  c = trimComplex(c, 10);
   const t = fmtSig(c, 8);
   const d = c[0] === 0 && c[1] === 0 ? `|${v}|` : c[1] === 0 && c[0] > 0 ? `|${v} − ${t}|` : c[1] === 0 ? `|${v} + ${t.slice(1)}|` : `|${v} − (${t})|`;
   return `${r(a.inner)} < ${d} < ${r(a.outer)}`;
