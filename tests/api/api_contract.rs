@@ -80,6 +80,28 @@ fn residue_shape_at_a_pole_a_regular_point_and_infinity() {
 }
 
 #[test]
+fn residue_at_infinity_tells_a_non_isolated_point() {
+    // Poles of tan, csc and Γ pile up at infinity (tan: π/2 + kπ, csc: kπ, DLMF 4.14; Γ: −n,
+    // DLMF 5.2(i)): no punctured neighbourhood of infinity is free of them, so it is not isolated.
+    for f in ["tan(z)", "csc(z)", "gamma(z)"] {
+        let v = run(json!({"task": "residue", "f": f, "at": "infinity"}));
+        assert_eq!(v["accumulation"], json!(true), "{f}: {v}");
+        assert!(v["residue"].is_null(), "{f}: {v}");
+    }
+    // exp z has an isolated essential singularity at infinity (its Taylor series, DLMF 4.2.19)
+    let v = run(json!({"task": "residue", "f": "exp(z)", "at": "infinity"}));
+    assert_eq!((v["kind"].as_str(), v["accumulation"].as_bool()), (Some("essential"), Some(false)), "{v}");
+    // tan(1/z) is analytic at infinity (tan is analytic at 0): its poles accumulate at 0 instead
+    let v = run(json!({"task": "residue", "f": "tan(1/z)", "at": "infinity"}));
+    assert_eq!(v["accumulation"], json!(false), "{v}");
+    // 1/((z-1)(z-2)) at infinity: a zero of order 2, regular (by hand); at a finite pole never an accumulation
+    let v = run(json!({"task": "residue", "f": "1/((z-1)*(z-2))", "at": "infinity"}));
+    assert_eq!((v["kind"].as_str(), v["accumulation"].as_bool()), (Some("regular"), Some(false)), "{v}");
+    let v = run(json!({"task": "residue", "f": "tan(z)", "at": [1.5707963267948966, 0]}));
+    assert_eq!((v["kind"].as_str(), v["accumulation"].as_bool()), (Some("pole"), Some(false)), "{v}");
+}
+
+#[test]
 fn residue_of_general_functions_and_refusals() {
     // Γ has residue (−1)^n/n! at −n (DLMF §5.2(i)); n = 4 → 1/24
     let v = run(json!({"task": "residue", "f": "gamma(z)", "at": [-4, 0]}));
@@ -160,6 +182,11 @@ fn laurent_shape_and_refusal() {
         let n = k["n"].as_i64().unwrap();
         let want = if n >= 0 { -1.0 / (2.0 * 3f64.powi(n as i32 + 1)) } else { -0.5 };
         assert!(close(&k["c"], want, 0.0, 1e-12), "{k}");
+        // each coefficient's own estimate bounds its error and never exceeds the overall one
+        let err = k["error"].as_f64().unwrap();
+        let c = &k["c"];
+        let got = (c[0].as_f64().unwrap() - want).hypot(c[1].as_f64().unwrap());
+        assert!(got <= err.max(1e-15) && err <= v["error_estimate"].as_f64().unwrap(), "{k}");
     }
     assert!(v["error_estimate"].as_f64().unwrap() < 1e-10);
     let e = run_err(json!({"task": "laurent", "f": "1/((z-1)*(z-3))", "center": [0, 0], "inner": 0.5, "outer": 2, "from": 0, "to": 1}));

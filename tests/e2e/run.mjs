@@ -525,7 +525,7 @@ describe('the page with the real core', () => {
   test('scripting: state() after set equals what was set (normalised)', async () => {
     await load(b.page);
     const want = { f: '1/(z^2 + 0.5*z + 2)', var: 'z', params: { a: [0.3, 0.1], k: 2 }, view: [-2, 2, -2, 2],
-      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true, transfer: false, integral: false }, n: 12 };
+      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true, transfer: false, integral: false, laurent: false }, n: 12 };
     const out = await scriptSet(b.page, want);
     assert.ok(out.ok, JSON.stringify(out.error));
     const got = await scriptState(b.page);
@@ -1716,6 +1716,140 @@ describe('the real-integral section', () => {
     const out = await b.page.evaluate(() => window.residuary.set({ panels: { integral: false } }));
     assert.equal(out.real_integral, undefined);
     assert.equal(await b.page.evaluate(() => window.residuary.state().panels.integral), false);
+    assert.deepEqual(b.log.errors, []);
+    assert.deepEqual(b.log.requests, []);
+  });
+});
+
+describe('the Laurent section and the point at infinity', () => {
+  // References: tests/fixtures/laurent_page.json, written by gen_laurent_page.py — the rational
+  // function's coefficients by the geometric/binomial series (by construction, each term checked
+  // against sympy 1.14.0 series), tan, csc and Γ from sympy 1.14.0 series (mpmath 1.3.0, 30 digits).
+  const fixture = JSON.parse(readFileSync(join(root, 'tests', 'fixtures', 'laurent_page.json'), 'utf8'));
+  const ref = (name) => fixture.cases.find((c) => c.name === name);
+  const RAT = ref('rational 1<|z|<2').f;
+  let b;
+  before(async () => { b = await openBrowser({ width: 1366, height: 900 }); await load(b.page); });
+  after(async () => { if (b) await b.close(); });
+
+  const setLaurent = (s) => b.page.evaluate(async (st) => (await window.residuary.set(st)).laurent, s);
+  /** Every coefficient of the panel against the fixture, to its own shown error estimate (plus the
+   *  rounding of the reference to a double). Also: the table shows the same numbers. */
+  async function checkAgainst(got, c) {
+    assert.ok(got && !got.error, JSON.stringify(got && got.error));
+    assert.equal(got.stale, false);
+    const want = new Map(c.coefficients.map(([n, re, im]) => [n, [re, im]]));
+    let compared = 0;
+    for (const t of got.coefficients) {
+      if (!want.has(t.n)) continue;
+      const w = want.get(t.n);
+      const d = Math.hypot(t.c[0] - w[0], t.c[1] - w[1]);
+      assert.ok(Number.isFinite(t.error) && t.error <= got.error_estimate, `n = ${t.n}: error ${t.error}`);
+      assert.ok(d <= t.error + 4e-16 * Math.hypot(...w), `${c.name}, n = ${t.n}: ${t.c} vs ${w} (|Δ| = ${d}, shown error ${t.error})`);
+      compared++;
+    }
+    assert.ok(compared >= Math.min(want.size, got.coefficients.length) && compared >= 4, `compared ${compared}`);
+    const rows = await b.page.$$eval('#lp-body tr', (trs) => trs.map((tr) => ({ n: Number(tr.dataset.n), c: JSON.parse(tr.dataset.c), err: tr.cells[2].textContent })));
+    assert.deepEqual(rows.map((r) => [r.n, r.c]), got.coefficients.map((t) => [t.n, t.c]));
+    assert.ok(rows.every((r) => /^\d/.test(r.err)), 'every row shows its error estimate');
+  }
+
+  test('the rational function in 1 < |z| < 2 and 2 < |z| < 3: the annuli listed by radius, coefficients against the series', async () => {
+    let got = await setLaurent({ f: RAT, view: [-4, 4, -4, 4], panels: { laurent: true }, laurent: { center: [0, 0], inner: 1, outer: 2, from: -5, to: 5 } });
+    const options = await b.page.$$eval('#lp-annulus option', (os) => os.map((o) => o.textContent));
+    // the poles' distances from 0 are 1, 2 and 3 (at 1, −2 and 3i)
+    assert.deepEqual(options, ['0 < |z| < 1', '1 < |z| < 2', '2 < |z| < 3', '3 < |z| < ∞']);
+    assert.equal(got.annulus, 1);
+    await checkAgainst(got, ref('rational 1<|z|<2'));
+    const note = await b.page.textContent('#lp-annulus-note');
+    assert.match(note, /On \|z\| = 1: pole at z = 1\./);
+    assert.match(note, /On \|z\| = 2: pole at z = −2\./);
+    assert.doesNotMatch(note, /unknown/, 'a rational f: every pole is known');
+    assert.equal(await b.page.$$eval('#lp-math math mfrac', (x) => x.length), 5, 'the principal part typeset: five negative powers asked');
+    assert.match(await b.page.textContent('#lp-text'), /^Principal part: 2·z\^−1 \+ 2·z\^−2/);
+    assert.match(await b.page.textContent('#lp-method'), /numerical, error ≤/);
+    assert.deepEqual((await scriptState(b.page)).laurent, { center: [0, 0], inner: 1, outer: 2, from: -5, to: 5 });
+    assert.equal((await scriptState(b.page)).panels.laurent, true);
+    assert.deepEqual(JSON.parse(await b.page.getAttribute('#plot', 'data-annulus')), [[0, 0], 1, 2], 'the annulus is drawn on the plot');
+    await b.page.locator('#lp-box').screenshot({ path: join(artifacts, 'laurent-annulus.png') });
+
+    // the next annulus chosen in the panel itself, as a person would
+    await b.page.selectOption('#lp-annulus', '2');
+    await b.page.waitForFunction(() => document.getElementById('lp-box').dataset.state === 'done' && window.residuary.results().laurent.annulus === 2);
+    got = await b.page.evaluate(() => window.residuary.results().laurent);
+    assert.deepEqual([got.inner, got.outer], [2, 3]);
+    await checkAgainst(got, ref('rational 2<|z|<3'));
+  });
+
+  test('the rational function about infinity (|z| > 3) and about its pole 1: the principal part there is exact', async () => {
+    let got = await setLaurent({ laurent: { center: 'infinity', inner: 3, outer: null, from: -5, to: 5 } });
+    assert.equal(got.center, 'infinity');
+    await checkAgainst(got, ref('rational |z|>3'));
+    assert.equal(got.infinity.kind, 'regular'); // f = O(1/z) at infinity (its three terms)
+    assert.match(await b.page.textContent('#lp-infinity'), /regular point/);
+    const options = await b.page.$$eval('#lp-annulus option', (os) => os.map((o) => o.textContent));
+    assert.equal(options[0], '0 < |w| < 0.333333, w = 1/z (3 < |z| < ∞)');
+    assert.equal(options.length, 4);
+    assert.equal(got.exact_principal_part, false);
+
+    got = await setLaurent({ laurent: { center: [1, 0], inner: 0, outer: 3, from: -5, to: 5 } });
+    await checkAgainst(got, ref('rational 0<|z-1|<3'));
+    assert.equal(got.exact_principal_part, true);
+    assert.match(await b.page.textContent('#lp-method'), /exact up to rounding/);
+    assert.equal(await b.page.textContent('#lp-text'), 'Principal part: 2·(z − 1)^−1');
+    await b.page.locator('#lp-box').screenshot({ path: join(artifacts, 'laurent-pole.png') });
+  });
+
+  test('tan, csc and Γ about a pole against sympy series; "exact" is never shown for them', async () => {
+    const cases = [
+      ['tan about pi/2', [-4, 4, -4, 4], true],
+      ['csc about 0', [-4, 4, -4, 4], false],
+      ['gamma about 0', [-1.5, 1.5, -1.5, 1.5], false],
+    ];
+    for (const [name, view, uncertain] of cases) {
+      const c = ref(name);
+      const got = await setLaurent({ f: c.f, view, laurent: { center: c.center, inner: c.inner, outer: c.outer, from: c.from, to: c.to } });
+      await checkAgainst(got, c);
+      assert.equal(got.exact_principal_part, false, name);
+      const text = await b.page.textContent('#lp-box');
+      assert.doesNotMatch(text, /exact/i, name);
+      assert.match(await b.page.textContent('#lp-method'), /numerical, error ≤/, name);
+      // tan's nearest other pole, −π/2, lies π away but the view reaches only 4 − π/2 from π/2
+      assert.equal(/Outer limit unknown/.test(await b.page.textContent('#lp-annulus-note')), uncertain, name);
+      assert.equal(got.infinity.accumulation, true, `${name}: poles pile up at infinity`);
+      assert.match(await b.page.textContent('#lp-infinity'), /non-isolated/);
+    }
+  });
+
+  test('infinity marked with its kind in the view at infinity: a pole of order 2, a non-isolated point', async () => {
+    let got = await setLaurent({ f: 'z^3/(z-1)', infinity: true, laurent: { center: 'infinity', inner: 1, outer: null, from: -3, to: 3 } });
+    // z³/(z − 1) = z² + z + 1 + 1/(z − 1) (long division): a pole of order 2 at infinity, c₂ = c₁ = 1
+    assert.deepEqual([got.infinity.kind, got.infinity.order], ['pole', 2]);
+    assert.equal(await b.page.getAttribute('#plot', 'data-infinity-marker'), 'pole');
+    assert.match(await b.page.textContent('#lp-infinity'), /a pole of order 2/);
+    for (const n of [0, 1, 2]) assert.ok(Math.hypot(got.coefficients.find((t) => t.n === n).c[0] - 1, got.coefficients.find((t) => t.n === n).c[1]) < 1e-12);
+    assert.equal(await b.page.textContent('#lp-text'), 'Growing part: z + z^2');
+    await b.page.locator('#plot').screenshot({ path: join(artifacts, 'infinity-pole.png') });
+
+    got = await setLaurent({ f: 'tan(z)' });
+    assert.equal(await b.page.getAttribute('#plot', 'data-infinity-marker'), 'non_isolated');
+    assert.equal(got.error.code, 'not_applicable');
+    assert.match(await b.page.textContent('#lp-status'), /not an isolated singularity/);
+    await b.page.locator('#plot').screenshot({ path: join(artifacts, 'infinity-tan.png') });
+
+    await setLaurent({ infinity: false });
+    assert.equal(await b.page.getAttribute('#plot', 'data-infinity-marker'), null, 'only in the view at infinity');
+    // folding the section takes its annulus off the plot; a new f makes its answer stale (dimmed, no result)
+    await setLaurent({ f: '1/(z^2+1)', laurent: { center: [0, 1], inner: 0, outer: 2, from: -2, to: 2 } });
+    assert.deepEqual(JSON.parse(await b.page.getAttribute('#plot', 'data-annulus')), [[0, 1], 0, 2]);
+    await b.page.fill('#expr', '1/(z^2+4)');
+    await b.page.waitForFunction(() => document.getElementById('lp-box').dataset.state === 'stale');
+    assert.equal(await b.page.isVisible('#lp-result'), false);
+    assert.equal(await b.page.getAttribute('#plot', 'data-annulus'), null);
+    assert.equal(await b.page.evaluate(() => window.residuary.results().laurent.stale), true);
+    await b.page.evaluate(() => window.residuary.settled());
+    await b.page.click('#lp-title');
+    assert.equal(await b.page.getAttribute('#plot', 'data-annulus'), null);
     assert.deepEqual(b.log.errors, []);
     assert.deepEqual(b.log.requests, []);
   });

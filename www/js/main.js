@@ -22,6 +22,7 @@ import { rationalAnalysis, fitView, UNIT_CIRCLE_BOX } from './fit.js';
 import { installScripting, applyTransferState } from './scripting.js';
 import { attachEntryForms } from './entry-forms.js';
 import { attachRealIntegral } from './real-integral.js';
+import { attachLaurentPanel } from './laurent-panel.js';
 
 const state = loadState();
 const ui = {
@@ -89,7 +90,10 @@ const plot = createPlot(ui.canvas, {
 page.plot = plot;
 const readoutAt = createReadout(page);
 const region = createRegionEditor(page, () => { pipeline.regionMoved(); plot.draw(); persist(); pipeline.autoSearchSoon(); });
-const pipeline = createPipeline(page, { contour: () => region.contour(), describePlot: () => { describePlot(); poleDrag.prepare(); } });
+const pipeline = createPipeline(page, { contour: () => region.contour(), describePlot: () => { describePlot(); poleDrag.prepare(); },
+  searched: (serial) => laurent.afterSearch(serial), stale: () => laurent.stale() });
+const laurent = attachLaurentPanel(page, { persist: () => persist() });
+page.laurent = laurent;
 attachInverseSection(page);
 attachTransferSection(page);
 // The real-integral block (real-integral.js): recomputed when open and f or its fields change.

@@ -18,7 +18,8 @@ import { prepareTransfer, runTransfer, stopTransfer, transferOpen } from './tran
 import { rationalAnalysis, nudgeOffEdges, nudgeNote } from './fit.js';
 
 /** The pipeline over `page` (state, ui, plot, exprOk, found, searchSerial, readingOpenNext; see
- *  main.js). Hooks: contour() (the region's contour now), describePlot() (after the markers change).
+ *  main.js). Hooks: contour() (the region's contour now), describePlot() (after the markers change),
+ *  searched(serial) (after the partial fractions: the Laurent section), stale() (the results no longer belong to f).
  *  Every run keeps what each panel computed in page.results ({serial, base, contour, singularities,
  *  contour_integral, argument_count, inverse, transfer_function, partial_fractions}: the core's responses) and ends with
  *  an outcome: {status: 'done'}, {status: 'failed', error: {code, message}} or {status: 'superseded'}
@@ -41,6 +42,7 @@ export function createPipeline(page, hooks) {
     if (plot().markers.length) { plot().markers = []; plot().selected = -1; plot().draw(); }
     ui.canvas.dataset.markers = '0';
     ui.detail.box.hidden = true;
+    if (hooks.stale) hooks.stale(); // the Laurent section (laurent-panel.js)
     if (ui.ci.box.dataset.state !== 'none') contourStatus(ui.ci, 'The function changed: the contour integral is computed again with the next search.', 'stale');
     if (!['none', 'closed'].includes(ui.inv.box.dataset.state)) inverseStatus(ui.inv, 'The function changed: the inverse transform is computed again with the next search.', 'stale');
   }
@@ -180,6 +182,11 @@ export function createPipeline(page, hooks) {
     if (!ui.partial.hidden) {
       ui.partial.textContent = 'Partial fractions: ' + pf.text;
       for (const w of Array.isArray(pf.warnings) ? pf.warnings : []) ui.pfWarnings.append(el('li', { text: 'Partial fractions: ' + String(w) }));
+    }
+    // Then the Laurent section and the kind of infinity (laurent-panel.js).
+    if (hooks.searched) {
+      await hooks.searched(serial);
+      if (serial !== page.searchSerial) return superseded;
     }
     return { status: 'done' };
   }

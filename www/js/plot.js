@@ -6,7 +6,7 @@
 import { viewBox, toPlane, setView, zoomAbout, fitCanvas, MARGIN } from './plot/view.js';
 import { drawLayer, renderPlot, renderLive, scheduleRender } from './plot/render.js';
 import { drawAxes } from './plot/axes.js';
-import { drawUnitCircle, drawRegion, drawMarkers, drawMessage, drawTrails } from './plot/overlays.js';
+import { drawUnitCircle, drawRegion, drawMarkers, drawMessage, drawTrails, drawInfinityMarker, drawAnnulus } from './plot/overlays.js';
 import { attachInput } from './plot/input.js';
 import { KIND_WORDS } from './markers.js';
 import { regionWords } from './region.js';
@@ -24,6 +24,8 @@ export function createPlot(canvas, hooks) {
     message: '', busy: false,
     markers: [], selected: -1, region: null, axisName: 'z',
     trails: null,                    // pole trails to draw (trails.js), or null
+    annulus: null,                   // the Laurent section's annulus {center, inner, outer}, drawn dashed (laurent-panel.js)
+    infinityPoint: null,             // the kind of infinity, marked at w = 0 in the view at infinity: {kind, label} (laurent-panel.js)
     generation: 0, renderTimer: 0,
   };
 
@@ -77,7 +79,9 @@ function drawPlot(plot) {
   drawRegion(plot);
   drawIntegralContour(plot);
   drawTrails(plot);
+  drawAnnulus(plot);
   drawMarkers(plot);
+  drawInfinityMarker(plot);
   drawMessage(plot);
   ctx.restore();
   drawAxes(plot);

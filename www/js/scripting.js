@@ -43,7 +43,24 @@ function regionFrom(value, region) {
 }
 
 const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',
-  'hz', 'sample_period', 'point', 'trails', 'domain', 'mode', 'kind', 'omega', 'alpha'];
+  'hz', 'sample_period', 'point', 'trails', 'domain', 'mode', 'kind', 'omega', 'alpha', 'laurent'];
+
+/** The Laurent section's choice (contract names: center, inner, outer, from, to) checked, or null. */
+function laurentChoice(x) {
+  if (x === null) return null;
+  if (!x || typeof x !== 'object' || Array.isArray(x)) throw scriptError('bad_request', 'laurent must be {center, inner, outer, from, to} or null');
+  for (const k of Object.keys(x)) if (!['center', 'inner', 'outer', 'from', 'to'].includes(k)) throw scriptError('bad_request', `unknown field "laurent.${k}" (known: center, inner, outer, from, to)`);
+  const center = x.center === 'infinity' ? 'infinity' : isNum(x.center) ? [x.center, 0] : isPair(x.center) ? x.center.slice() : null;
+  if (!center) throw scriptError('bad_request', 'laurent.center must be [x, y] or "infinity"');
+  const inner = x.inner === undefined ? 0 : x.inner;
+  const outer = x.outer === undefined ? null : x.outer;
+  if (!isNum(inner) || !(outer === null || isNum(outer))) throw scriptError('bad_request', 'laurent.inner must be a number and laurent.outer a number or null');
+  if (!(inner >= 0) || (outer !== null && !(outer > inner))) throw scriptError('invalid_field', 'laurent needs 0 ≤ inner < outer');
+  const from = x.from === undefined ? -5 : x.from, to = x.to === undefined ? 5 : x.to;
+  if (!Number.isInteger(from) || !Number.isInteger(to)) throw scriptError('bad_request', 'laurent.from and laurent.to must be whole numbers');
+  if (from > to) throw scriptError('invalid_field', 'laurent.from must be no larger than laurent.to');
+  return { center, inner, outer, from, to };
+}
 
 /** The transfer section's controls from the page state: the unit (#tf-unit), the sampling period
  *  (#tf-period) and the encirclement point (transfer.js's setTransferPoint). */
@@ -113,6 +130,7 @@ function nextPageState(current, partial) {
     next.integral.alpha = isPair(a) && a[1] === 0 ? a[0] : a;
   }
   if (partial.panels && typeof partial.panels.integral === 'boolean') next.integral.open = partial.panels.integral;
+  if ('laurent' in partial) next.laurent = laurentChoice(partial.laurent);
   if ('wheel' in partial) { if (!['oklch', 'hsv'].includes(partial.wheel)) throw scriptError('invalid_field', 'wheel must be "oklch" or "hsv"'); next.wheel = partial.wheel; }
   if ('trails' in partial) next.trails = trailsFrom(partial.trails);
   if ('domain' in partial) {
@@ -169,8 +187,9 @@ export function installScripting(page, hooks) {
         : r.mode === 'rect' ? { shape: 'rectangle', corners: [[r.rect[0], r.rect[2]], [r.rect[1], r.rect[3]]] }
           : { shape: 'circle', center: [r.circle[0], r.circle[1]], radius: r.circle[2] },
       contour: hooks.contour(),
-      panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page), integral: hooks.integral.open() },
+      panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page), integral: hooks.integral.open(), laurent: page.laurent.isOpen() },
       kind: state.integral.kind, omega: state.integral.omega, alpha: state.integral.alpha,
+      laurent: state.laurent ? JSON.parse(JSON.stringify(state.laurent)) : null,
       modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, symbols: state.symbols, autoFind: state.autoFind,
       hz: state.hz, point: transferPoint(state),
       domain: state.domain === 'none' ? null : state.domain,
@@ -212,6 +231,8 @@ export function installScripting(page, hooks) {
     if (res.partial_fractions) out.partial_fractions = entry(res.partial_fractions);
     if (state.trails && page.trailsResult) out.pole_trails = entry(page.trailsResult);
     addIntegral(out);
+    const lp = page.laurent.results(stale);
+    if (lp) out.laurent = lp;
     return out;
   }
 
@@ -223,9 +244,11 @@ export function installScripting(page, hooks) {
     const span = v === 's' ? partial.t : v === 'z' ? partial.n : undefined;
     if (span !== undefined && !(isNum(span) && span > 0)) throw scriptError('invalid_field', v === 's' ? 't must be T > 0 (the page samples t = T/120 … T)' : 'n must be N > 0 (the page computes n = 0 … N)');
     const panels = partial.panels;
-    if (panels !== undefined && (!panels || typeof panels !== 'object' || Object.keys(panels).some((k) => !['inverse', 'transfer', 'integral'].includes(k)) ||
-      ['inverse', 'transfer', 'integral'].some((k) => panels[k] !== undefined && typeof panels[k] !== 'boolean'))) throw scriptError('bad_request', 'panels must be {inverse: true | false, transfer: true | false, integral: true | false}');
+    if (panels !== undefined && (!panels || typeof panels !== 'object' || Object.keys(panels).some((k) => !['inverse', 'transfer', 'integral', 'laurent'].includes(k)) ||
+      ['inverse', 'transfer', 'integral', 'laurent'].some((k) => panels[k] !== undefined && typeof panels[k] !== 'boolean'))) throw scriptError('bad_request', 'panels must be {inverse: true | false, transfer: true | false, integral: true | false, laurent: true | false}');
     hooks.adopt(next);
+    if (panels && panels.laurent !== undefined) page.laurent.setOpen(panels.laurent);
+    if ('laurent' in partial) page.laurent.setExplicit();
     askInverse(page, v, span, panels ? panels.inverse : null);
     // mode "transfer_function" opens the frequency-response section, "function" folds it (panels.transfer wins)
     const modeOpen = partial.mode === 'transfer_function' ? true : partial.mode === 'function' ? false : null;

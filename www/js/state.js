@@ -33,6 +33,7 @@ export function defaultState() {
     point: [-1, 0],      // the point its encirclements are counted about
     domain: 'auto',      // f read as a transfer function: 'auto' (by the variable's name), 's', 'z', 'none'
     integral: defaultIntegral(), // the real-integral block: {kind, omega, alpha, open} (real-integral.js)
+    laurent: null, // the Laurent section's choice: {center: [x, y] | "infinity", inner, outer, from, to} (laurent-panel.js)
     trails: null, // pole trails for one parameter: {name, from, to, steps, shown} (trails.js)
   };
 }
@@ -67,6 +68,12 @@ export function sanitize(raw) {
   if (t && typeof t === 'object' && typeof t.name === 'string' && Number.isFinite(t.from) && Number.isFinite(t.to) && t.from !== t.to &&
     Number.isInteger(t.steps) && t.steps >= 2 && t.steps <= 400) {
     s.trails = { name: t.name.slice(0, 40), from: t.from, to: t.to, steps: t.steps, shown: t.shown !== false };
+  }
+  const l = raw.laurent;
+  if (l && typeof l === 'object' && (l.center === 'infinity' || (Array.isArray(l.center) && l.center.length === 2 && l.center.every(Number.isFinite))) &&
+    Number.isFinite(l.inner) && l.inner >= 0 && (l.outer === null || (Number.isFinite(l.outer) && l.outer > l.inner)) &&
+    Number.isInteger(l.from) && Number.isInteger(l.to) && l.from <= l.to) {
+    s.laurent = { center: l.center === 'infinity' ? 'infinity' : l.center.slice(), inner: l.inner, outer: l.outer, from: l.from, to: l.to };
   }
   const r = raw.region;
   if (r && typeof r === 'object') {

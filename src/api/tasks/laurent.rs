@@ -51,6 +51,8 @@ pub struct LaurentRequest {
 pub struct Coefficient {
     pub n: i64,
     pub c: [f64; 2],
+    /// This coefficient's own error estimate (`error_estimate` is the largest of them).
+    pub error: f64,
 }
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -103,7 +105,12 @@ pub fn run(req: &LaurentRequest) -> Result<LaurentResponse, ApiError> {
     radii.sort_by(f64::total_cmp);
     radii.dedup();
     Ok(LaurentResponse {
-        coefficients: result.coefficients.iter().map(|&(n, c)| Coefficient { n, c: [c.re, c.im] }).collect(),
+        coefficients: result
+            .coefficients
+            .iter()
+            .zip(&result.errors)
+            .map(|(&(n, c), &error)| Coefficient { n, c: [c.re, c.im], error })
+            .collect(),
         error_estimate: result.error_estimate,
         radii,
         warnings,

@@ -38,6 +38,9 @@ pub struct ResidueResponse {
     pub error_estimate: Option<f64>,
     /// Principal-part coefficients `c_{-1}, c_{-2}, …` where known.
     pub principal_part: Vec<[f64; 2]>,
+    /// `true` where poles of f accumulate at the point (tan, Γ, … at infinity): it is then
+    /// not an isolated singularity (`kind` stays `"essential"`, `residue` is `null`).
+    pub accumulation: bool,
     pub warnings: Vec<String>,
 }
 
@@ -91,6 +94,7 @@ fn rational_at(f: &Function, rational: &crate::expr::Rational, a: C, max_evaluat
         order: r.order,
         error_estimate: Some(error_estimate),
         principal_part: r.principal_part.iter().map(|&c| pair(c)).collect(),
+        accumulation: false,
         warnings,
     })
 }
@@ -105,6 +109,7 @@ fn rational_at_infinity(num: &[C], den: &[C]) -> Result<ResidueResponse, ApiErro
         order,
         error_estimate: Some(a.residue_sum_tolerance.max(f64::EPSILON * a.residue_at_infinity.norm())),
         principal_part: Vec::new(),
+        accumulation: false,
         warnings: a.warnings,
     })
 }
@@ -125,6 +130,8 @@ fn general(f: &Function, at: Option<C>, max_evaluations: Option<u64>) -> Result<
         order: r.order,
         error_estimate: r.residue.map(|_| r.error_estimate),
         principal_part,
+        // The expression's structure says so (expr/analysis: poles_accumulate_at_infinity).
+        accumulation: at.is_none() && hints.poles_accumulate_at_infinity,
         warnings: r.warnings,
     })
 }

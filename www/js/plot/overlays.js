@@ -213,3 +213,63 @@ export function drawTrails(plot) {
   }
   ctx.restore();
 }
+
+/** In the view at infinity, the point w = 0 (z = ∞) gets a marker of its own — a ring around the
+ *  symbol of its kind (laurent-panel.js sets plot.infinityPoint = {kind, label}; a non-isolated
+ *  point gets a dashed second ring) — with its kind written beside it. The canvas carries the kind
+ *  drawn in data-infinity-marker (absent when none is drawn). */
+export function drawInfinityMarker(plot) {
+  const p = plot.infinityPoint;
+  if (!p || !plot.infinityMode) { delete plot.canvas.dataset.infinityMarker; return; }
+  const [x, y] = toScreen(plot, 0, 0);
+  if (x < MARGIN.left || x > MARGIN.left + plot.pw || y < MARGIN.top || y > MARGIN.top + plot.ph) { delete plot.canvas.dataset.infinityMarker; return; }
+  const ctx = plot.ctx;
+  ctx.save();
+  const ring = (r, dash) => {
+    ctx.setLineDash(dash);
+    ctx.beginPath(); ctx.arc(x, y, r, 0, 2 * Math.PI);
+    ctx.lineWidth = 4; ctx.strokeStyle = 'rgba(255,255,255,0.85)'; ctx.stroke();
+    ctx.lineWidth = 1.6; ctx.strokeStyle = '#111'; ctx.stroke();
+  };
+  ring(11, []);
+  if (p.kind === 'non_isolated') ring(16, [3, 3]);
+  ctx.setLineDash([]);
+  const symbol = { pole: 'pole', essential: 'essential', non_isolated: 'essential', branch_point: 'branch', removable: 'removable' }[p.kind];
+  if (symbol) drawMarker(ctx, symbol, x, y, false);
+  else { ctx.beginPath(); ctx.arc(x, y, 2.5, 0, 2 * Math.PI); ctx.fillStyle = '#111'; ctx.fill(); }
+  ctx.font = 'bold 12px system-ui, sans-serif';
+  ctx.lineWidth = 3;
+  ctx.strokeStyle = 'rgba(255,255,255,0.9)';
+  ctx.fillStyle = '#111';
+  ctx.textAlign = 'left';
+  ctx.textBaseline = 'middle';
+  ctx.strokeText(p.label, x + 20, y - 14);
+  ctx.fillText(p.label, x + 20, y - 14);
+  ctx.restore();
+  plot.canvas.dataset.infinityMarker = p.kind;
+}
+
+/** The Laurent section's annulus (plot.annulus = {center, inner, outer}): its two circles dashed,
+ *  dark on a light edge. In the view at infinity only an annulus about 0 is drawn (|w| = 1/r). */
+export function drawAnnulus(plot) {
+  const a = plot.annulus;
+  if (!a) { delete plot.canvas.dataset.annulus; return; }
+  let c = a.center, radii = [a.inner, a.outer];
+  if (plot.infinityMode) {
+    if (c[0] !== 0 || c[1] !== 0) { delete plot.canvas.dataset.annulus; return; }
+    radii = radii.map((r) => (r > 0 ? 1 / r : Infinity));
+  }
+  const [sx, sy] = toScreen(plot, c[0], c[1]);
+  const ctx = plot.ctx;
+  ctx.save();
+  ctx.setLineDash([7, 4]);
+  for (const r of radii) {
+    if (!(r > 0) || !Number.isFinite(r)) continue;
+    ctx.beginPath();
+    ctx.arc(sx, sy, r / plot.scale, 0, 2 * Math.PI);
+    ctx.lineWidth = 3; ctx.strokeStyle = 'rgba(255,255,255,0.7)'; ctx.stroke();
+    ctx.lineWidth = 1.2; ctx.strokeStyle = 'rgba(15,15,15,0.85)'; ctx.stroke();
+  }
+  ctx.restore();
+  plot.canvas.dataset.annulus = JSON.stringify([c, a.inner, Number.isFinite(a.outer) ? a.outer : null]);
+}
