@@ -3,13 +3,13 @@
 // their error estimates and the principal part typeset (MathML, with a plain-text line beside it).
 // Also the kind of the point at infinity (the core's residue at "infinity"), shown here and marked
 // at w = 0 in the plot's view at infinity (plot/overlays.js drawInfinityMarker).
+import { mathEl, mathMagnitude } from './mathml.js';
 import { $, el } from './dom.js';
 import { cAbs, cSub, isFinitePair } from './complex.js';
 import { fmtReal, fmtSig, fmtComplex, fmtExact, trimBelow, trimComplex } from './format.js';
 import { runHeavy, responseError } from './engine.js';
 import { KIND_WORDS } from './markers.js';
 
-const LP_MATHML = 'http://www.w3.org/1998/Math/MathML';
 const LP_SINGULAR = ['pole', 'essential', 'branch'];
 
 /** The kind of infinity in words, and a short key for the plot and the DOM, from a residue
@@ -110,61 +110,49 @@ function pointsWords(v, pts, kindOf) {
 
 // ---- typesetting ---------------------------------------------------------------------------
 
-function mml(tag, ...children) {
-  const node = document.createElementNS(LP_MATHML, tag);
-  for (const c of children) node.append(typeof c === 'string' ? document.createTextNode(c) : c);
-  return node;
-}
-
-function mnum(x) {
-  const t = fmtReal(Math.abs(x), 10);
-  const e = /^([\d.]+)e([−-]?\d+)$/.exec(t);
-  return e ? mml('mrow', mml('mn', e[1]), mml('mo', '×'), mml('msup', mml('mn', '10'), mml('mn', e[2].replace('-', '−')))) : mml('mn', t);
-}
-
 /** A coefficient as MathML: {node, negative} (negative: the leading sign is written outside). */
 function mcoef(c) {
   const [re, im] = c;
   // a coefficient written as 1 (to the 10 digits shown) is left out before a power
-  if (im === 0) return { node: mnum(re), negative: re < 0, one: fmtReal(Math.abs(re), 10) === '1' };
-  if (re === 0) return { node: mml('mrow', ...(Math.abs(im) === 1 ? [] : [mnum(im), mml('mo', '\u2062')]), mml('mi', 'i')), negative: im < 0, one: false };
-  const node = mml('mrow', mml('mo', '('));
-  if (re < 0) node.append(mml('mo', '−'));
-  node.append(mnum(re), mml('mo', im < 0 ? '−' : '+'));
-  if (Math.abs(im) !== 1) node.append(mnum(im), mml('mo', '\u2062'));
-  node.append(mml('mi', 'i'), mml('mo', ')'));
+  if (im === 0) return { node: mathMagnitude(re), negative: re < 0, one: fmtReal(Math.abs(re), 10) === '1' };
+  if (re === 0) return { node: mathEl('mrow', ...(Math.abs(im) === 1 ? [] : [mathMagnitude(im), mathEl('mo', '\u2062')]), mathEl('mi', 'i')), negative: im < 0, one: false };
+  const node = mathEl('mrow', mathEl('mo', '('));
+  if (re < 0) node.append(mathEl('mo', '−'));
+  node.append(mathMagnitude(re), mathEl('mo', im < 0 ? '−' : '+'));
+  if (Math.abs(im) !== 1) node.append(mathMagnitude(im), mathEl('mo', '\u2062'));
+  node.append(mathEl('mi', 'i'), mathEl('mo', ')'));
   return { node, negative: false, one: false };
 }
 
 /** The base (v − c) as MathML and as text. */
 function seriesBase(v, c) {
-  if (c[0] === 0 && c[1] === 0) return { node: mml('mi', v), text: v, bare: true };
+  if (c[0] === 0 && c[1] === 0) return { node: mathEl('mi', v), text: v, bare: true };
   const t = `${v} − (${fmtComplex(c, 10)})`;
-  const row = mml('mrow', mml('mi', v));
-  if (c[1] === 0) { row.append(mml('mo', c[0] > 0 ? '−' : '+'), mnum(c[0])); return { node: row, text: `${v} ${c[0] > 0 ? '−' : '+'} ${fmtReal(Math.abs(c[0]), 10)}`, bare: false }; }
-  row.append(mml('mo', '−'), mcoef(c).node);
+  const row = mathEl('mrow', mathEl('mi', v));
+  if (c[1] === 0) { row.append(mathEl('mo', c[0] > 0 ? '−' : '+'), mathMagnitude(c[0])); return { node: row, text: `${v} ${c[0] > 0 ? '−' : '+'} ${fmtReal(Math.abs(c[0]), 10)}`, bare: false }; }
+  row.append(mathEl('mo', '−'), mcoef(c).node);
   return { node: row, text: t, bare: false };
 }
 
 /** Σ c_n (v − c)^n over `terms` ({n, c}, already trimmed, non-zero) as MathML and plain text;
  *  negative n as fractions. `more`: "+ ⋯" at the end. */
 export function seriesMath(v, c, terms, more) {
-  const math = mml('math');
+  const math = mathEl('math');
   math.setAttribute('display', 'block');
-  const row = mml('mrow');
+  const row = mathEl('mrow');
   const b = seriesBase(v, c);
   const texts = [];
-  if (terms.length === 0) { row.append(mml('mn', '0')); texts.push('0'); }
+  if (terms.length === 0) { row.append(mathEl('mn', '0')); texts.push('0'); }
   terms.forEach((t, i) => {
     const { node, negative, one } = mcoef(t.c);
-    if (i > 0) row.append(mml('mo', negative ? '−' : '+'));
-    else if (negative) row.append(mml('mo', '−'));
+    if (i > 0) row.append(mathEl('mo', negative ? '−' : '+'));
+    else if (negative) row.append(mathEl('mo', '−'));
     const k = Math.abs(t.n);
-    const bb = b.bare ? b.node.cloneNode(true) : mml('mrow', mml('mo', '('), b.node.cloneNode(true), mml('mo', ')'));
-    const power = k === 1 ? (t.n < 0 ? b.node.cloneNode(true) : bb) : mml('msup', bb, mml('mn', String(k)));
-    if (t.n < 0) row.append(mml('mfrac', one ? mml('mn', '1') : node, power));
-    else if (t.n === 0) row.append(one ? mml('mn', '1') : node);
-    else { if (!one) row.append(node, mml('mo', '\u2062')); row.append(power); }
+    const bb = b.bare ? b.node.cloneNode(true) : mathEl('mrow', mathEl('mo', '('), b.node.cloneNode(true), mathEl('mo', ')'));
+    const power = k === 1 ? (t.n < 0 ? b.node.cloneNode(true) : bb) : mathEl('msup', bb, mathEl('mn', String(k)));
+    if (t.n < 0) row.append(mathEl('mfrac', one ? mathEl('mn', '1') : node, power));
+    else if (t.n === 0) row.append(one ? mathEl('mn', '1') : node);
+    else { if (!one) row.append(node, mathEl('mo', '\u2062')); row.append(power); }
     const mag = negative ? [-t.c[0], -t.c[1]] : t.c;
     const ct = t.c[1] === 0 ? fmtReal(Math.abs(t.c[0]), 10) : `(${fmtComplex(mag, 10)})`;
     const bt = b.bare ? v : `(${b.text})`;
@@ -172,7 +160,7 @@ export function seriesMath(v, c, terms, more) {
     const pt = t.n === 0 ? ct : one && t.n > 0 ? pw : `${ct}·${pw}`;
     texts.push((i > 0 ? (negative ? ' − ' : ' + ') : negative ? '−' : '') + pt);
   });
-  if (more && terms.length) { row.append(mml('mo', '+'), mml('mo', '⋯')); texts.push(' + …'); }
+  if (more && terms.length) { row.append(mathEl('mo', '+'), mathEl('mo', '⋯')); texts.push(' + …'); }
   math.append(row);
   return { math, text: texts.join('') };
 }

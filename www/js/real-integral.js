@@ -5,6 +5,7 @@
 // residues used, the lemma that drops the added pieces, the sum. Divergent integrals show the
 // core's refusal. The integrand is the page's f in the page's variable, that variable running
 // along the real axis (x) or over one period (θ).
+import { mathEl } from './mathml.js';
 import { el } from './dom.js';
 import { isFinitePair } from './complex.js';
 import { fmtReal, fmtSig, fmtExact, trimBelow } from './format.js';
@@ -57,24 +58,18 @@ export function integralRequest(state) {
 
 // ---- MathML, with the same formula as plain text beside it ------------------------------------
 
-const MATHML_NS = 'http://www.w3.org/1998/Math/MathML';
 /** A MathML element; string children become text. */
-function mml(tag, ...children) {
-  const node = document.createElementNS(MATHML_NS, tag);
-  for (const c of children) node.append(typeof c === 'string' ? document.createTextNode(c) : c);
-  return node;
-}
-const mmi = (t) => mml('mi', t), mmo = (t) => mml('mo', t), mmn = (t) => mml('mn', t);
-const mrow = (...c) => mml('mrow', ...c);
-const msup = (b, e) => mml('msup', b, e);
-const msubsup = (b, lo, hi) => mml('msubsup', b, lo, hi);
-const msub = (b, lo) => mml('msub', b, lo);
-const mspace = () => { const sp = mml('mspace'); sp.setAttribute('width', '1em'); return sp; };
+const mmi = (t) => mathEl('mi', t), mmo = (t) => mathEl('mo', t), mmn = (t) => mathEl('mn', t);
+const mrow = (...c) => mathEl('mrow', ...c);
+const msup = (b, e) => mathEl('msup', b, e);
+const msubsup = (b, lo, hi) => mathEl('msubsup', b, lo, hi);
+const msub = (b, lo) => mathEl('msub', b, lo);
+const mspace = () => { const sp = mathEl('mspace'); sp.setAttribute('width', '1em'); return sp; };
 const mnum = (x) => { const t = fmtReal(x, 10); return t.startsWith('−') ? mrow(mmo('−'), mmn(t.slice(1))) : mmn(t); };
 
 /** A formula: <math> with `alttext`, and the plain text in a copyable code element beside it. */
 function mathBlock(mathRow, plain, cls = 'ri-math') {
-  const math = mml('math', mathRow);
+  const math = mathEl('math', mathRow);
   math.setAttribute('display', 'block');
   math.setAttribute('alttext', plain);
   return el('div', { class: cls }, math, el('code', { class: 'ri-plain', text: plain }));
@@ -83,12 +78,12 @@ function mathBlock(mathRow, plain, cls = 'ri-math') {
 /** The integral asked for, as MathML and text; `pv` prefixes the principal value. */
 function integralStatement(kind, omega, alpha, pv, value) {
   const x = kind === 'trig' ? 'θ' : 'x';
-  const P = pv ? [mml('mtext', 'PV'), mmo('\u2061')] : [];
+  const P = pv ? [mathEl('mtext', 'PV'), mmo('\u2061')] : [];
   const P_t = pv ? 'PV ' : '';
   const int = (lo, hi) => msubsup(mmo('∫'), lo, hi);
   const fx = [mmi('f'), mmo('('), mmi(x), mmo(')')];
   const dx = [mmi('d'), mmi(x)];
-  const eq = [mmo('='), mml('mtext', value)];
+  const eq = [mmo('='), mathEl('mtext', value)];
   if (kind === 'line') return [mrow(...P, int(mrow(mmo('−'), mmi('∞')), mmi('∞')), ...fx, ...dx, ...eq), `${P_t}∫_{−∞}^{∞} f(x) dx = ${value}`];
   if (kind === 'fourier') {
     return [mrow(...P, int(mrow(mmo('−'), mmi('∞')), mmi('∞')), ...fx, msup(mmi('e'), mrow(mmi('i'), mmi('ω'), mmi(x))), ...dx, ...eq, mspace(), mmo('('), mmi('ω'), mmo('='), mnum(omega), mmo(')')),
@@ -96,7 +91,7 @@ function integralStatement(kind, omega, alpha, pv, value) {
   }
   if (kind === 'trig') return [mrow(int(mmn('0'), mrow(mmn('2'), mmi('π'))), ...fx, ...dx, ...eq), `∫_0^{2π} f(θ) dθ = ${value}`];
   const a = Array.isArray(alpha) ? fmtSig(alpha, 10) : fmtReal(alpha, 10);
-  return [mrow(int(mmn('0'), mmi('∞')), msup(mmi('x'), mrow(mmi('α'), mmo('−'), mmn('1'))), ...fx, ...dx, ...eq, mspace(), mmo('('), mmi('α'), mmo('='), mml('mtext', a), mmo(')')),
+  return [mrow(int(mmn('0'), mmi('∞')), msup(mmi('x'), mrow(mmi('α'), mmo('−'), mmn('1'))), ...fx, ...dx, ...eq, mspace(), mmo('('), mmi('α'), mmo('='), mathEl('mtext', a), mmo(')')),
     `∫_0^∞ x^(α−1) f(x) dx = ${value}   (α = ${a})`];
 }
 
@@ -118,10 +113,10 @@ function residueFormula(resp) {
     }
     case 'unit_circle':
       return [mrow(mmo('='), ...twoPiI, sigma(mrow(mmo('|'), mmi('a'), mmo('|'), mmo('<'), mmn('1'))), res([mmi('g')]), mmo(','), mmi('g'), mmo('('), mmi('z'), mmo(')'), mmo('='),
-        mml('mfrac', mrow(mmi('f'), mmo('('), mmo('−'), mmi('i'), mmi('log'), mmo('\u2061'), mmi('z'), mmo(')')), mrow(mmi('i'), mmi('z')))),
+        mathEl('mfrac', mrow(mmi('f'), mmo('('), mmo('−'), mmi('i'), mmi('log'), mmo('\u2061'), mmi('z'), mmo(')')), mrow(mmi('i'), mmi('z')))),
         '= 2πi Σ_{|a|<1} Res[g, a], g(z) = f(−i log z)/(iz)'];
     default:
-      return [mrow(mmo('='), mml('mfrac', mrow(...twoPiI), mrow(mmn('1'), mmo('−'), msup(mmi('e'), mrow(mmn('2'), mmi('π'), mmi('i'), mmi('α'))))),
+      return [mrow(mmo('='), mathEl('mfrac', mrow(...twoPiI), mrow(mmn('1'), mmo('−'), msup(mmi('e'), mrow(mmn('2'), mmi('π'), mmi('i'), mmi('α'))))),
         sigma(mrow(mmi('a'), mmo('≠'), mmn('0'))), res([msup(mmi('z'), mrow(mmi('α'), mmo('−'), mmn('1'))), mmi('f')])),
         '= 2πi/(1 − e^(2πiα)) Σ_{a≠0} Res[z^(α−1) f, a], arg z in (0, 2π)'];
   }

@@ -5,11 +5,11 @@
 import { el } from './dom.js';
 import { cAbs, cSub, isFinitePair } from './complex.js';
 import { fmtComplex, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, trimComplex } from './format.js';
+import { mathEl, mathMagnitude } from './mathml.js';
 import { runHeavy, responseError } from './engine.js';
 import { KIND_WORDS, markerIcon } from './markers.js';
 import { regionWords } from './region.js';
 
-const MATHML = 'http://www.w3.org/1998/Math/MathML';
 
 /** Flatten a singularities response into one list of points. `floor` is the size below which a
  *  location's real or imaginary part is rounding noise (a small fraction of the region's size). */
@@ -161,30 +161,16 @@ export function requestLaurent(base, item, radius) {
 
 // ---- MathML --------------------------------------------------------------------
 
-function m(tag, ...children) {
-  const node = document.createElementNS(MATHML, tag);
-  for (const c of children) node.append(typeof c === 'string' ? document.createTextNode(c) : c);
-  return node;
-}
-
-/** |x| to 10 significant digits; exponents written as × 10^k. */
-function mn(x) {
-  const t = fmtReal(Math.abs(x), 10);
-  const e = /^([\d.]+)e([−-]?\d+)$/.exec(t);
-  if (!e) return m('mn', t);
-  return m('mrow', m('mn', e[1]), m('mo', '×'), m('msup', m('mn', '10'), m('mn', e[2].replace('-', '−'))));
-}
-
 /** (v − z0) as MathML. */
 function shift(variable, z0) {
-  if (z0[0] === 0 && z0[1] === 0) return m('mi', variable);
-  const row = m('mrow', m('mi', variable));
+  if (z0[0] === 0 && z0[1] === 0) return mathEl('mi', variable);
+  const row = mathEl('mrow', mathEl('mi', variable));
   const re = z0[0], im = z0[1];
-  if (re !== 0) row.append(m('mo', re > 0 ? '−' : '+'), mn(re));
+  if (re !== 0) row.append(mathEl('mo', re > 0 ? '−' : '+'), mathMagnitude(re));
   if (im !== 0) {
-    row.append(m('mo', im > 0 ? '−' : '+'));
-    if (Math.abs(im) !== 1) row.append(mn(im), m('mo', '\u2062'));
-    row.append(m('mi', 'i'));
+    row.append(mathEl('mo', im > 0 ? '−' : '+'));
+    if (Math.abs(im) !== 1) row.append(mathMagnitude(im), mathEl('mo', '\u2062'));
+    row.append(mathEl('mi', 'i'));
   }
   return row;
 }
@@ -192,47 +178,47 @@ function shift(variable, z0) {
 /** A complex coefficient as MathML, with parentheses when it has two parts. */
 function coefficient(c) {
   const [re, im] = c;
-  if (im === 0) return { node: mn(re), negative: re < 0, one: Math.abs(re) === 1 };
+  if (im === 0) return { node: mathMagnitude(re), negative: re < 0, one: Math.abs(re) === 1 };
   if (re === 0) {
-    const node = m('mrow');
-    if (Math.abs(im) !== 1) node.append(mn(im), m('mo', '\u2062'));
-    node.append(m('mi', 'i'));
+    const node = mathEl('mrow');
+    if (Math.abs(im) !== 1) node.append(mathMagnitude(im), mathEl('mo', '\u2062'));
+    node.append(mathEl('mi', 'i'));
     return { node, negative: im < 0, one: false };
   }
-  const node = m('mrow', m('mo', '('));
-  if (re < 0) node.append(m('mo', '−'));
-  node.append(mn(re), m('mo', im < 0 ? '−' : '+'));
-  if (Math.abs(im) !== 1) node.append(mn(im), m('mo', '\u2062'));
-  node.append(m('mi', 'i'), m('mo', ')'));
+  const node = mathEl('mrow', mathEl('mo', '('));
+  if (re < 0) node.append(mathEl('mo', '−'));
+  node.append(mathMagnitude(re), mathEl('mo', im < 0 ? '−' : '+'));
+  if (Math.abs(im) !== 1) node.append(mathMagnitude(im), mathEl('mo', '\u2062'));
+  node.append(mathEl('mi', 'i'), mathEl('mo', ')'));
   return { node, negative: false, one: false };
 }
 
 /** The principal part Σ_{n<0} c_n (v − z0)^n written out. Coefficient parts below `level`
  *  (the error level) are written as 0; `more` appends "+ ⋯" (an essential singularity). */
 export function principalPartMathML(variable, z0, coefficients, level, more, floor = 0, maxTerms = 12) {
-  const math = m('math');
+  const math = mathEl('math');
   math.setAttribute('display', 'block');
-  const row = m('mrow');
+  const row = mathEl('mrow');
   const terms = coefficients
     .filter((t) => t.n < 0 && isFinitePair(t.c))
     .map((t) => ({ n: t.n, c: trimBelow(t.c, level) }))
     .filter((t) => t.c[0] !== 0 || t.c[1] !== 0)
     .sort((a, b) => b.n - a.n);
   if (terms.length > maxTerms) { terms.length = maxTerms; more = true; }
-  if (terms.length === 0) row.append(m('mn', '0'));
+  if (terms.length === 0) row.append(mathEl('mn', '0'));
   const centre = trimComplex(z0, 12, floor);
   terms.forEach((t, i) => {
     const { node, negative, one } = coefficient(t.c);
-    if (i > 0) row.append(m('mo', negative ? '−' : '+'));
-    else if (negative) row.append(m('mo', '−'));
+    if (i > 0) row.append(mathEl('mo', negative ? '−' : '+'));
+    else if (negative) row.append(mathEl('mo', '−'));
     const k = -t.n;
     const base = shift(variable, centre);
     const needParens = !(centre[0] === 0 && centre[1] === 0);
     const power = k === 1 ? base
-      : m('msup', needParens ? m('mrow', m('mo', '('), base, m('mo', ')')) : base, m('mn', String(k)));
-    row.append(m('mfrac', one ? m('mn', '1') : node, power));
+      : mathEl('msup', needParens ? mathEl('mrow', mathEl('mo', '('), base, mathEl('mo', ')')) : base, mathEl('mn', String(k)));
+    row.append(mathEl('mfrac', one ? mathEl('mn', '1') : node, power));
   });
-  if (more && terms.length) row.append(m('mo', '+'), m('mo', '⋯'));
+  if (more && terms.length) row.append(mathEl('mo', '+'), mathEl('mo', '⋯'));
   math.append(row);
   return math;
 }
