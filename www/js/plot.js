@@ -76,6 +76,7 @@ function drawPlot(plot) {
   drawRegion(plot);
   drawTrails(plot);
   drawMarkers(plot);
+  for (const hook of plot.overlayHooks || []) hook(ctx); // e.g. the image curve's mark on γ
   drawMessage(plot);
   ctx.restore();
   drawAxes(plot);

@@ -42,7 +42,7 @@ function regionFrom(value, region) {
 }
 
 const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',
-  'hz', 'sample_period', 'point'];
+  'hz', 'sample_period', 'point', 'image_point'];
 
 /** The transfer section's controls from the page state: the unit (#tf-unit), the sampling period
  *  (#tf-period) and the encirclement point (transfer.js's setTransferPoint). */
@@ -102,7 +102,7 @@ function nextPageState(current, partial) {
 /** Install window.residuary. `hooks`: started (a promise: the core has loaded), adopt(state)
  *  (take over a whole page state), checkNow() (check f at once; true when it can be used),
  *  fit() (fit the view to a rational f's poles and zeros; resolves true when it did),
- *  contour() (the region's contour), pipeline (find, settled). */
+ *  contour() (the region's contour), pipeline (find, settled), imageCurve (image-curve.js). */
 export function installScripting(page, hooks) {
   const { state, ui } = page;
   // The unit and the sampling period typed into the section are kept with the page state.
@@ -131,7 +131,8 @@ export function installScripting(page, hooks) {
         : r.mode === 'rect' ? { shape: 'rectangle', corners: [[r.rect[0], r.rect[2]], [r.rect[1], r.rect[3]]] }
           : { shape: 'circle', center: [r.circle[0], r.circle[1]], radius: r.circle[2] },
       contour: hooks.contour(),
-      panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page) },
+      panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page), image: hooks.imageCurve.open() },
+      image_point: hooks.imageCurve.point(),
       modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, symbols: state.symbols, autoFind: state.autoFind,
       hz: state.hz, point: transferPoint(state),
     };
@@ -145,7 +146,10 @@ export function installScripting(page, hooks) {
 
   function currentResults() {
     const res = page.results;
-    if (!res) return {};
+    if (!res) {
+      const image = hooks.imageCurve.result();
+      return image ? { image_curve: image } : {};
+    }
     const stale = ui.singTable.classList.contains('stale') || res.serial !== page.searchSerial;
     const entry = (resp, extra = {}) => (resp ? Object.assign({}, JSON.parse(JSON.stringify(resp)), { stale }, extra) : undefined);
     const out = {};
@@ -160,6 +164,8 @@ export function installScripting(page, hooks) {
     }
     if (res.transfer_function && transferOpen(page)) out.transfer_function = entry(res.transfer_function);
     if (res.partial_fractions) out.partial_fractions = entry(res.partial_fractions);
+    const image = hooks.imageCurve.result(); // computed for the state as it is now: never stale
+    if (image) out.image_curve = image;
     return out;
   }
 
@@ -171,11 +177,14 @@ export function installScripting(page, hooks) {
     const span = v === 's' ? partial.t : v === 'z' ? partial.n : undefined;
     if (span !== undefined && !(isNum(span) && span > 0)) throw scriptError('invalid_field', v === 's' ? 't must be T > 0 (the page samples t = T/120 … T)' : 'n must be N > 0 (the page computes n = 0 … N)');
     const panels = partial.panels;
-    if (panels !== undefined && (!panels || typeof panels !== 'object' || Object.keys(panels).some((k) => !['inverse', 'transfer'].includes(k)) ||
-      ['inverse', 'transfer'].some((k) => panels[k] !== undefined && typeof panels[k] !== 'boolean'))) throw scriptError('bad_request', 'panels must be {inverse: true | false, transfer: true | false}');
+    if (panels !== undefined && (!panels || typeof panels !== 'object' || Object.keys(panels).some((k) => !['inverse', 'transfer', 'image'].includes(k)) ||
+      ['inverse', 'transfer', 'image'].some((k) => panels[k] !== undefined && typeof panels[k] !== 'boolean'))) throw scriptError('bad_request', 'panels must be {inverse: true | false, transfer: true | false, image: true | false}');
+    if (partial.image_point !== undefined && !isPair(partial.image_point)) throw scriptError('invalid_field', 'image_point must be [re, im]');
     hooks.adopt(next);
     askInverse(page, v, span, panels ? panels.inverse : null);
     askTransfer(panels ? panels.transfer : null);
+    if (partial.image_point !== undefined) hooks.imageCurve.setPoint(partial.image_point);
+    if (panels && panels.image !== undefined) hooks.imageCurve.setOpen(panels.image);
     if (!hooks.checkNow()) {
       const { problems } = paramsForRequest(state.params);
       const resp = runNow(Object.assign(functionInput(state), { task: 'evaluate', at: [[0.31, 0.17]] }));
