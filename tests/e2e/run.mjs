@@ -11,6 +11,7 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createRequire } from 'node:module';
 import './entry-forms.test.mjs'; // the entry forms' parsing and writing, in node
+import './contour-path.test.mjs'; // the contour shapes' polylines and the image curve's winding, in node
 
 const here = dirname(fileURLToPath(import.meta.url));
 const require = createRequire(join(here, 'package.json'));
@@ -525,7 +526,7 @@ describe('the page with the real core', () => {
   test('scripting: state() after set equals what was set (normalised)', async () => {
     await load(b.page);
     const want = { f: '1/(z^2 + 0.5*z + 2)', var: 'z', params: { a: [0.3, 0.1], k: 2 }, view: [-2, 2, -2, 2],
-      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true, transfer: false }, n: 12 };
+      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true, transfer: false, image: false }, n: 12 };
     const out = await scriptSet(b.page, want);
     assert.ok(out.ok, JSON.stringify(out.error));
     const got = await scriptState(b.page);
@@ -1472,7 +1473,8 @@ describe('the image curve f(γ)', () => {
     const want = JSON.parse(core.run_json(JSON.stringify({ task: 'evaluate', f: F, at: [p.z] }))).values[0];
     assert.ok(Math.hypot(p.w[0] - want[0], p.w[1] - want[1]) < 1e-12 * Math.max(1, Math.hypot(...want)), `${p.w} vs ${want}`);
     // And the page's argument_count for the same contour says the same (by hand above: 1).
-    if (r.argument_count) assert.equal(r.argument_count.zeros_minus_poles, 1);
+    assert.equal(r.argument_count.zeros_minus_poles, 1);
+    assert.match(await b.page.textContent('#image-winding'), /about 0: 1; .*argument count\): 1, the same/);
     // Re z in [−3, 0.2], Im z in [−1, 1] holds the zero −0.3i and the pole −2: 1 − 1 = 0 (by hand).
     r = await set({ region: { shape: 'rectangle', corners: [[-3, -1], [0.2, 1]] } });
     assert.equal(r.image_curve.winding_about_0, 0);

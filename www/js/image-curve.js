@@ -8,24 +8,11 @@
 import { $ } from './dom.js';
 import { runNow, responseError } from './engine.js';
 import { drawPolarChart } from './polar-chart.js';
-import { sampleContour } from './contour-path.js';
+import { sampleContour, windingAbout } from './contour-path.js';
 import { toScreen } from './plot/view.js';
 import { fmtComplex } from './format.js';
 
 const START = 384, MAX = 6000, TURN = Math.PI / 4;
-
-/** The winding number of the closed polyline `values` ([[re, im], …]) about p by the angle sum;
- *  null when the curve passes through p or is not finite. */
-export function windingAbout(values, p) {
-  let total = 0;
-  for (let k = 0; k < values.length; k++) {
-    const a = values[k], b = values[(k + 1) % values.length];
-    const ar = a[0] - p[0], ai = a[1] - p[1], br = b[0] - p[0], bi = b[1] - p[1];
-    if (![ar, ai, br, bi].every(Number.isFinite) || (ar === 0 && ai === 0)) return null;
-    total += Math.atan2(ar * bi - ai * br, ar * br + ai * bi);
-  }
-  return Math.round(total / (2 * Math.PI)) || 0; // never −0
-}
 
 function evaluate(fnInput, pts) {
   const resp = runNow(Object.assign({}, fnInput, { task: 'evaluate', at: pts }));
@@ -82,7 +69,7 @@ export function markImageAt(t) {
  *  same contour, or null). */
 export function createImageCurve(page, hooks) {
   const box = $('image-box'), canvas = $('image-chart'), words = $('image-winding'), input = $('image-point');
-  let point = [-1, 0], data = null, key = '', cursor = -1;
+  let point = [-1, 0], data = null, key = '', cursor = -1, spoken = null;
   const view = { map: null };
 
   function draw() {
@@ -100,6 +87,7 @@ export function createImageCurve(page, hooks) {
     const say = (n) => (n === null ? 'not defined (the image passes through the point)' : String(n));
     let text = `Winding number of f(γ) about 0: ${say(w0)}; about ${fmtComplex(point, 4)}: ${say(wp)}.`;
     const ac = hooks.argumentCount();
+    spoken = ac ? ac.zeros_minus_poles : null;
     if (ac && Number.isFinite(ac.zeros_minus_poles)) {
       text += ` Zeros minus poles inside γ (argument count): ${ac.zeros_minus_poles}` + (ac.zeros_minus_poles === w0 ? ', the same.' : ', which differs: the sampling may miss fast turns.');
     }
@@ -109,7 +97,13 @@ export function createImageCurve(page, hooks) {
   function compute() {
     const contour = hooks.contour(), fn = hooks.fnInput();
     const k = JSON.stringify([contour, fn, point]);
-    if (k === key && data) return data;
+    if (k === key && data) {
+      // the argument count may have arrived since: say so
+      const ac = hooks.argumentCount();
+      const seen = ac ? ac.zeros_minus_poles : null;
+      if (seen !== spoken) describe();
+      return data;
+    }
     key = k;
     if (!fn) { data = { error: { code: 'expression', message: 'f cannot be used' } }; describe(); draw(); return data; }
     const r = imageOf(contour, fn, point);
