@@ -11,6 +11,7 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createRequire } from 'node:module';
 import './entry-forms.test.mjs'; // the entry forms' parsing and writing, in node
+import './contour-path.test.mjs'; // the contour shapes' polylines and the image curve's winding, in node
 
 const here = dirname(fileURLToPath(import.meta.url));
 const require = createRequire(join(here, 'package.json'));
@@ -525,7 +526,7 @@ describe('the page with the real core', () => {
   test('scripting: state() after set equals what was set (normalised)', async () => {
     await load(b.page);
     const want = { f: '1/(z^2 + 0.5*z + 2)', var: 'z', params: { a: [0.3, 0.1], k: 2 }, view: [-2, 2, -2, 2],
-      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true, transfer: false, integral: false, laurent: false }, n: 12 };
+      region: { shape: 'circle', center: [0.5, 0], radius: 3 }, phase: true, panels: { inverse: true, transfer: false, integral: false, laurent: false, image: false }, n: 12 };
     const out = await scriptSet(b.page, want);
     assert.ok(out.ok, JSON.stringify(out.error));
     const got = await scriptState(b.page);
@@ -1852,5 +1853,83 @@ describe('the Laurent section and the point at infinity', () => {
     assert.equal(await b.page.getAttribute('#plot', 'data-annulus'), null);
     assert.deepEqual(b.log.errors, []);
     assert.deepEqual(b.log.requests, []);
+  });
+});
+
+describe('the image curve f(γ)', () => {
+  let b;
+  before(async () => { b = await openBrowser({ width: 1366, height: 900 }); await load(b.page); });
+  after(async () => { if (b) await b.close(); });
+  // Invented for the test: zeros 0.5, −0.3i, 1.8i and poles 1 + 0.5i, −2.
+  const F = '(z-0.5)*(z+0.3i)*(z-1.8i)/((z-1-0.5i)*(z+2))';
+  const set = (s) => b.page.evaluate((s) => window.residuary.set(s), s);
+
+  test('the winding about 0 is zeros minus poles inside, on a circle and a rectangle', async () => {
+    // Argument principle, counted by hand: |z| < 1.5 holds the zeros 0.5, −0.3i and the pole 1 + 0.5i: 2 − 1 = 1.
+    let r = await set({ f: F, var: 'z', params: {}, region: { shape: 'circle', center: [0, 0], radius: 1.5 }, panels: { image: true }, image_point: [-1, 0] });
+    assert.equal(r.image_curve.winding_about_0, 1);
+    assert.ok(r.image_curve.points.length >= 300, `${r.image_curve.points.length} points`);
+    assert.deepEqual(r.image_curve.contour, { shape: 'circle', center: [0, 0], radius: 1.5 });
+    // The sampled values are the core's: one point against evaluate in node.
+    const core = await nodeCore();
+    const p = r.image_curve.points[17];
+    const want = JSON.parse(core.run_json(JSON.stringify({ task: 'evaluate', f: F, at: [p.z] }))).values[0];
+    assert.ok(Math.hypot(p.w[0] - want[0], p.w[1] - want[1]) < 1e-12 * Math.max(1, Math.hypot(...want)), `${p.w} vs ${want}`);
+    // And the page's argument_count for the same contour says the same (by hand above: 1).
+    assert.equal(r.argument_count.zeros_minus_poles, 1);
+    assert.match(await b.page.textContent('#image-winding'), /about 0: 1; .*argument count\): 1, the same/);
+    // Re z in [−3, 0.2], Im z in [−1, 1] holds the zero −0.3i and the pole −2: 1 − 1 = 0 (by hand).
+    r = await set({ region: { shape: 'rectangle', corners: [[-3, -1], [0.2, 1]] } });
+    assert.equal(r.image_curve.winding_about_0, 0);
+    assert.deepEqual(r.image_curve.point, [-1, 0]);
+    const st = await b.page.evaluate(() => window.residuary.state());
+    assert.equal(st.panels.image, true);
+  });
+
+  test('picking a point changes the count', async () => {
+    let r = await set({ region: { shape: 'circle', center: [0, 0], radius: 1.5 }, image_point: [0, 0] });
+    assert.equal(r.image_curve.winding_about_point, 1, 'about 0 as the picked point: the same as winding_about_0');
+    // |f| on |z| = 1.5 is below 1000 (each factor bounded by hand: |z − a| ≤ 3.3, |z − 1 − 0.5i| ≥ 0.38, |z + 2| ≥ 0.5),
+    // so the image does not wind about 1000.
+    r = await set({ image_point: [1000, 0] });
+    assert.equal(r.image_curve.winding_about_point, 0);
+    assert.equal(r.image_curve.winding_about_0, 1);
+    // a click on the chart picks the point under it
+    await b.page.evaluate(() => document.getElementById('image-box').scrollIntoView());
+    const box = await b.page.locator('#image-chart').boundingBox();
+    await b.page.mouse.click(box.x + box.width - 30, box.y + 60);
+    const after = await b.page.evaluate(() => window.residuary.results().image_curve.point);
+    assert.notDeepEqual(after, [1000, 0]);
+    await b.page.click('#image-point-minus1');
+    assert.deepEqual(await b.page.evaluate(() => window.residuary.results().image_curve.point), [-1, 0]);
+  });
+
+  test('hovering γ marks its image and hovering the image marks γ', async () => {
+    await set({ region: { shape: 'circle', center: [0, 0], radius: 1.5 }, view: [-3, 3, -3, 3] });
+    // the screen position of γ(0) = 1.5 on the plot, from the view and the plot's margins (plot/view.js MARGIN)
+    const pos = await b.page.evaluate(() => {
+      window.scrollTo(0, 0);
+      const c = document.getElementById('plot');
+      const r = c.getBoundingClientRect();
+      const st = window.residuary.state();
+      const [x0, x1, y0, y1] = st.view;
+      const w = r.width - 54 - 10, h = r.height - 8 - 34;
+      const scale = Math.max((x1 - x0) / w, (y1 - y0) / h);
+      const cx = (x0 + x1) / 2, cy = (y0 + y1) / 2;
+      return { x: r.left + 54 + w / 2 + (1.5 - cx) / scale, y: r.top + 8 + h / 2 - (0 - cy) / scale };
+    });
+    await b.page.mouse.move(pos.x, pos.y);
+    const marked = await b.page.evaluate(() => ({ k: document.getElementById('image-box').dataset.marked, on: document.getElementById('image-box').dataset.markedOn }));
+    assert.equal(marked.on, 'image');
+    const k = Number(marked.k);
+    const pts = await b.page.evaluate(() => window.residuary.results().image_curve.points);
+    assert.ok(k >= 0 && Math.hypot(pts[k].z[0] - 1.5, pts[k].z[1]) < 0.1, `marked ${k}: ${JSON.stringify(pts[k])}`);
+    await b.page.screenshot({ path: join(artifacts, 'image-curve.png') });
+    await b.page.locator('#image-chart').scrollIntoViewIfNeeded();
+    const box = await b.page.locator('#image-chart').boundingBox();
+    await b.page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    const on = await b.page.evaluate(() => document.getElementById('image-box').dataset.markedOn);
+    assert.equal(on, 'contour');
+    assert.deepEqual(b.log.errors, []);
   });
 });

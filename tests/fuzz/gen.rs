@@ -123,8 +123,20 @@ fn positive(rng: &mut Rng) -> f64 {
 /// A contour, often ordinary, sometimes degenerate.
 pub fn contour(rng: &mut Rng) -> Value {
     let c = |rng: &mut Rng| json!([real(rng), real(rng)]);
-    match rng.below(8) {
+    match rng.below(10) {
         0 | 1 | 2 => json!({"shape": "circle", "center": c(rng), "radius": positive(rng)}),
+        8 => {
+            let side = *rng.pick(&["upper", "lower", "left", "right"]);
+            json!({"shape": "half_disc", "center": c(rng), "radius": positive(rng), "direction": side})
+        }
+        9 => {
+            let (a, b) = (positive(rng), positive(rng));
+            let mut k = json!({"shape": "keyhole", "center": c(rng), "inner": a.min(b), "outer": a.max(b), "angle": real(rng)});
+            if rng.chance(0.5) {
+                k["gap"] = json!(positive(rng) * 0.01);
+            }
+            k
+        }
         3 => json!({"shape": "ellipse", "center": c(rng), "semi_axes": [positive(rng), positive(rng)], "angle": real(rng)}),
         4 | 5 => {
             if rng.chance(0.2) {

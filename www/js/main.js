@@ -23,6 +23,7 @@ import { installScripting, applyTransferState } from './scripting.js';
 import { attachEntryForms } from './entry-forms.js';
 import { attachRealIntegral } from './real-integral.js';
 import { attachLaurentPanel } from './laurent-panel.js';
+import { createImageCurve } from './image-curve.js';
 
 const state = loadState();
 const ui = {
@@ -375,8 +376,20 @@ const started = startEngine().then(async () => {
   document.body.dataset.ready = 'true';
 });
 
+// The image curve f(γ) (image-curve.js), for the region's contour.
+const imageCurve = createImageCurve(page, {
+  contour: () => region.contour(),
+  fnInput: () => (page.exprOk ? functionInput(state) : null),
+  argumentCount: () => {
+    const res = page.results;
+    if (!res || !res.argument_count || res.serial !== page.searchSerial) return null;
+    return JSON.stringify(res.contour) === JSON.stringify(region.contour()) ? res.argument_count : null;
+  },
+});
+
 installScripting(page, {
   started,
+  imageCurve,
   adopt,
   checkNow: () => { afterTyping.cancel(); return checkTyped(); },
   fit: fitToPoints,

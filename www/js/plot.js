@@ -82,6 +82,7 @@ function drawPlot(plot) {
   drawAnnulus(plot);
   drawMarkers(plot);
   drawInfinityMarker(plot);
+  for (const hook of plot.overlayHooks || []) hook(ctx); // e.g. the image curve's mark on γ
   drawMessage(plot);
   ctx.restore();
   drawAxes(plot);

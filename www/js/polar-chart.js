@@ -54,7 +54,7 @@ function linearBox(samples, about, fit) {
 }
 
 /** Draw the chart from `data` {samples: [{re, im, w, kind}], about: [re, im], unit, fit} in `mode`
- *  ('linear' or 'compressed') with the cursor at sample `cursor` (−1 none). Returns the mapping:
+ *  ('linear' or 'compressed'; optional `labels` {styles, x, y} for the legend line and axis names) with the cursor at sample `cursor` (−1 none). Returns the mapping:
  *  {at(i) → [x, y] | null, toValue(x, y) → [re, im] | null}. */
 export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
   const { g, cssW, cssH } = sizedCanvas(canvas, { minW: 220, minH: 260, maxH: 440, aspect: 0.78 });
@@ -66,8 +66,10 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
   // what is shown, above the plot: the view, then the line styles (on two lines when narrow)
   const left = 44, right = 10, bottom = 30;
   const title = squeezed ? `Compressed view: w drawn at w/(1 + |w|/R), R = ${fmtReal(R, 4)}` : 'Linear view, equal scales';
-  const styles = 'solid ω > 0, dashed ω < 0, brown: detours and closing arc';
-  const lines = g.measureText(styles).width > cssW - left - right ? [title, 'solid ω > 0, dashed ω < 0', 'brown: detours and closing arc'] : [title, styles];
+  // `data.labels` {styles, x, y} replaces the frequency wording (the image curve of image-curve.js)
+  const labels = data.labels || null;
+  const styles = labels ? labels.styles : 'solid ω > 0, dashed ω < 0, brown: detours and closing arc';
+  const lines = !labels && g.measureText(styles).width > cssW - left - right ? [title, 'solid ω > 0, dashed ω < 0', 'brown: detours and closing arc'] : [title, styles];
   const top = 4 + 13 * lines.length;
   const W = cssW - left - right, H = cssH - top - bottom;
   let [x0, x1, y0, y1] = squeezed ? [-1.06 * R, 1.06 * R, -1.06 * R, 1.06 * R] : linearBox(samples, about, data.fit);
@@ -184,8 +186,8 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
   g.textAlign = 'left'; g.textBaseline = 'top';
   lines.forEach((t, k) => { g.fillStyle = k ? '#5b6670' : '#3b4650'; g.fillText(t, left, 2 + 13 * k); });
   g.textAlign = 'right'; g.textBaseline = 'bottom';
-  g.fillText('Re F', left + W, cssH - 2);
-  g.save(); g.translate(10, top + H / 2); g.rotate(-Math.PI / 2); g.textAlign = 'center'; g.textBaseline = 'middle'; g.fillText('Im F', 0, 0); g.restore();
+  g.fillText(labels ? labels.x : 'Re F', left + W, cssH - 2);
+  g.save(); g.translate(10, top + H / 2); g.rotate(-Math.PI / 2); g.textAlign = 'center'; g.textBaseline = 'middle'; g.fillText(labels ? labels.y : 'Im F', 0, 0); g.restore();
   return {
     at: (k) => pts[k] || null,
     nearest: (x, y) => nearestPixel(pts.length, (k) => pts[k], x, y),

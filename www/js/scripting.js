@@ -43,7 +43,7 @@ function regionFrom(value, region) {
 }
 
 const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',
-  'hz', 'sample_period', 'point', 'trails', 'domain', 'mode', 'kind', 'omega', 'alpha', 'laurent'];
+  'hz', 'sample_period', 'point', 'trails', 'domain', 'mode', 'kind', 'omega', 'alpha', 'laurent', 'image_point'];
 
 /** The Laurent section's choice (contract names: center, inner, outer, from, to) checked, or null. */
 function laurentChoice(x) {
@@ -158,7 +158,7 @@ function trailsFrom(t) {
 /** Install window.residuary. `hooks`: started (a promise: the core has loaded), adopt(state)
  *  (take over a whole page state), checkNow() (check f at once; true when it can be used),
  *  fit() (fit the view to a rational f's poles and zeros; resolves true when it did),
- *  contour() (the region's contour), pipeline (find, settled). */
+ *  contour() (the region's contour), pipeline (find, settled), imageCurve (image-curve.js). */
 export function installScripting(page, hooks) {
   const { state, ui } = page;
   // The unit and the sampling period typed into the section are kept with the page state.
@@ -187,9 +187,10 @@ export function installScripting(page, hooks) {
         : r.mode === 'rect' ? { shape: 'rectangle', corners: [[r.rect[0], r.rect[2]], [r.rect[1], r.rect[3]]] }
           : { shape: 'circle', center: [r.circle[0], r.circle[1]], radius: r.circle[2] },
       contour: hooks.contour(),
-      panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page), integral: hooks.integral.open(), laurent: page.laurent.isOpen() },
+      panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page), integral: hooks.integral.open(), laurent: page.laurent.isOpen(), image: hooks.imageCurve.open() },
       kind: state.integral.kind, omega: state.integral.omega, alpha: state.integral.alpha,
       laurent: state.laurent ? JSON.parse(JSON.stringify(state.laurent)) : null,
+      image_point: hooks.imageCurve.point(),
       modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, symbols: state.symbols, autoFind: state.autoFind,
       hz: state.hz, point: transferPoint(state),
       domain: state.domain === 'none' ? null : state.domain,
@@ -214,7 +215,12 @@ export function installScripting(page, hooks) {
 
   function currentResults() {
     const res = page.results;
-    if (!res) return addIntegral({});
+    if (!res) {
+      const out = addIntegral({});
+      const image = hooks.imageCurve.result();
+      if (image) out.image_curve = image;
+      return out;
+    }
     const stale = ui.singTable.classList.contains('stale') || res.serial !== page.searchSerial;
     const entry = (resp, extra = {}) => (resp ? Object.assign({}, JSON.parse(JSON.stringify(resp)), { stale }, extra) : undefined);
     const out = {};
@@ -233,6 +239,8 @@ export function installScripting(page, hooks) {
     addIntegral(out);
     const lp = page.laurent.results(stale);
     if (lp) out.laurent = lp;
+    const image = hooks.imageCurve.result(); // computed for the state as it is now: never stale
+    if (image) out.image_curve = image;
     return out;
   }
 
@@ -244,8 +252,9 @@ export function installScripting(page, hooks) {
     const span = v === 's' ? partial.t : v === 'z' ? partial.n : undefined;
     if (span !== undefined && !(isNum(span) && span > 0)) throw scriptError('invalid_field', v === 's' ? 't must be T > 0 (the page samples t = T/120 … T)' : 'n must be N > 0 (the page computes n = 0 … N)');
     const panels = partial.panels;
-    if (panels !== undefined && (!panels || typeof panels !== 'object' || Object.keys(panels).some((k) => !['inverse', 'transfer', 'integral', 'laurent'].includes(k)) ||
-      ['inverse', 'transfer', 'integral', 'laurent'].some((k) => panels[k] !== undefined && typeof panels[k] !== 'boolean'))) throw scriptError('bad_request', 'panels must be {inverse: true | false, transfer: true | false, integral: true | false, laurent: true | false}');
+    if (panels !== undefined && (!panels || typeof panels !== 'object' || Object.keys(panels).some((k) => !['inverse', 'transfer', 'integral', 'laurent', 'image'].includes(k)) ||
+      ['inverse', 'transfer', 'integral', 'laurent', 'image'].some((k) => panels[k] !== undefined && typeof panels[k] !== 'boolean'))) throw scriptError('bad_request', 'panels must be {inverse: true | false, transfer: true | false, integral: true | false, laurent: true | false, image: true | false}');
+    if (partial.image_point !== undefined && !isPair(partial.image_point)) throw scriptError('invalid_field', 'image_point must be [re, im]');
     hooks.adopt(next);
     if (panels && panels.laurent !== undefined) page.laurent.setOpen(panels.laurent);
     if ('laurent' in partial) page.laurent.setExplicit();
@@ -253,6 +262,8 @@ export function installScripting(page, hooks) {
     // mode "transfer_function" opens the frequency-response section, "function" folds it (panels.transfer wins)
     const modeOpen = partial.mode === 'transfer_function' ? true : partial.mode === 'function' ? false : null;
     askTransfer(panels && typeof panels.transfer === 'boolean' ? panels.transfer : modeOpen);
+    if (partial.image_point !== undefined) hooks.imageCurve.setPoint(partial.image_point);
+    if (panels && panels.image !== undefined) hooks.imageCurve.setOpen(panels.image);
     if (!hooks.checkNow()) {
       const { problems } = paramsForRequest(state.params);
       const resp = runNow(Object.assign(functionInput(state), { task: 'evaluate', at: [[0.31, 0.17]] }));
