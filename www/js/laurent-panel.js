@@ -3,7 +3,7 @@
 // their error estimates and the principal part typeset (MathML, with a plain-text line beside it).
 // Also the kind of the point at infinity (the core's residue at "infinity"), shown here and marked
 // at w = 0 in the plot's view at infinity (plot/overlays.js drawInfinityMarker).
-import { mathEl, mathMagnitude } from './mathml.js';
+import { mathEl, mathMagnitude, mathCoefficient } from './mathml.js';
 import { $, el } from './dom.js';
 import { cAbs, cSub, isFinitePair } from './complex.js';
 import { fmtReal, fmtSig, fmtComplex, fmtExact, trimBelow, trimComplex } from './format.js';
@@ -110,27 +110,13 @@ function pointsWords(v, pts, kindOf) {
 
 // ---- typesetting ---------------------------------------------------------------------------
 
-/** A coefficient as MathML: {node, negative} (negative: the leading sign is written outside). */
-function mcoef(c) {
-  const [re, im] = c;
-  // a coefficient written as 1 (to the 10 digits shown) is left out before a power
-  if (im === 0) return { node: mathMagnitude(re), negative: re < 0, one: fmtReal(Math.abs(re), 10) === '1' };
-  if (re === 0) return { node: mathEl('mrow', ...(Math.abs(im) === 1 ? [] : [mathMagnitude(im), mathEl('mo', '\u2062')]), mathEl('mi', 'i')), negative: im < 0, one: false };
-  const node = mathEl('mrow', mathEl('mo', '('));
-  if (re < 0) node.append(mathEl('mo', '−'));
-  node.append(mathMagnitude(re), mathEl('mo', im < 0 ? '−' : '+'));
-  if (Math.abs(im) !== 1) node.append(mathMagnitude(im), mathEl('mo', '\u2062'));
-  node.append(mathEl('mi', 'i'), mathEl('mo', ')'));
-  return { node, negative: false, one: false };
-}
-
 /** The base (v − c) as MathML and as text. */
 function seriesBase(v, c) {
   if (c[0] === 0 && c[1] === 0) return { node: mathEl('mi', v), text: v, bare: true };
   const t = `${v} − (${fmtComplex(c, 10)})`;
   const row = mathEl('mrow', mathEl('mi', v));
   if (c[1] === 0) { row.append(mathEl('mo', c[0] > 0 ? '−' : '+'), mathMagnitude(c[0])); return { node: row, text: `${v} ${c[0] > 0 ? '−' : '+'} ${fmtReal(Math.abs(c[0]), 10)}`, bare: false }; }
-  row.append(mathEl('mo', '−'), mcoef(c).node);
+  row.append(mathEl('mo', '−'), mathCoefficient(c).node);
   return { node: row, text: t, bare: false };
 }
 
@@ -144,7 +130,7 @@ export function seriesMath(v, c, terms, more) {
   const texts = [];
   if (terms.length === 0) { row.append(mathEl('mn', '0')); texts.push('0'); }
   terms.forEach((t, i) => {
-    const { node, negative, one } = mcoef(t.c);
+    const { node, negative, one } = mathCoefficient(t.c);
     if (i > 0) row.append(mathEl('mo', negative ? '−' : '+'));
     else if (negative) row.append(mathEl('mo', '−'));
     const k = Math.abs(t.n);

@@ -5,7 +5,7 @@
 import { el } from './dom.js';
 import { cAbs, cSub, isFinitePair } from './complex.js';
 import { fmtComplex, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, trimComplex } from './format.js';
-import { mathEl, mathMagnitude } from './mathml.js';
+import { mathEl, mathMagnitude, mathCoefficient } from './mathml.js';
 import { runHeavy, responseError } from './engine.js';
 import { KIND_WORDS, markerIcon } from './markers.js';
 import { regionWords } from './region.js';
@@ -175,24 +175,6 @@ function shift(variable, z0) {
   return row;
 }
 
-/** A complex coefficient as MathML, with parentheses when it has two parts. */
-function coefficient(c) {
-  const [re, im] = c;
-  if (im === 0) return { node: mathMagnitude(re), negative: re < 0, one: Math.abs(re) === 1 };
-  if (re === 0) {
-    const node = mathEl('mrow');
-    if (Math.abs(im) !== 1) node.append(mathMagnitude(im), mathEl('mo', '\u2062'));
-    node.append(mathEl('mi', 'i'));
-    return { node, negative: im < 0, one: false };
-  }
-  const node = mathEl('mrow', mathEl('mo', '('));
-  if (re < 0) node.append(mathEl('mo', '−'));
-  node.append(mathMagnitude(re), mathEl('mo', im < 0 ? '−' : '+'));
-  if (Math.abs(im) !== 1) node.append(mathMagnitude(im), mathEl('mo', '\u2062'));
-  node.append(mathEl('mi', 'i'), mathEl('mo', ')'));
-  return { node, negative: false, one: false };
-}
-
 /** The principal part Σ_{n<0} c_n (v − z0)^n written out. Coefficient parts below `level`
  *  (the error level) are written as 0; `more` appends "+ ⋯" (an essential singularity). */
 export function principalPartMathML(variable, z0, coefficients, level, more, floor = 0, maxTerms = 12) {
@@ -208,7 +190,7 @@ export function principalPartMathML(variable, z0, coefficients, level, more, flo
   if (terms.length === 0) row.append(mathEl('mn', '0'));
   const centre = trimComplex(z0, 12, floor);
   terms.forEach((t, i) => {
-    const { node, negative, one } = coefficient(t.c);
+    const { node, negative, one } = mathCoefficient(t.c);
     if (i > 0) row.append(mathEl('mo', negative ? '−' : '+'));
     else if (negative) row.append(mathEl('mo', '−'));
     const k = -t.n;
