@@ -1,0 +1,340 @@
+// Drawing and editing the contour on the plot: handles for each shape (a rectangle's corners
+// and sides; a circle's centre and radius; an ellipse's centre, two semi-axis handles, the first
+// of which also turns it; a polygon's vertices), dragging the outline, drawing a polygon vertex by
+// vertex, inserting a vertex (double-click on an edge) and deleting one (double-click on it, or
+// choose it and press Delete). plot/input.js routes a press here before it pans; the region editor
+// (region.js) keeps the typed coordinates in step. While a contour is dragged, its integral three
+// ways and the argument count follow live (createContourLive): one request in flight, the newest
+// contour next, at most one per animation frame; the full search runs on release.
+import { functionInput } from './params.js';
+import { requestContourIntegral, requestArgumentCount, showContourIntegral, showArgumentCount } from './contour.js';
+import { contourPath, segmentDistance, windingNumber } from './contour-geom.js';
+import { regionSign } from './region.js';
+import { toScreen, toPlane } from './plot/view.js';
+
+const HANDLE_PX = 9;   // a press this close to a handle grabs it
+const EDGE_PX = 6;     // ... this close to the outline grabs the outline
+const CLOSE_PX = 10;   // drawing a polygon: a click this close to the first vertex closes it
+
+const copyRegion = (x) => JSON.parse(JSON.stringify(x));
+
+/** The handles of the region in plane coordinates: [{id, at, look}] (look: 'move', 'size', 'turn'). */
+export function regionHandles(region) {
+  const r = region;
+  if (r.mode === 'rect') {
+    const [x0, x1, y0, y1] = r.rect;
+    return [
+      { id: 'corner-0', at: [x0, y0], look: 'size' }, { id: 'corner-1', at: [x1, y0], look: 'size' },
+      { id: 'corner-2', at: [x1, y1], look: 'size' }, { id: 'corner-3', at: [x0, y1], look: 'size' },
+      { id: 'center', at: [(x0 + x1) / 2, (y0 + y1) / 2], look: 'move' },
+    ];
+  }
+  if (r.mode === 'circle') {
+    const [x, y, rad] = r.circle;
+    return [{ id: 'center', at: [x, y], look: 'move' }, { id: 'radius', at: [x + rad, y], look: 'size' }];
+  }
+  if (r.mode === 'ellipse') {
+    const [x, y, a, b, t] = r.ellipse;
+    return [
+      { id: 'center', at: [x, y], look: 'move' },
+      { id: 'axis-a', at: [x + a * Math.cos(t), y + a * Math.sin(t)], look: 'turn' },
+      { id: 'axis-b', at: [x - b * Math.sin(t), y + b * Math.cos(t)], look: 'size' },
+    ];
+  }
+  if (r.mode === 'polygon') {
+    const n = r.polygon.length;
+    const c = r.polygon.reduce((s, p) => [s[0] + p[0] / n, s[1] + p[1] / n], [0, 0]);
+    return r.polygon.map((p, i) => ({ id: 'vertex-' + i, at: p.slice(), look: 'size' })).concat([{ id: 'center', at: c, look: 'move' }]);
+  }
+  return [];
+}
+
+/** The region after dragging `grab` (from regionHandles or an edge) from plane point `p0` to `p`;
+ *  `start` is the region when the drag began. Pure: returns a new region. */
+export function dragRegion(start, grab, p0, p) {
+  const r = copyRegion(start);
+  const dx = p[0] - p0[0], dy = p[1] - p0[1];
+  const id = grab.id;
+  if (id === 'center' || (id.startsWith('edge') && (r.mode === 'ellipse' || r.mode === 'polygon'))) {
+    if (r.mode === 'rect') r.rect = [r.rect[0] + dx, r.rect[1] + dx, r.rect[2] + dy, r.rect[3] + dy];
+    else if (r.mode === 'circle') { r.circle[0] += dx; r.circle[1] += dy; } else if (r.mode === 'ellipse') { r.ellipse[0] += dx; r.ellipse[1] += dy; } else if (r.mode === 'polygon') r.polygon = r.polygon.map(([x, y]) => [x + dx, y + dy]);
+    return r;
+  }
+  if (r.mode === 'rect') {
+    const [x0, x1, y0, y1] = start.rect;
+    let [a, b, c, d] = [x0, x1, y0, y1];
+    if (id.startsWith('corner')) {
+      const k = Number(id.slice(7));
+      const ox = k === 0 || k === 3 ? x1 : x0, oy = k === 0 || k === 1 ? y1 : y0; // the opposite corner stays
+      [a, b, c, d] = [Math.min(p[0], ox), Math.max(p[0], ox), Math.min(p[1], oy), Math.max(p[1], oy)];
+    } else if (id.startsWith('edge')) {
+      const k = Number(id.slice(5)); // 0 bottom, 1 right, 2 top, 3 left (the path's order)
+      if (k === 0) [c, d] = [Math.min(p[1], y1), Math.max(p[1], y1)];
+      if (k === 2) [c, d] = [Math.min(p[1], y0), Math.max(p[1], y0)];
+      if (k === 1) [a, b] = [Math.min(p[0], x0), Math.max(p[0], x0)];
+      if (k === 3) [a, b] = [Math.min(p[0], x1), Math.max(p[0], x1)];
+    }
+    if (b > a && d > c) r.rect = [a, b, c, d];
+    return r;
+  }
+  if (r.mode === 'circle') {
+    const rad = Math.hypot(p[0] - r.circle[0], p[1] - r.circle[1]);
+    if (rad > 0) r.circle[2] = rad;
+    return r;
+  }
+  if (r.mode === 'ellipse') {
+    const [x, y, , , t] = r.ellipse;
+    if (id === 'axis-a') {
+      const a = Math.hypot(p[0] - x, p[1] - y);
+      if (a > 0) { r.ellipse[2] = a; r.ellipse[4] = Math.atan2(p[1] - y, p[0] - x); }
+    } else if (id === 'axis-b') {
+      const b = Math.abs(-(p[0] - x) * Math.sin(t) + (p[1] - y) * Math.cos(t));
+      if (b > 0) r.ellipse[3] = b;
+    }
+    return r;
+  }
+  if (r.mode === 'polygon' && id.startsWith('vertex')) r.polygon[Number(id.slice(7))] = p.slice();
+  return r;
+}
+
+/** The editor over `page` (state, plot, regionEditor). Hooks: live() after each step of a drag,
+ *  released() when a drag that moved ends, changed() after a discrete edit (a vertex added or
+ *  removed, a polygon drawn). */
+export function createContourEditor(page, hooks) {
+  const { state } = page;
+  const plot = () => page.plot;
+  const ed = {
+    drag: null,          // {grab, p0, start}
+    drawing: null,       // {vertices: [[x, y]], hover: [x, y] | null} while a polygon is being drawn
+    chosen: -1,          // the polygon vertex last pressed (Delete removes it)
+  };
+  const editable = () => !state.infinity && ['rect', 'circle', 'ellipse', 'polygon'].includes(state.region.mode);
+  const screen = (p) => toScreen(plot(), p[0], p[1]);
+
+  /** What is under the CSS pixel `pos`: a handle, an edge ({id: 'edge-k', at}), or null. */
+  function hit(pos) {
+    if (!editable()) return null;
+    let best = null, bestD = HANDLE_PX;
+    for (const h of regionHandles(state.region)) {
+      const s = screen(h.at);
+      const d = Math.hypot(s[0] - pos[0], s[1] - pos[1]);
+      if (d < bestD || (d === bestD && h.id !== 'center')) { best = h; bestD = d; }
+    }
+    if (best) return best;
+    const path = contourPath(page.regionEditor.contour(), 192).map(screen);
+    const n = path.length;
+    let edge = -1, edgeD = EDGE_PX;
+    for (let k = 0; k < n; k++) {
+      const d = segmentDistance(pos, path[k], path[(k + 1) % n]);
+      if (d < edgeD) { edgeD = d; edge = k; }
+    }
+    if (edge < 0) return null;
+    return { id: 'edge-' + edge, at: toPlane(plot(), pos[0], pos[1]) };
+  }
+
+  function apply(region) {
+    state.region = region;
+    page.regionEditor.fill();
+    plot().draw();
+  }
+
+  function finishDrawing() {
+    const d = ed.drawing;
+    ed.drawing = null;
+    delete plot().canvas.dataset.contourEdit;
+    if (!d || d.vertices.length < 3) { plot().draw(); return; }
+    apply(Object.assign(copyRegion(state.region), { mode: 'polygon', polygon: d.vertices }));
+    hooks.changed();
+  }
+
+  const editor = {
+    /** A press at `pos` (CSS pixels): true when the editor takes it (no pan). */
+    press(pos) {
+      if (ed.drawing) return true;
+      const g = hit(pos);
+      if (!g) return false;
+      ed.chosen = g.id.startsWith('vertex') ? Number(g.id.slice(7)) : -1;
+      ed.drag = { grab: g, p0: toPlane(plot(), pos[0], pos[1]), start: copyRegion(state.region), moved: false };
+      plot().canvas.dataset.contourDragging = 'true';
+      return true;
+    },
+    /** The pointer moved to `pos` during a press the editor took. */
+    move(pos) {
+      const p = toPlane(plot(), pos[0], pos[1]);
+      if (ed.drawing) { ed.drawing.hover = p; plot().draw(); return; }
+      if (!ed.drag) return;
+      ed.drag.moved = true;
+      apply(dragRegion(ed.drag.start, ed.drag.grab, ed.drag.p0, p));
+      hooks.live();
+    },
+    /** The press ended at `pos`; `moved`: the pointer travelled. */
+    release(pos, moved) {
+      if (ed.drawing) {
+        if (moved) return;
+        const d = ed.drawing;
+        const first = d.vertices[0];
+        if (first && d.vertices.length >= 3) {
+          const s = screen(first);
+          if (Math.hypot(s[0] - pos[0], s[1] - pos[1]) < CLOSE_PX) { finishDrawing(); return; }
+        }
+        d.vertices.push(toPlane(plot(), pos[0], pos[1]));
+        plot().draw();
+        return;
+      }
+      const drag = ed.drag;
+      ed.drag = null;
+      delete plot().canvas.dataset.contourDragging;
+      if (drag && drag.moved) hooks.released();
+      else plot().draw();
+    },
+    /** The pointer is over `pos` with nothing pressed: the cursor says what a press would do. */
+    hover(pos) {
+      const c = plot().canvas;
+      if (ed.drawing) { ed.drawing.hover = pos ? toPlane(plot(), pos[0], pos[1]) : null; plot().draw(); return; }
+      const g = pos ? hit(pos) : null;
+      if (g) c.dataset.contourHover = 'handle'; else delete c.dataset.contourHover;
+    },
+    /** A double-click: on a polygon vertex deletes it, on a polygon edge inserts one. */
+    doubleClick(pos) {
+      if (ed.drawing) { finishDrawing(); return true; }
+      if (state.region.mode !== 'polygon' || !editable()) return false;
+      const g = hit(pos);
+      if (!g) return false;
+      const r = copyRegion(state.region);
+      if (g.id.startsWith('vertex')) {
+        if (r.polygon.length <= 3) return true;
+        r.polygon.splice(Number(g.id.slice(7)), 1);
+      } else if (g.id.startsWith('edge')) {
+        const k = Number(g.id.slice(5)); // the path of a polygon is its vertices: edge k runs from vertex k to k + 1
+        r.polygon.splice(k + 1, 0, g.at.slice());
+      } else return false;
+      ed.chosen = -1;
+      apply(r);
+      hooks.changed();
+      return true;
+    },
+    /** A key on the plot: Delete / Backspace removes the chosen vertex, Enter closes a polygon being drawn, Escape stops drawing. */
+    key(event) {
+      if (ed.drawing && event.key === 'Enter') { finishDrawing(); return true; }
+      if (ed.drawing && event.key === 'Escape') { ed.drawing = null; delete plot().canvas.dataset.contourEdit; plot().draw(); return true; }
+      if ((event.key === 'Delete' || event.key === 'Backspace') && state.region.mode === 'polygon' && ed.chosen >= 0 && state.region.polygon.length > 3) {
+        const r = copyRegion(state.region);
+        r.polygon.splice(ed.chosen, 1);
+        ed.chosen = -1;
+        apply(r);
+        hooks.changed();
+        return true;
+      }
+      return false;
+    },
+    /** Start drawing a new polygon: each click adds a vertex. */
+    startDrawing() {
+      ed.drawing = { vertices: [], hover: null };
+      plot().canvas.dataset.contourEdit = 'drawing';
+      plot().canvas.focus();
+      plot().draw();
+    },
+    get drawing() { return Boolean(ed.drawing); },
+    get dragging() { return Boolean(ed.drag); },
+    /** Draw the handles (and a polygon being drawn) over the plot. */
+    drawOverlay(ctx) {
+      if (ed.drawing) {
+        const vs = ed.drawing.vertices.concat(ed.drawing.hover ? [ed.drawing.hover] : []).map(screen);
+        ctx.save();
+        ctx.beginPath();
+        vs.forEach(([x, y], i) => (i ? ctx.lineTo(x, y) : ctx.moveTo(x, y)));
+        ctx.setLineDash([5, 4]);
+        for (const [w, c] of [[3, 'rgba(255,255,255,0.8)'], [1.25, 'rgba(15,15,15,0.9)']]) { ctx.lineWidth = w; ctx.strokeStyle = c; ctx.stroke(); }
+        ctx.setLineDash([]);
+        ed.drawing.vertices.forEach((p, i) => knob(ctx, screen(p), i === 0 ? 'turn' : 'size'));
+        ctx.restore();
+        return;
+      }
+      if (!editable()) return;
+      for (const h of regionHandles(state.region)) {
+        if (h.look === 'turn' || h.id === 'axis-b') guide(ctx, screen([state.region.ellipse[0], state.region.ellipse[1]]), screen(h.at));
+        knob(ctx, screen(h.at), h.look, ed.chosen >= 0 && h.id === 'vertex-' + ed.chosen);
+      }
+    },
+  };
+  return editor;
+}
+
+/** A handle: a white disc with a dark ring ('size'), a dark disc with a white ring ('turn': it also
+ *  turns the shape), or a plus ('move'); none looks like a singularity marker (markers.js). */
+function knob(ctx, [x, y], look, chosen) {
+  ctx.save();
+  if (look === 'move') {
+    ctx.beginPath();
+    ctx.moveTo(x - 7, y); ctx.lineTo(x + 7, y); ctx.moveTo(x, y - 7); ctx.lineTo(x, y + 7);
+    ctx.lineWidth = 4; ctx.strokeStyle = 'rgba(255,255,255,0.9)'; ctx.stroke();
+    ctx.lineWidth = 1.6; ctx.strokeStyle = '#111'; ctx.stroke();
+  } else {
+    ctx.beginPath();
+    ctx.arc(x, y, chosen ? 6 : 4.5, 0, 2 * Math.PI);
+    ctx.fillStyle = '#fff'; ctx.fill();
+    ctx.lineWidth = chosen ? 2.5 : 1.5; ctx.strokeStyle = '#111'; ctx.stroke();
+    if (look === 'turn') { ctx.beginPath(); ctx.arc(x, y, 4.5, 0, 2 * Math.PI); }
+    if (look === 'turn') { ctx.lineWidth = 3; ctx.strokeStyle = '#fff'; ctx.stroke(); ctx.fillStyle = '#111'; ctx.fill(); }
+  }
+  ctx.restore();
+}
+
+/** A thin dotted line from the ellipse's centre to an axis handle. */
+function guide(ctx, a, b) {
+  ctx.save();
+  ctx.setLineDash([2, 3]);
+  ctx.lineWidth = 1;
+  ctx.strokeStyle = 'rgba(15,15,15,0.8)';
+  ctx.beginPath(); ctx.moveTo(a[0], a[1]); ctx.lineTo(b[0], b[1]); ctx.stroke();
+  ctx.restore();
+}
+
+/** The live contour integral while the contour is dragged, over `page` (state, ui.ci, results).
+ *  change(): the contour moved (coalesced to one request per animation frame, one in flight, the
+ *  newest contour next); stop(): the drag ended (answers still in flight are dropped: the full
+ *  search takes over). performance marks residuary-contour-move-<n> (the change) and
+ *  residuary-contour-live-<n> (its integral and count shown) time it (bench/contour-drag.mjs).
+ *  page.liveContour keeps the last live answers: {contour, sign, contour_integral, argument_count}. */
+export function createContourLive(page, hooks) {
+  const live = { serial: 0, active: false, busy: false, again: false, frame: 0 };
+  async function loop() {
+    live.frame = 0;
+    if (live.busy) { live.again = true; return; }
+    live.busy = true;
+    do {
+      live.again = false;
+      const serial = live.serial;
+      const contour = hooks.contour();
+      const sign = regionSign(page.state.region);
+      const base = functionInput(page.state);
+      const [ci, count] = await Promise.all([requestContourIntegral(base, contour), requestArgumentCount(base, contour)]);
+      if (!live.active) break;
+      page.liveContour = { contour, sign, contour_integral: ci, argument_count: count };
+      showContourIntegral(page.ui.ci, base.var, contour, false, ci, sign);
+      showArgumentCount(page.ui.ci, count);
+      page.ui.ci.status.textContent = 'Live while the contour moves; the full search runs when you let go.';
+      page.ui.ci.box.dataset.state = 'live';
+      performance.mark(`residuary-contour-live-${serial}`);
+    } while (live.again && live.active);
+    live.busy = false;
+  }
+  return {
+    change() {
+      live.active = true;
+      live.serial++;
+      performance.mark(`residuary-contour-move-${live.serial}`);
+      if (!live.frame) live.frame = requestAnimationFrame(loop);
+    },
+    stop() {
+      live.active = false;
+      if (live.frame) { cancelAnimationFrame(live.frame); live.frame = 0; }
+    },
+  };
+}
+
+/** The winding number of the page's contour about each point of `items` (contour-geom.js), or
+ *  null on the contour; `sign` from regionSign. */
+export function windings(items, contour, sign) {
+  return items.map((it) => windingNumber(contour, it.at, sign));
+}

@@ -1,0 +1,95 @@
+// The contour's geometry, plain functions with no page behind them: the closed path of each
+// contract shape (circle, ellipse, rectangle, polygon) in the plane, the winding number of the
+// path about a point, and the path's orientation. The editor (contour-edit.js), the plot's
+// outline (plot/overlays.js) and the singularities table's winding column use them.
+
+const TWO_PI = 2 * Math.PI;
+
+/** The closed path of a contract contour as plane points (the last joins the first), in the
+ *  direction the core integrates: counter-clockwise for circle, ellipse and rectangle; the
+ *  vertex order for a polygon. `n` points on a circle or an ellipse. */
+export function contourPath(contour, n = 96) {
+  if (contour.shape === 'circle') {
+    const [cx, cy] = contour.center, r = contour.radius;
+    return Array.from({ length: n }, (_, k) => [cx + r * Math.cos((TWO_PI * k) / n), cy + r * Math.sin((TWO_PI * k) / n)]);
+  }
+  if (contour.shape === 'ellipse') {
+    const [cx, cy] = contour.center, [a, b] = contour.semi_axes, t = contour.angle || 0;
+    const c = Math.cos(t), s = Math.sin(t);
+    return Array.from({ length: n }, (_, k) => {
+      const u = a * Math.cos((TWO_PI * k) / n), v = b * Math.sin((TWO_PI * k) / n);
+      return [cx + c * u - s * v, cy + s * u + c * v];
+    });
+  }
+  if (contour.shape === 'rectangle') {
+    const [[ax, ay], [bx, by]] = contour.corners;
+    const x0 = Math.min(ax, bx), x1 = Math.max(ax, bx), y0 = Math.min(ay, by), y1 = Math.max(ay, by);
+    return [[x0, y0], [x1, y0], [x1, y1], [x0, y1]];
+  }
+  if (contour.shape === 'polygon') return contour.vertices.map((p) => p.slice());
+  return [];
+}
+
+/** Twice the signed area of a closed polygonal path (the shoelace formula): > 0 counter-clockwise. */
+export function signedArea2(path) {
+  let s = 0;
+  for (let k = 0; k < path.length; k++) {
+    const [x0, y0] = path[k], [x1, y1] = path[(k + 1) % path.length];
+    s += x0 * y1 - x1 * y0;
+  }
+  return s;
+}
+
+/** The distance from p to the segment a–b. */
+export function segmentDistance(p, a, b) {
+  const dx = b[0] - a[0], dy = b[1] - a[1];
+  const len2 = dx * dx + dy * dy;
+  const u = len2 > 0 ? Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2)) : 0;
+  return Math.hypot(p[0] - a[0] - u * dx, p[1] - a[1] - u * dy);
+}
+
+/** The contour's size: its largest extent (the scale "near the contour" is measured against). */
+export function contourSize(contour) {
+  const path = contourPath(contour, 16);
+  const xs = path.map((p) => p[0]), ys = path.map((p) => p[1]);
+  return Math.max(Math.max(...xs) - Math.min(...xs), Math.max(...ys) - Math.min(...ys));
+}
+
+/** The winding number of the closed polygonal path about p: the sum over its edges of the angle
+ *  each edge subtends at p, over 2π (each angle taken in (−π, π] by atan2 of the cross and dot
+ *  products; the definition of the winding number of a closed curve, Ahlfors, Complex Analysis,
+ *  ch. 4 — from memory). null when p lies within `tol` of the path. */
+export function pathWinding(path, p, tol = 0) {
+  let total = 0;
+  for (let k = 0; k < path.length; k++) {
+    const a = path[k], b = path[(k + 1) % path.length];
+    if (segmentDistance(p, a, b) <= tol) return null;
+    const ax = a[0] - p[0], ay = a[1] - p[1], bx = b[0] - p[0], by = b[1] - p[1];
+    total += Math.atan2(ax * by - ay * bx, ax * bx + ay * by);
+  }
+  return Math.round(total / TWO_PI);
+}
+
+/** The winding number of a contract contour about p, as the core integrates it (see
+ *  contourPath), times `sign` (−1 when the page's contour is taken the other way round).
+ *  Circles and ellipses: mapped affinely onto the unit circle (an orientation-keeping map keeps
+ *  winding numbers), where the winding about q is 1 for |q| < 1 and 0 for |q| > 1; rectangles
+ *  and polygons: the edge-angle sum (pathWinding). null on (within 1e-9 of the size of) the contour. */
+export function windingNumber(contour, p, sign = 1) {
+  const tol = 1e-9 * Math.max(contourSize(contour), 1e-300);
+  let w;
+  if (contour.shape === 'circle' || contour.shape === 'ellipse') {
+    const [cx, cy] = contour.center;
+    const [a, b] = contour.shape === 'circle' ? [contour.radius, contour.radius] : contour.semi_axes;
+    const t = contour.shape === 'ellipse' ? contour.angle || 0 : 0;
+    const dx = p[0] - cx, dy = p[1] - cy;
+    const u = (Math.cos(t) * dx + Math.sin(t) * dy) / a, v = (-Math.sin(t) * dx + Math.cos(t) * dy) / b;
+    const rho = Math.hypot(u, v);
+    if (Math.abs(rho - 1) * Math.min(a, b) <= tol) return null;
+    w = rho < 1 ? 1 : 0;
+  } else {
+    w = pathWinding(contourPath(contour), p, tol);
+    if (w === null) return null;
+  }
+  return w * sign === 0 ? 0 : w * sign;
+}
