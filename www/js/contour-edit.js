@@ -292,7 +292,7 @@ function guide(ctx, a, b) {
 
 /** The live contour integral while the contour is dragged, over `page` (state, ui.ci, results).
  *  change(): the contour moved (coalesced to one request per animation frame, one in flight, the
- *  newest contour next); stop(): the drag ended (answers still in flight are dropped: the full
+ *  newest contour next; the argument count follows when no newer contour waits); stop(): the drag ended (answers still in flight are dropped: the full
  *  search takes over). performance marks residuary-contour-move-<n> (the change) and
  *  residuary-contour-live-<n> (its integral and count shown) time it (bench/contour-drag.mjs).
  *  page.liveContour keeps the last live answers: {contour, sign, contour_integral, argument_count}. */
@@ -308,14 +308,19 @@ export function createContourLive(page, hooks) {
       const contour = hooks.contour();
       const sign = regionSign(page.state.region);
       const base = functionInput(page.state);
-      const [ci, count] = await Promise.all([requestContourIntegral(base, contour), requestArgumentCount(base, contour)]);
+      const ci = await requestContourIntegral(base, contour);
       if (!live.active) break;
-      page.liveContour = { contour, sign, contour_integral: ci, argument_count: count };
+      page.liveContour = { contour, sign, contour_integral: ci, argument_count: null };
       showContourIntegral(page.ui.ci, base.var, contour, false, ci, sign);
-      showArgumentCount(page.ui.ci, count);
+      page.ui.ci.count.textContent = '';
       page.ui.ci.status.textContent = 'Live while the contour moves; the full search runs when you let go.';
       page.ui.ci.box.dataset.state = 'live';
       performance.mark(`residuary-contour-live-${serial}`);
+      // the argument count only while no newer contour waits (the integral comes first)
+      if (live.again) continue;
+      const count = await requestArgumentCount(base, contour);
+      if (!live.active) break;
+      if (live.serial === serial) { page.liveContour.argument_count = count; showArgumentCount(page.ui.ci, count); }
     } while (live.again && live.active);
     live.busy = false;
   }
