@@ -215,6 +215,7 @@ describe('the page with the real core', () => {
     assert.match(await b.page.textContent('#ci-count'), /Inside the contour: 0 zeros, 2 poles \(argument principle: N − P = −2\)/);
 
     // a circle around the upper pole only: 2πi·ωn²/(2i·ωd) = π·ωn²/ωd, ωd = ωn√(1−ζ²) (common practice)
+    await b.page.selectOption('#region-shape', 'circle'); // the circle's fields show once it is the shape
     await b.page.fill('#circ-x', '-0.6');
     await b.page.fill('#circ-y', '1.9');
     await b.page.fill('#circ-r', '1');
