@@ -11,6 +11,7 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createRequire } from 'node:module';
 import './entry-forms.test.mjs'; // the entry forms' parsing and writing, in node
+import './contour-geom.test.mjs'; // winding numbers and drags of the contour editor, in node
 
 const here = dirname(fileURLToPath(import.meta.url));
 const require = createRequire(join(here, 'package.json'));

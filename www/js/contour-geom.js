@@ -1,6 +1,7 @@
 // The contour's geometry, plain functions with no page behind them: the closed path of each
 // contract shape (circle, ellipse, rectangle, polygon) in the plane, the winding number of the
-// path about a point, and the path's orientation. The editor (contour-edit.js), the plot's
+// path about a point, and the path's orientation; the handles of the page's region and what
+// dragging one does (regionHandles, dragRegion). The editor (contour-edit.js), the plot's
 // outline (plot/overlays.js) and the singularities table's winding column use them.
 
 const TWO_PI = 2 * Math.PI;
@@ -92,4 +93,85 @@ export function windingNumber(contour, p, sign = 1) {
     if (w === null) return null;
   }
   return w * sign === 0 ? 0 : w * sign;
+}
+
+const copyGeomRegion = (x) => JSON.parse(JSON.stringify(x));
+
+/** The handles of the region in plane coordinates: [{id, at, look}] (look: 'move', 'size', 'turn'). */
+export function regionHandles(region) {
+  const r = region;
+  if (r.mode === 'rect') {
+    const [x0, x1, y0, y1] = r.rect;
+    return [
+      { id: 'corner-0', at: [x0, y0], look: 'size' }, { id: 'corner-1', at: [x1, y0], look: 'size' },
+      { id: 'corner-2', at: [x1, y1], look: 'size' }, { id: 'corner-3', at: [x0, y1], look: 'size' },
+      { id: 'center', at: [(x0 + x1) / 2, (y0 + y1) / 2], look: 'move' },
+    ];
+  }
+  if (r.mode === 'circle') {
+    const [x, y, rad] = r.circle;
+    return [{ id: 'center', at: [x, y], look: 'move' }, { id: 'radius', at: [x + rad, y], look: 'size' }];
+  }
+  if (r.mode === 'ellipse') {
+    const [x, y, a, b, t] = r.ellipse;
+    return [
+      { id: 'center', at: [x, y], look: 'move' },
+      { id: 'axis-a', at: [x + a * Math.cos(t), y + a * Math.sin(t)], look: 'turn' },
+      { id: 'axis-b', at: [x - b * Math.sin(t), y + b * Math.cos(t)], look: 'size' },
+    ];
+  }
+  if (r.mode === 'polygon') {
+    const n = r.polygon.length;
+    const c = r.polygon.reduce((s, p) => [s[0] + p[0] / n, s[1] + p[1] / n], [0, 0]);
+    return r.polygon.map((p, i) => ({ id: 'vertex-' + i, at: p.slice(), look: 'size' })).concat([{ id: 'center', at: c, look: 'move' }]);
+  }
+  return [];
+}
+
+/** The region after dragging `grab` (from regionHandles or an edge) from plane point `p0` to `p`;
+ *  `start` is the region when the drag began. Pure: returns a new region. */
+export function dragRegion(start, grab, p0, p) {
+  const r = copyGeomRegion(start);
+  const dx = p[0] - p0[0], dy = p[1] - p0[1];
+  const id = grab.id;
+  if (id === 'center' || (id.startsWith('edge') && (r.mode === 'ellipse' || r.mode === 'polygon'))) {
+    if (r.mode === 'rect') r.rect = [r.rect[0] + dx, r.rect[1] + dx, r.rect[2] + dy, r.rect[3] + dy];
+    else if (r.mode === 'circle') { r.circle[0] += dx; r.circle[1] += dy; } else if (r.mode === 'ellipse') { r.ellipse[0] += dx; r.ellipse[1] += dy; } else if (r.mode === 'polygon') r.polygon = r.polygon.map(([x, y]) => [x + dx, y + dy]);
+    return r;
+  }
+  if (r.mode === 'rect') {
+    const [x0, x1, y0, y1] = start.rect;
+    let [a, b, c, d] = [x0, x1, y0, y1];
+    if (id.startsWith('corner')) {
+      const k = Number(id.slice(7));
+      const ox = k === 0 || k === 3 ? x1 : x0, oy = k === 0 || k === 1 ? y1 : y0; // the opposite corner stays
+      [a, b, c, d] = [Math.min(p[0], ox), Math.max(p[0], ox), Math.min(p[1], oy), Math.max(p[1], oy)];
+    } else if (id.startsWith('edge')) {
+      const k = Number(id.slice(5)); // 0 bottom, 1 right, 2 top, 3 left (the path's order)
+      if (k === 0) [c, d] = [Math.min(p[1], y1), Math.max(p[1], y1)];
+      if (k === 2) [c, d] = [Math.min(p[1], y0), Math.max(p[1], y0)];
+      if (k === 1) [a, b] = [Math.min(p[0], x0), Math.max(p[0], x0)];
+      if (k === 3) [a, b] = [Math.min(p[0], x1), Math.max(p[0], x1)];
+    }
+    if (b > a && d > c) r.rect = [a, b, c, d];
+    return r;
+  }
+  if (r.mode === 'circle') {
+    const rad = Math.hypot(p[0] - r.circle[0], p[1] - r.circle[1]);
+    if (rad > 0) r.circle[2] = rad;
+    return r;
+  }
+  if (r.mode === 'ellipse') {
+    const [x, y, , , t] = r.ellipse;
+    if (id === 'axis-a') {
+      const a = Math.hypot(p[0] - x, p[1] - y);
+      if (a > 0) { r.ellipse[2] = a; r.ellipse[4] = Math.atan2(p[1] - y, p[0] - x); }
+    } else if (id === 'axis-b') {
+      const b = Math.abs(-(p[0] - x) * Math.sin(t) + (p[1] - y) * Math.cos(t));
+      if (b > 0) r.ellipse[3] = b;
+    }
+    return r;
+  }
+  if (r.mode === 'polygon' && id.startsWith('vertex')) r.polygon[Number(id.slice(7))] = p.slice();
+  return r;
 }

@@ -9,6 +9,7 @@ import { createPlot, plotDescription } from './plot.js';
 import { createReadout } from './readout.js';
 import { createRegionEditor } from './region.js';
 import { createContourEditor, createContourLive, windings } from './contour-edit.js';
+import { contourStatus } from './contour.js';
 import { showWindings } from './singularities.js';
 import { markerAt } from './plot/overlays.js';
 import { createPipeline } from './pipeline.js';
@@ -126,6 +127,7 @@ function contourCommitted() {
   persist();
   pipeline.regionMoved();
   if (state.autoFind && page.exprOk) pipeline.find();
+  else if (ui.ci.box.dataset.state === 'live') contourStatus(ui.ci, 'The contour moved: the values below may be for a step of the drag; search again to update them.', 'stale');
 }
 page.contourEdit = createContourEditor(page, {
   live: () => { persist(); if (page.exprOk && Engine.ready) contourLive.change(); },
