@@ -1485,9 +1485,19 @@ describe('contours drawn and dragged on the plot', () => {
       await page.waitForTimeout(15);
     }
     // while the contour is held, its integral follows live (contour-edit.js createContourLive)
-    await page.waitForFunction(() => performance.getEntriesByType('mark').some((e) => e.name.startsWith('residuary-contour-live-')), null, { timeout: 20000 });
+    // (the last contour of the drag: earlier steps may cross a pole and be refused)
+    await page.waitForFunction(() => performance.getEntriesByType('mark').some((e) => e.name.startsWith('residuary-contour-live-')) &&
+      window.residuary.results().contour_live &&
+      JSON.stringify(window.residuary.results().contour_live.contour) === JSON.stringify(window.residuary.state().region), null, { timeout: 20000 });
+    // the live integral, for the contour it names, against the API (the core run in node)
+    const live = (await scriptResults(page)).contour_live;
+    const api = core.run({ task: 'contour_integral', f: F, var: 'z', params: {}, contour: live.contour });
+    assert.ok(!live.contour_integral.error && Math.hypot(live.contour_integral.value[0] - api.value[0], live.contour_integral.value[1] - api.value[1]) <=
+      1e-9 * Math.max(1, Math.hypot(...api.value)), `live ${JSON.stringify(live.contour_integral.value)} vs API ${api.value}`);
+    assert.equal(await page.getAttribute('#ci-box', 'data-state'), 'live');
     await page.mouse.up();
     await page.evaluate(() => window.residuary.settled());
+    assert.equal((await scriptResults(page)).contour_live, undefined, 'no live entry once let go');
   }
 
   /** results().contour_integral against the API: the core run in node on the page's contour. */

@@ -216,7 +216,8 @@ function guide(ctx, a, b) {
  *  newest contour next; the argument count follows when no newer contour waits); stop(): the drag ended (answers still in flight are dropped: the full
  *  search takes over). performance marks residuary-contour-move-<n> (the change) and
  *  residuary-contour-live-<n> (its integral and count shown) time it (bench/contour-drag.mjs).
- *  page.liveContour keeps the last live answers: {contour, sign, contour_integral, argument_count}. */
+ *  page.liveContour keeps the last live answers while the drag lasts: {contour, sign, contour_integral,
+ *  argument_count} (window.residuary results().contour_live). */
 export function createContourLive(page, hooks) {
   const live = { serial: 0, active: false, busy: false, again: false, frame: 0 };
   async function loop() {
@@ -254,6 +255,7 @@ export function createContourLive(page, hooks) {
     },
     stop() {
       live.active = false;
+      page.liveContour = null;
       if (live.frame) { cancelAnimationFrame(live.frame); live.frame = 0; }
     },
   };

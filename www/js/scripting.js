@@ -155,7 +155,7 @@ export function installScripting(page, hooks) {
   }
 
   function currentResults() {
-    const res = page.results;
+    const res = page.results || (page.liveContour ? {} : null);
     if (!res) return {};
     const stale = ui.singTable.classList.contains('stale') || res.serial !== page.searchSerial;
     const entry = (resp, extra = {}) => (resp ? Object.assign({}, JSON.parse(JSON.stringify(resp)), { stale }, extra) : undefined);
@@ -168,6 +168,15 @@ export function installScripting(page, hooks) {
     // orientation −1: the page takes the contour clockwise (reversed) and the integral along it is −1 × value
     if (res.contour_integral) out.contour_integral = entry(res.contour_integral, { contour: res.contour, orientation: res.sign || 1 });
     if (res.argument_count) out.argument_count = entry(res.argument_count, { contour: res.contour });
+    // while a contour is being dragged: the last live answers, for the contour they were computed on
+    const lc = page.liveContour;
+    if (lc && lc.contour_integral) {
+      out.contour_live = {
+        contour: JSON.parse(JSON.stringify(lc.contour)), orientation: lc.sign,
+        contour_integral: JSON.parse(JSON.stringify(lc.contour_integral)),
+        argument_count: lc.argument_count ? JSON.parse(JSON.stringify(lc.argument_count)) : null,
+      };
+    }
     if (res.inverse && res.inverseRequest && !ui.inv.box.hidden && ui.inv.box.open) {
       const key = res.inverseRequest.task;
       out[key] = entry(res.inverse, key === 'inverse_laplace' ? { t: res.inverseRequest.t } : { n: res.inverseRequest.n });
