@@ -1,7 +1,7 @@
 // Wires the page together: the state, the controls, the plot, the readout, the
 // region editor and the search pipeline. Everything the user types is kept (see state.js).
 import { $, debounce } from './dom.js';
-import { Engine, startEngine, runHeavy, runNow, responseError } from './engine.js';
+import { Engine, startEngine, runHeavy, runNow, responseError, cancelHeavy } from './engine.js';
 import { loadState, saveState, fromHash, toHash, hashGivesView, hasStoredState } from './state.js';
 import { showUnderline, syncMirror, checkExpression } from './expr-input.js';
 import { renderParams, functionInput } from './params.js';
@@ -130,7 +130,19 @@ function contourCommitted() {
   else if (ui.ci.box.dataset.state === 'live') contourStatus(ui.ci, 'The contour moved: the values below may be for a step of the drag; search again to update them.', 'stale');
 }
 page.contourEdit = createContourEditor(page, {
-  live: () => { persist(); if (page.exprOk && Engine.ready) contourLive.change(); },
+  live: () => {
+    persist();
+    // a search still running would hold the worker: drop it silently, it runs again on release
+    if (!ui.cancel.disabled) {
+      page.searchSerial++;
+      ui.cancel.disabled = true;
+      ui.find.disabled = false;
+      ui.findStatus.className = 'find-status';
+      ui.findStatus.textContent = 'The contour is moving: the search runs once you let go.';
+      cancelHeavy();
+    }
+    if (page.exprOk && Engine.ready) contourLive.change();
+  },
   released: contourCommitted,
   changed: contourCommitted,
 });
