@@ -1563,6 +1563,13 @@ describe('contours drawn and dragged on the plot', () => {
     assert.deepEqual(rev.singularities.windings.filter((w) => w.kind === 'pole').map((w) => w.winding), [-1]);
     await b.page.click('#contour-reverse');
     await b.page.evaluate(() => window.residuary.settled());
+    // hovering the outline names the point of γ under the pointer (a 'contour-hover' event for linked views)
+    await b.page.evaluate(() => document.getElementById('plot').addEventListener('contour-hover', (e) => { window.lastContourHover = e.detail; }));
+    const c = (await scriptState(b.page)).region;
+    const onIt = m.toPx([c.center[0] + c.radius * Math.cos(2), c.center[1] + c.radius * Math.sin(2)]);
+    await b.page.mouse.move(onIt[0] + 2, onIt[1] + 1);
+    const hov = await b.page.evaluate(() => window.lastContourHover);
+    assert.ok(hov && Math.abs(Math.hypot(hov.at[0] - c.center[0], hov.at[1] - c.center[1]) - c.radius) < 0.02 * c.radius, JSON.stringify(hov));
     await b.page.screenshot({ path: join(artifacts, 'contour-drag-circle.png') });
     assert.deepEqual(b.log.errors, []);
   });

@@ -53,6 +53,22 @@ export function createContourEditor(page, hooks) {
     return { id: 'edge-' + edge, at: toPlane(plot(), pos[0], pos[1]) };
   }
 
+  /** The plane point of the contour nearest the CSS pixel `pos`, when within EDGE_PX of it. */
+  function nearestOnContour(pos) {
+    if (!plot().region || state.infinity) return null;
+    const path = contourPath(plot().region, 192).map(screen);
+    let best = null, bestD = EDGE_PX;
+    for (let k = 0; k < path.length; k++) {
+      const a = path[k], b = path[(k + 1) % path.length];
+      const dx = b[0] - a[0], dy = b[1] - a[1], len2 = dx * dx + dy * dy;
+      const u = len2 > 0 ? Math.max(0, Math.min(1, ((pos[0] - a[0]) * dx + (pos[1] - a[1]) * dy) / len2)) : 0;
+      const q = [a[0] + u * dx, a[1] + u * dy];
+      const d = Math.hypot(q[0] - pos[0], q[1] - pos[1]);
+      if (d < bestD) { bestD = d; best = q; }
+    }
+    return best ? toPlane(plot(), best[0], best[1]) : null;
+  }
+
   function apply(region) {
     state.region = region;
     page.regionEditor.fill();
@@ -114,6 +130,11 @@ export function createContourEditor(page, hooks) {
       if (ed.drawing) { ed.drawing.hover = pos ? toPlane(plot(), pos[0], pos[1]) : null; plot().draw(); return; }
       const g = pos ? hit(pos) : null;
       if (g) c.dataset.contourHover = 'handle'; else delete c.dataset.contourHover;
+      // the point of the contour under the pointer (for views linked to γ, e.g. its image):
+      // a 'contour-hover' event on the canvas, detail {at: [x, y]} or null
+      const at = pos ? nearestOnContour(pos) : null;
+      if (at || ed.hovered) c.dispatchEvent(new CustomEvent('contour-hover', { detail: at ? { at } : null }));
+      ed.hovered = Boolean(at);
     },
     /** A double-click: on a polygon vertex deletes it, on a polygon edge inserts one. */
     doubleClick(pos) {
