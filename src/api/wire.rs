@@ -133,6 +133,26 @@ pub const CONTOUR: Expect = Expect::Tagged(&Tagged {
         ),
         ("rectangle", "a rectangle", &[Field::required("corners", Expect::Exactly(2, &Expect::Pair))]),
         ("polygon", "a polygon", &[Field::required("vertices", Expect::List(&Expect::Pair))]),
+        (
+            "half_disc",
+            "a half-disc",
+            &[
+                Field::required("center", Expect::Pair),
+                Field::required("radius", Expect::Positive),
+                Field::required("direction", Expect::Text),
+            ],
+        ),
+        (
+            "keyhole",
+            "a keyhole",
+            &[
+                Field::required("center", Expect::Pair),
+                Field::required("inner", Expect::Positive),
+                Field::required("outer", Expect::Positive),
+                Field::optional("angle", Expect::Real),
+                Field::optional("gap", Expect::Positive),
+            ],
+        ),
     ],
 });
 
@@ -246,6 +266,27 @@ pub enum ContourShape {
     },
     Rectangle { corners: [[f64; 2]; 2] },
     Polygon { vertices: Vec<[f64; 2]> },
+    HalfDisc { center: [f64; 2], radius: f64, direction: HalfDiscSide },
+    Keyhole {
+        center: [f64; 2],
+        inner: f64,
+        outer: f64,
+        #[serde(default)]
+        angle: f64,
+        /// Half-width of the slit; `contour::keyhole::DEFAULT_GAP_FRACTION` × inner when absent.
+        #[serde(default)]
+        gap: Option<f64>,
+    },
+}
+
+/// The side of a half-disc's diameter where its arc lies.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum HalfDiscSide {
+    Upper,
+    Lower,
+    Left,
+    Right,
 }
 
 impl From<&ContourShape> for crate::contour::Contour {
@@ -256,6 +297,20 @@ impl From<&ContourShape> for crate::contour::Contour {
             ContourShape::Ellipse { center, semi_axes, angle } => Contour::Ellipse { center, semi_axes, angle },
             ContourShape::Rectangle { corners } => Contour::Rectangle { corners },
             ContourShape::Polygon { vertices } => Contour::Polygon { vertices },
+            ContourShape::HalfDisc { center, radius, direction } => {
+                use crate::contour::Side;
+                let direction = match direction {
+                    HalfDiscSide::Upper => Side::Upper,
+                    HalfDiscSide::Lower => Side::Lower,
+                    HalfDiscSide::Left => Side::Left,
+                    HalfDiscSide::Right => Side::Right,
+                };
+                Contour::HalfDisc { center, radius, direction }
+            }
+            ContourShape::Keyhole { center, inner, outer, angle, gap } => {
+                let gap = gap.unwrap_or(crate::contour::keyhole::DEFAULT_GAP_FRACTION * inner);
+                Contour::Keyhole { center, inner, outer, angle, gap }
+            }
         }
     }
 }

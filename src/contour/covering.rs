@@ -47,7 +47,13 @@ pub fn covering_regions(contour: &Contour) -> Vec<Contour> {
                 angle: *angle,
             })
             .collect(),
-        Contour::Rectangle { .. } | Contour::Polygon { .. } => {
+        // A keyhole: the discs about its outer circle (they also hold the inner
+        // disc, whose points have winding 0 and are reported so).
+        Contour::Keyhole { center, outer, .. } => GROW
+            .iter()
+            .map(|g| Contour::Circle { center: *center, radius: outer * g })
+            .collect(),
+        Contour::Rectangle { .. } | Contour::Polygon { .. } | Contour::HalfDisc { .. } => {
             let (lo, hi) = contour.bounding_box();
             let size = contour.size();
             PAD.iter()
@@ -71,7 +77,7 @@ pub fn covering_regions(contour: &Contour) -> Vec<Contour> {
 /// ```
 pub fn contour_as_regions(contour: &Contour) -> Vec<Contour> {
     match contour {
-        Contour::Polygon { .. } => covering_regions(contour),
+        Contour::Polygon { .. } | Contour::HalfDisc { .. } | Contour::Keyhole { .. } => covering_regions(contour),
         _ => vec![contour.clone()],
     }
 }
@@ -79,6 +85,7 @@ pub fn contour_as_regions(contour: &Contour) -> Vec<Contour> {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::contour::Side;
     use crate::reference::sampled_winding;
 
     fn shapes() -> Vec<Contour> {
@@ -90,6 +97,8 @@ mod tests {
             Contour::Polygon { vertices: vec![[0.0, 0.0], [0.0, 2.0], [1.0, 0.5], [2.0, 2.0], [2.0, 0.0]] },
             // A figure eight: windings +1 and −1 in its two lobes.
             Contour::Polygon { vertices: vec![[0.0, 0.0], [3.0, 2.0], [3.0, 0.0], [0.0, 1.0]] },
+            Contour::HalfDisc { center: [0.5, -0.5], radius: 1.2, direction: Side::Lower },
+            Contour::Keyhole { center: [0.0, 1.0], inner: 0.4, outer: 1.5, angle: 1.0, gap: 0.05 },
         ]
     }
 
@@ -157,7 +166,9 @@ mod tests {
         for s in shapes() {
             let own = contour_as_regions(&s);
             match s {
-                Contour::Polygon { .. } => assert_eq!(own, covering_regions(&s)),
+                Contour::Polygon { .. } | Contour::HalfDisc { .. } | Contour::Keyhole { .. } => {
+                    assert_eq!(own, covering_regions(&s))
+                }
                 _ => assert_eq!(own, vec![s.clone()]),
             }
         }

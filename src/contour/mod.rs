@@ -5,9 +5,15 @@
 //! rectangles and polygons are straight segments (use Gauss rules per piece).
 //! Orientation follows the shape: circles and ellipses run counter-clockwise,
 //! a rectangle runs counter-clockwise from its lower-left corner, a polygon
-//! runs through its vertices in the order given.
+//! runs through its vertices in the order given. A half-disc (diameter, then
+//! arc; `half_disc.rs`) and a keyhole (slit edges and two arcs; `keyhole.rs`)
+//! run counter-clockwise about the region they bound.
 
 pub mod covering;
+pub mod half_disc;
+pub mod keyhole;
+
+pub use half_disc::Side;
 
 use crate::C;
 use crate::error::Failure;
@@ -24,6 +30,11 @@ pub enum Contour {
     },
     Rectangle { corners: [[f64; 2]; 2] },
     Polygon { vertices: Vec<[f64; 2]> },
+    /// The diameter through `center` and the half circle on the `direction` side.
+    HalfDisc { center: [f64; 2], radius: f64, direction: Side },
+    /// The annulus `inner` < |z − center| < `outer` minus the slit of half-width
+    /// `gap` along the ray at `angle`.
+    Keyhole { center: [f64; 2], inner: f64, outer: f64, angle: f64, gap: f64 },
 }
 
 /// One smooth piece of a contour, parametrised by t in [0, 1].
@@ -33,6 +44,8 @@ pub enum Piece {
     Ellipse { center: C, a: f64, b: f64, rot: C },
     /// z(t) = from + t (to - from).
     Segment { from: C, to: C },
+    /// z(t) = center + radius e^{i(start + sweep t)}; a negative sweep runs clockwise.
+    Arc { center: C, radius: f64, start: f64, sweep: f64 },
 }
 
 impl Piece {
@@ -43,6 +56,7 @@ impl Piece {
                 center + rot * C::new(a * th.cos(), b * th.sin())
             }
             Piece::Segment { from, to } => from + (to - from) * t,
+            Piece::Arc { center, radius, start, sweep } => center + C::from_polar(radius, start + sweep * t),
         }
     }
 
@@ -54,12 +68,41 @@ impl Piece {
                 rot * C::new(-a * th.sin(), b * th.cos()) * (2.0 * PI)
             }
             Piece::Segment { from, to } => to - from,
+            Piece::Arc { radius, start, sweep, .. } => C::from_polar(radius * sweep, start + sweep * t) * C::new(0.0, 1.0),
         }
     }
 
     /// True for a piece whose integrand is periodic in t (trapezoidal rule is spectral).
     pub fn is_periodic(&self) -> bool {
         matches!(self, Piece::Ellipse { .. })
+    }
+
+    /// Length of the piece (an ellipse's by a 256-chord polyline, within 1e-4 relative).
+    pub fn length(&self) -> f64 {
+        match *self {
+            Piece::Segment { from, to } => (to - from).norm(),
+            Piece::Arc { radius, sweep, .. } => radius * sweep.abs(),
+            Piece::Ellipse { .. } => (0..256).map(|k| (self.point((k + 1) as f64 / 256.0) - self.point(k as f64 / 256.0)).norm()).sum(),
+        }
+    }
+
+    /// Distance from z to a segment or arc (`None` for an ellipse: see `Contour::distance_to_boundary`).
+    fn distance(&self, z: C) -> Option<f64> {
+        match *self {
+            Piece::Segment { from, to } => {
+                let d = to - from;
+                let t = (((z - from) * d.conj()).re / d.norm_sqr()).clamp(0.0, 1.0);
+                Some((from + d * t - z).norm())
+            }
+            Piece::Arc { center, radius, start, sweep } => {
+                // The angle of z measured from the arc's start in the arc's own direction.
+                let w = z - center;
+                let phi = ((w * C::from_polar(1.0, -start)).arg() * sweep.signum()).rem_euclid(2.0 * PI);
+                let ends = (self.point(0.0) - z).norm().min((self.point(1.0) - z).norm());
+                Some(if phi <= sweep.abs() { (w.norm() - radius).abs().min(ends) } else { ends })
+            }
+            Piece::Ellipse { .. } => None,
+        }
     }
 }
 
@@ -118,6 +161,29 @@ impl Contour {
                     return Err(Failure::invalid("the polygon encloses no area; check its vertices"));
                 }
             }
+            Contour::HalfDisc { center, radius, .. } => {
+                if !finite(center) {
+                    return Err(Failure::invalid("the half-disc's center must be two finite numbers"));
+                }
+                if !(radius.is_finite() && *radius > 0.0) {
+                    return Err(Failure::invalid(format!("the half-disc's radius must be a positive number, got {radius}")));
+                }
+            }
+            Contour::Keyhole { center, inner, outer, angle, gap } => {
+                if !finite(center) || !angle.is_finite() {
+                    return Err(Failure::invalid("the keyhole's center and angle must be finite numbers"));
+                }
+                if !(inner.is_finite() && outer.is_finite() && *inner > 0.0 && inner < outer) {
+                    return Err(Failure::invalid(format!(
+                        "the keyhole needs 0 < inner < outer, got inner {inner} and outer {outer}"
+                    )));
+                }
+                if !(gap.is_finite() && *gap > 0.0 && gap < inner) {
+                    return Err(Failure::invalid(format!(
+                        "the keyhole's gap (the slit's half-width) must be positive and less than inner ({inner}), got {gap}"
+                    )));
+                }
+            }
         }
         Ok(())
     }
@@ -142,6 +208,10 @@ impl Contour {
                 (0..v.len())
                     .map(|k| Piece::Segment { from: v[k], to: v[(k + 1) % v.len()] })
                     .collect()
+            }
+            Contour::HalfDisc { center, radius, direction } => half_disc::pieces(c(*center), *radius, *direction),
+            Contour::Keyhole { center, inner, outer, angle, gap } => {
+                keyhole::pieces(c(*center), *inner, *outer, *angle, *gap)
             }
         }
     }
@@ -235,6 +305,10 @@ impl Contour {
                 }
                 Some(wn)
             }
+            Contour::HalfDisc { center, radius, direction } => Some(half_disc::winding(c(*center), *radius, *direction, z)),
+            Contour::Keyhole { center, inner, outer, angle, gap } => {
+                Some(keyhole::winding(c(*center), *inner, *outer, *angle, *gap, z))
+            }
         }
     }
 
@@ -278,18 +352,8 @@ impl Contour {
                 }
                 (piece.point(0.5 * (lo + hi)) - z).norm().min(best.0)
             }
-            _ => self
-                .pieces()
-                .iter()
-                .map(|p| match *p {
-                    Piece::Segment { from, to } => {
-                        let d = to - from;
-                        let t = (((z - from) * d.conj()).re / d.norm_sqr()).clamp(0.0, 1.0);
-                        (from + d * t - z).norm()
-                    }
-                    _ => unreachable!("straight-sided shapes have only segments"),
-                })
-                .fold(f64::INFINITY, f64::min),
+            // Segments and arcs only (never an ellipse piece here).
+            _ => self.pieces().iter().filter_map(|p| p.distance(z)).fold(f64::INFINITY, f64::min),
         }
     }
 
@@ -307,7 +371,13 @@ impl Contour {
                 let z = c(*center);
                 (z - C::new(hx, hy), z + C::new(hx, hy))
             }
-            _ => {
+            Contour::HalfDisc { center, radius, direction } => half_disc::bounding_box(c(*center), *radius, *direction),
+            // The outer circle's box (the slit takes at most `gap` off one side).
+            Contour::Keyhole { center, outer, .. } => {
+                let z = c(*center);
+                (z - C::new(*outer, *outer), z + C::new(*outer, *outer))
+            }
+            Contour::Rectangle { .. } | Contour::Polygon { .. } => {
                 let v = self.vertices();
                 let lo = v.iter().fold(C::new(f64::INFINITY, f64::INFINITY), |m, p| {
                     C::new(m.re.min(p.re), m.im.min(p.im))
@@ -353,6 +423,10 @@ mod tests {
             Contour::rectangle(C::new(1.0, 1.0), C::new(-1.0, -2.0)),
             Contour::Polygon { vertices: vec![[0.0, 0.0], [2.0, 0.0], [2.0, 2.0], [1.0, 0.5], [0.0, 2.0]] },
             Contour::Polygon { vertices: vec![[0.0, 0.0], [0.0, 1.0], [1.0, 1.0], [1.0, 0.0]] },
+            Contour::HalfDisc { center: [0.2, 0.1], radius: 2.0, direction: Side::Upper },
+            Contour::HalfDisc { center: [0.0, 0.0], radius: 1.5, direction: Side::Left },
+            Contour::Keyhole { center: [0.0, 0.0], inner: 0.5, outer: 2.0, angle: 0.0, gap: 0.05 },
+            Contour::Keyhole { center: [1.0, 0.5], inner: 0.3, outer: 1.8, angle: 2.0, gap: 0.1 },
         ]
     }
 
@@ -373,6 +447,48 @@ mod tests {
         }
         // The comparison really ran, inside and outside the shapes (not skipped).
         assert!(checked >= 25 && nonzero >= 5 && nonzero < checked, "{checked} / {nonzero}");
+    }
+
+    #[test]
+    fn half_disc_and_keyhole_inside_tests_by_hand() {
+        // Plane geometry by hand: the upper half-disc |z − 0.2 − 0.1i| < 2, Im z > 0.1;
+        // the keyhole 0.5 < |z| < 2 minus the slit |Im z| < 0.05, Re z > 0.
+        let s = shapes();
+        let (hd, kh) = (&s[5], &s[7]);
+        assert_eq!(hd.winding_number(C::new(1.0, 0.5)), Some(1));
+        assert_eq!(hd.winding_number(C::new(1.0, 0.0)), Some(0), "below the diameter");
+        assert_eq!(hd.winding_number(C::new(0.2, 2.2)), Some(0), "beyond the arc");
+        assert_eq!(hd.winding_number(C::new(-1.0, 0.1)), None, "on the diameter");
+        assert_eq!(kh.winding_number(C::new(1.0, 0.0)), Some(0), "in the slit");
+        assert_eq!(kh.winding_number(C::new(1.0, 0.06)), Some(1), "just above the slit");
+        assert_eq!(kh.winding_number(C::new(-1.0, 0.0)), Some(1), "opposite the slit");
+        assert_eq!(kh.winding_number(C::new(0.1, 0.1)), Some(0), "in the inner disc");
+        assert_eq!(kh.winding_number(C::new(1.0, 0.05)), None, "on the slit's edge");
+        assert_eq!(kh.winding_number(C::new(0.0, -2.0)), None, "on the outer circle");
+        // Distances by hand: 0.5 from (1, 0.5) to the diameter Im z = 0.1 is 0.4;
+        // from 0 to the keyhole is the inner radius 0.5 (nearest the inner arc).
+        assert!((hd.distance_to_boundary(C::new(1.0, 0.5)) - 0.4).abs() < 1e-14);
+        assert!((kh.distance_to_boundary(C::new(0.0, 0.0)) - 0.5).abs() < 1e-14);
+        // The box of the upper half-disc: [−1.8, 2.2] × [0.1, 2.1] (by hand).
+        let (lo, hi) = hd.bounding_box();
+        assert!((lo - C::new(-1.8, 0.1)).norm() < 1e-14 && (hi - C::new(2.2, 2.1)).norm() < 1e-14);
+        // The pieces join end to end into a closed curve.
+        for sh in [hd, kh, &s[6], &s[8]] {
+            let p = sh.pieces();
+            for k in 0..p.len() {
+                assert!((p[k].point(1.0) - p[(k + 1) % p.len()].point(0.0)).norm() < 1e-12, "{sh:?} piece {k}");
+            }
+        }
+    }
+
+    #[test]
+    fn keyhole_and_half_disc_need_sound_sizes() {
+        let kh = |inner, outer, gap| Contour::Keyhole { center: [0.0, 0.0], inner, outer, angle: 0.0, gap }.validate();
+        assert!(kh(1.0, 2.0, 0.01).is_ok());
+        assert!(kh(2.0, 1.0, 0.01).unwrap_err().message().contains("inner < outer"));
+        assert!(kh(1.0, 2.0, 1.0).unwrap_err().message().contains("gap"));
+        assert!(kh(1.0, 2.0, 0.0).is_err());
+        assert!(Contour::HalfDisc { center: [0.0, 0.0], radius: 0.0, direction: Side::Lower }.validate().is_err());
     }
 
     #[test]
@@ -414,7 +530,17 @@ mod tests {
         // For a simple closed curve the winding number about any inside point is
         // +1 counter-clockwise and −1 clockwise (Jordan curve theorem, common
         // practice); the slow reference sums the argument change along the curve.
-        let inside = [C::new(0.5, -0.25), C::new(0.0, 1.0), C::new(0.0, -0.5), C::new(1.0, 0.25), C::new(0.5, 0.5)];
+        let inside = [
+            C::new(0.5, -0.25),
+            C::new(0.0, 1.0),
+            C::new(0.0, -0.5),
+            C::new(1.0, 0.25),
+            C::new(0.5, 0.5),
+            C::new(0.2, 1.0),
+            C::new(-0.7, 0.3),
+            C::new(-1.0, 0.2),
+            C::new(2.0, 0.5),
+        ];
         for (s, p) in shapes().iter().zip(inside) {
             let w = winding_by_sampling(s, p);
             assert_eq!(w.abs(), 1, "{s:?}: {p} must be inside");

@@ -1,7 +1,7 @@
 //! ∮ f(z) dz over a closed contour, piece by piece.
 //!
 //! Method: circle and ellipse pieces use the periodic trapezoidal rule
-//! (Trefethen & Weideman, SIAM Review 56, 2014), straight segments use
+//! (Trefethen & Weideman, SIAM Review 56, 2014), straight segments and arcs use
 //! adaptive Gauss–Kronrod G7–K15 (Piessens et al., QUADPACK, 1983). The piece
 //! values and their error estimates are summed.
 
@@ -51,6 +51,10 @@ pub fn contour_integral(
             }
             Piece::Segment { from, to } => {
                 let mut g = |t: f64| f(piece.point(t)) * (to - from);
+                gauss_kronrod::integrate_unit(&mut g, piece_tol, budget)
+            }
+            Piece::Arc { .. } => {
+                let mut g = |t: f64| f(piece.point(t)) * piece.derivative(t);
                 gauss_kronrod::integrate_unit(&mut g, piece_tol, budget)
             }
         };

@@ -392,12 +392,7 @@ fn mid(c: &Contour) -> C {
 
 /// Length of a contour piece (for distributing samples).
 fn piece_length(p: &Piece) -> f64 {
-    match *p {
-        Piece::Segment { from, to } => (to - from).norm(),
-        Piece::Ellipse { .. } => (0..64)
-            .map(|k| (p.point((k + 1) as f64 / 64.0) - p.point(k as f64 / 64.0)).norm())
-            .sum(),
-    }
+    p.length()
 }
 
 /// AAA on the boundary of `c`, then Newton and winding orders. Returns the

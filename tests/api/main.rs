@@ -6,6 +6,7 @@ mod common;
 
 mod api_contract;
 mod contour_integral;
+mod contour_shapes;
 mod contract_doc;
 mod inverse_laplace;
 mod inverse_z;
