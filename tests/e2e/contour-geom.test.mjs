@@ -13,7 +13,7 @@ const jsDir = resolve(here, '..', '..', 'www', 'js');
 
 /** An independent winding number: the change of arg(γ(t) − p) along a fine sampling of the
  *  curve γ (given as a function of t in [0, 1)), each step's change taken in (−π, π], over 2π. */
-function argumentChange(gamma, p, steps = 6000) {
+function argumentChange(gamma, p, steps = 4000) {
   let total = 0, prev = null;
   for (let k = 0; k <= steps; k++) {
     const [x, y] = gamma((k % steps) / steps);
@@ -83,6 +83,42 @@ describe('contour geometry: winding numbers and drags (node)', () => {
     assert.equal(G.windingNumber({ shape: 'polygon', vertices: polys[0] }, [1, -1]), null, 'on an edge');
     const r = { shape: 'rectangle', corners: [[1, 1], [-2, -0.5]] };
     for (const p of points) assert.equal(G.windingNumber(r, p), argumentChange(polyCurve([[-2, -0.5], [1, -0.5], [1, 1], [-2, 1]]), p));
+  });
+
+  test('half-disc and keyhole windings equal the argument change along their pieces (contract.md: 1 inside, 0 outside)', () => {
+    // the half-disc: the diameter from c + r·e^{i(φ+π/2)} to c + r·e^{i(φ−π/2)}, then the half circle
+    for (const [direction, phi] of [['upper', Math.PI / 2], ['left', Math.PI], ['lower', -Math.PI / 2], ['right', 0]]) {
+      const h = { shape: 'half_disc', center: [0.2, -0.1], radius: 2.3, direction };
+      const c = h.center, r = h.radius;
+      const gamma = (t) => {
+        if (t < 0.5) { const u = 2 * t; const a = phi + Math.PI / 2, b = phi - Math.PI / 2; return [c[0] + r * ((1 - u) * Math.cos(a) + u * Math.cos(b)), c[1] + r * ((1 - u) * Math.sin(a) + u * Math.sin(b))]; }
+        const s = phi - Math.PI / 2 + Math.PI * (2 * t - 1);
+        return [c[0] + r * Math.cos(s), c[1] + r * Math.sin(s)];
+      };
+      let inside = 0;
+      for (const p of points) { const w = G.windingNumber(h, p); assert.equal(w, argumentChange(gamma, p), `${direction} at ${p}`); inside += w; }
+      assert.ok(inside > 40, `${direction}: ${inside} inside`);
+    }
+    // the keyhole: out along the edge at +g, the outer circle, in along −g, the inner circle backwards
+    const k = { shape: 'keyhole', center: [-0.3, 0.2], inner: 0.6, outer: 2.6, angle: 0.9, gap: 0.06 };
+    const [cx, cy] = k.center, th = k.angle, g = k.gap;
+    const d1 = Math.asin(g / k.inner), d2 = Math.asin(g / k.outer);
+    const onEdge = (side, rad) => { const s = Math.sqrt(rad * rad - g * g); return [cx + s * Math.cos(th) - side * g * Math.sin(th), cy + s * Math.sin(th) + side * g * Math.cos(th)]; };
+    const gamma = (t) => {
+      const u = (t % 0.25) * 4;
+      if (t < 0.25) return onEdge(1, k.inner + u * (k.outer - k.inner));
+      if (t < 0.5) { const s = th + d2 + u * (2 * Math.PI - 2 * d2); return [cx + k.outer * Math.cos(s), cy + k.outer * Math.sin(s)]; }
+      if (t < 0.75) return onEdge(-1, k.outer - u * (k.outer - k.inner));
+      const s = th + 2 * Math.PI - d1 - u * (2 * Math.PI - 2 * d1);
+      return [cx + k.inner * Math.cos(s), cy + k.inner * Math.sin(s)];
+    };
+    const extra = [[cx + 1.5 * Math.cos(th), cy + 1.5 * Math.sin(th)], [cx + 1.5 * Math.cos(th) - 0.1 * Math.sin(th), cy + 1.5 * Math.sin(th) + 0.1 * Math.cos(th)]];
+    let inside = 0;
+    for (const p of points.concat(extra)) { const w = G.windingNumber(k, p); assert.equal(w, argumentChange(gamma, p, 12000), `keyhole at ${p}`); inside += w; }
+    assert.equal(G.windingNumber(k, extra[0]), 0, 'in the slit: outside');
+    assert.equal(G.windingNumber(k, extra[1]), 1, 'beside the slit: inside');
+    assert.equal(G.windingNumber(k, [cx, cy]), 0, 'the centre is outside');
+    assert.ok(inside > 100, `${inside} inside`);
   });
 
   test('drags: a rectangle corner keeps the opposite corner, an ellipse axis turns it, a polygon vertex moves alone', () => {

@@ -1476,7 +1476,7 @@ describe('contours drawn and dragged on the plot', () => {
   }
 
   /** Press at `from` (plane), move to `to` in steps, wait for the live integral, let go; settle. */
-  async function drag(page, m, from, to, frames = 12) {
+  async function drag(page, m, from, to, frames = 12, fn = { f: F, params: {} }) {
     const [a, c] = [m.toPx(from), m.toPx(to)];
     await page.mouse.move(a[0], a[1]);
     await page.mouse.down();
@@ -1491,7 +1491,7 @@ describe('contours drawn and dragged on the plot', () => {
       JSON.stringify(window.residuary.results().contour_live.contour) === JSON.stringify(window.residuary.state().region), null, { timeout: 20000 });
     // the live integral, for the contour it names, against the API (the core run in node)
     const live = (await scriptResults(page)).contour_live;
-    const api = core.run({ task: 'contour_integral', f: F, var: 'z', params: {}, contour: live.contour });
+    const api = core.run({ task: 'contour_integral', f: fn.f, var: 'z', params: fn.params, contour: live.contour });
     assert.ok(!live.contour_integral.error && Math.hypot(live.contour_integral.value[0] - api.value[0], live.contour_integral.value[1] - api.value[1]) <=
       1e-9 * Math.max(1, Math.hypot(...api.value)), `live ${JSON.stringify(live.contour_integral.value)} vs API ${api.value}`);
     assert.equal(await page.getAttribute('#ci-box', 'data-state'), 'live');
@@ -1501,13 +1501,13 @@ describe('contours drawn and dragged on the plot', () => {
   }
 
   /** results().contour_integral against the API: the core run in node on the page's contour. */
-  async function checkAgainstApi(page) {
+  async function checkAgainstApi(page, fn = { f: F, params: {} }) {
     const st = await scriptState(page);
     const res = await scriptResults(page);
     const ci = res.contour_integral;
     assert.ok(ci && !ci.error && !ci.stale, JSON.stringify(ci));
     assert.deepEqual(ci.contour, st.contour, 'the integral is for the contour shown');
-    const api = core.run({ task: 'contour_integral', f: F, var: 'z', params: {}, contour: st.contour });
+    const api = core.run({ task: 'contour_integral', f: fn.f, var: 'z', params: fn.params, contour: st.contour });
     assert.ok(Math.hypot(ci.value[0] - api.value[0], ci.value[1] - api.value[1]) <= 1e-9 * Math.max(1, Math.hypot(...api.value)), `${ci.value} vs API ${api.value}`);
     assert.equal(ci.verdict, api.verdict);
     return { st, res, api };
@@ -1611,6 +1611,45 @@ describe('contours drawn and dragged on the plot', () => {
     assert.equal(w.length, 3);
     assert.ok(w.every((p) => p.winding === 1), JSON.stringify(w));
     await b.page.screenshot({ path: join(artifacts, 'contour-drag-ellipse.png') });
+  });
+
+  test('half-disc: the dark handle sets the radius and the side; keyhole: radii and slit dragged; the integrals are the API\'s', async () => {
+    await load(b.page);
+    let out = await scriptSet(b.page, { f: F, var: 'z', params: {}, view: [-3, 3, -3, 3], region: { shape: 'half_disc', center: [0, 0.3], radius: 0.5, direction: 'lower' } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    let m = await plotMap(b.page);
+    const viewBefore = (await scriptState(b.page)).view;
+    // the handle at the apex c + r·e^{iφ} = (0, −0.2), dragged up to (0.05, 2.3): radius 2, the upper side
+    await drag(b.page, m, [0, -0.2], [0.05, 2.3]);
+    let { st, res } = await checkAgainstApi(b.page);
+    assert.equal(st.region.direction, 'upper');
+    assert.ok(Math.abs(st.region.radius - 2) <= 3 * m.scale, JSON.stringify(st.region));
+    assert.deepEqual(st.view, viewBefore, 'no pan');
+    // inside: only 1.5i (±1 lie below the diameter Im z = 0.3), so 2πi·Res(1.5i) = 2πi·(2 + 1.5i)/((1.5i)² − 1) (by hand)
+    const num = [2, 1.5], den = -3.25; // (1.5i)^2 - 1 = -3.25
+    const want = [-2 * Math.PI * num[1] / den, 2 * Math.PI * num[0] / den];
+    assert.ok(Math.hypot(res.contour_integral.value[0] - want[0], res.contour_integral.value[1] - want[1]) < 1e-9, `${res.contour_integral.value} vs ${want}`);
+    assert.deepEqual(res.singularities.windings.map((w) => [w.at, w.winding]), [[[0, 1.5], 1]]);
+    await b.page.screenshot({ path: join(artifacts, 'contour-drag-half-disc.png') });
+    // a keyhole about 0 with its slit at 45 degrees (off every pole), radii 0.3 and 1.2: it holds ±1
+    out = await scriptSet(b.page, { region: { shape: 'keyhole', center: [0, 0], inner: 0.3, outer: 1.2, angle: Math.PI / 4 } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    assert.deepEqual(out.results.singularities.windings.map((w) => w.winding), [1, 1]);
+    // the outer handle sits opposite the slit, at 1.2·e^{i5π/4}; dragged out to radius 1.8 (1.5i comes inside, the zero −2 stays out)
+    const back = 5 * Math.PI / 4;
+    await drag(b.page, m, [1.2 * Math.cos(back), 1.2 * Math.sin(back)], [1.8 * Math.cos(back), 1.8 * Math.sin(back)]);
+    ({ st } = await checkAgainstApi(b.page));
+    assert.ok(Math.abs(st.region.outer - 1.8) <= 3 * m.scale, JSON.stringify(st.region));
+    assert.equal((await scriptResults(b.page)).singularities.windings.length, 3);
+    // the dark handle on the slit, at (r1 + r2)/2·e^{iθ}, turns it to −45 degrees
+    const mid = (0.3 + st.region.outer) / 2;
+    await drag(b.page, m, [mid * Math.cos(Math.PI / 4), mid * Math.sin(Math.PI / 4)], [mid * Math.cos(-Math.PI / 4), mid * Math.sin(-Math.PI / 4)]);
+    ({ st } = await checkAgainstApi(b.page));
+    assert.ok(Math.abs(st.region.angle + Math.PI / 4) < 0.02, JSON.stringify(st.region));
+    assert.ok(Math.abs(Number(await b.page.inputValue('#kh-angle')) + 45) < 1.2, 'the typed slit angle follows');
+    assert.match(await b.page.textContent('#ci-contour'), /around the keyhole/);
+    await b.page.screenshot({ path: join(artifacts, 'contour-drag-keyhole.png') });
+    assert.deepEqual(b.log.errors, []);
   });
 
   test('polygon: drawn by clicks, a vertex dragged, inserted, deleted; winding numbers against an angle sum; reversed', async () => {

@@ -29,7 +29,7 @@ export function createContourEditor(page, hooks) {
     drawing: null,       // {vertices: [[x, y]], hover: [x, y] | null} while a polygon is being drawn
     chosen: -1,          // the polygon vertex last pressed (Delete removes it)
   };
-  const editable = () => !state.infinity && ['rect', 'circle', 'ellipse', 'polygon'].includes(state.region.mode);
+  const editable = () => !state.infinity && ['rect', 'circle', 'ellipse', 'polygon', 'half_disc', 'keyhole'].includes(state.region.mode);
   const screen = (p) => toScreen(plot(), p[0], p[1]);
 
   /** What is under the CSS pixel `pos`: a handle, an edge ({id: 'edge-k', at}), or null. */
@@ -194,7 +194,7 @@ export function createContourEditor(page, hooks) {
       }
       if (!editable()) return;
       for (const h of regionHandles(state.region)) {
-        if (h.look === 'turn' || h.id === 'axis-b') guide(ctx, screen([state.region.ellipse[0], state.region.ellipse[1]]), screen(h.at));
+        if (state.region.mode === 'ellipse' && h.id.startsWith('axis')) guide(ctx, screen([state.region.ellipse[0], state.region.ellipse[1]]), screen(h.at));
         knob(ctx, screen(h.at), h.look, ed.chosen >= 0 && h.id === 'vertex-' + ed.chosen);
       }
     },

@@ -31,6 +31,14 @@ export function contourWords(variable, contour, isView, direction = 1) {
     return `∮ f(${v}) d${v} once ${way} around the ellipse centred at ${fmtSig(contour.center, 6)} with semi-axes ${fmtReal(a, 6)} and ${fmtReal(b, 6)}` +
       (t !== 0 ? `, turned by ${fmtReal((t * 180) / Math.PI, 4)} degrees` : '');
   }
+  if (contour.shape === 'half_disc') {
+    return `∮ f(${v}) d${v} once ${way} around the ${contour.direction} half-disc of radius ${fmtReal(contour.radius, 6)} about ${fmtSig(contour.center, 6)} (its diameter, then its half circle)`;
+  }
+  if (contour.shape === 'keyhole') {
+    const g = contour.gap === undefined ? 0.001 * contour.inner : contour.gap;
+    return `∮ f(${v}) d${v} once ${way} around the keyhole about ${fmtSig(contour.center, 6)}: radii ${fmtReal(contour.inner, 6)} and ${fmtReal(contour.outer, 6)}, ` +
+      `the slit at ${fmtReal(((contour.angle || 0) * 180) / Math.PI, 4)} degrees with half-width ${fmtReal(g, 3)} (out along one edge, round the outer circle, back along the other, round the inner circle the other way)`;
+  }
   if (contour.shape === 'polygon') {
     return `∮ f(${v}) d${v} once ${way} around the polygon through ` + contour.vertices.map((p) => fmtSig(p, 4)).join(', ');
   }

@@ -1,5 +1,5 @@
 // The region the search, the contour integral and the argument count use: the
-// current view, a rectangle, a circle, an ellipse or a polygon. Its contour, its
+// current view, a rectangle, a circle, an ellipse, a polygon, a half-disc or a keyhole. Its contour, its
 // orientation, its description in words, and the editor (the shape select, the typed
 // coordinates and the reverse control). Drawing and dragging it on the plot: contour-edit.js.
 import { $ } from './dom.js';
@@ -13,6 +13,8 @@ export const REGION_SHAPES = [
   { mode: 'circle', shape: 'circle', words: 'Circle' },
   { mode: 'ellipse', shape: 'ellipse', words: 'Ellipse' },
   { mode: 'polygon', shape: 'polygon', words: 'Polygon' },
+  { mode: 'half_disc', shape: 'half_disc', words: 'Half-disc' },
+  { mode: 'keyhole', shape: 'keyhole', words: 'Keyhole' },
 ];
 
 /** The contour of the chosen region. `view` is [x0, x1, y0, y1]. A polygon keeps its vertex
@@ -27,6 +29,15 @@ export function regionContour(region, view) {
     return { shape: 'ellipse', center: [x, y], semi_axes: [a, b], angle: t };
   }
   if (region.mode === 'polygon') return { shape: 'polygon', vertices: region.polygon.map((p) => p.slice()) };
+  if (region.mode === 'half_disc') {
+    const [x, y, r, direction] = region.half_disc;
+    return { shape: 'half_disc', center: [x, y], radius: r, direction };
+  }
+  if (region.mode === 'keyhole') {
+    // gap null: the contract's default, 0.001 × inner
+    const [x, y, inner, outer, angle, gap] = region.keyhole;
+    return Object.assign({ shape: 'keyhole', center: [x, y], inner, outer, angle }, gap === null || gap === undefined ? {} : { gap });
+  }
   const v = region.mode === 'rect' ? region.rect : view;
   return { shape: 'rectangle', corners: [[v[0], v[2]], [v[1], v[3]]] };
 }
@@ -51,6 +62,11 @@ export function regionProblem(contour) {
     if (!(contour.radius > 0) || !fin(contour.center)) return 'the circle needs a finite centre and a radius above 0';
   } else if (contour.shape === 'ellipse') {
     if (!fin(contour.center) || !(contour.semi_axes[0] > 0 && contour.semi_axes[1] > 0) || !Number.isFinite(contour.angle || 0)) return 'the ellipse needs a finite centre, semi-axes above 0 and a finite rotation';
+  } else if (contour.shape === 'half_disc') {
+    if (!fin(contour.center) || !(contour.radius > 0) || !['upper', 'lower', 'left', 'right'].includes(contour.direction)) return 'the half-disc needs a finite centre, a radius above 0 and a side (upper, lower, left or right)';
+  } else if (contour.shape === 'keyhole') {
+    const g = contour.gap === undefined ? 0.001 * contour.inner : contour.gap;
+    if (!fin(contour.center) || !(contour.inner > 0 && contour.outer > contour.inner) || !Number.isFinite(contour.angle || 0) || !(g > 0 && g < contour.inner)) return 'the keyhole needs a finite centre, radii 0 < inner < outer and a gap between 0 and the inner radius';
   } else if (contour.shape === 'polygon') {
     const v = contour.vertices;
     if (!Array.isArray(v) || v.length < 3 || !v.every(fin)) return 'the polygon needs at least 3 finite vertices';
@@ -70,6 +86,8 @@ export function regionWords(variable, contour) {
     return `the ellipse centred at ${fmtComplex(contour.center, 4)} with semi-axes ${fmtReal(a, 4)} and ${fmtReal(b, 4)}` +
       ((contour.angle || 0) !== 0 ? `, turned by ${fmtReal(((contour.angle || 0) * 180) / Math.PI, 4)} degrees` : '');
   }
+  if (contour.shape === 'half_disc') return `the ${contour.direction} half of |${variable} − (${fmtComplex(contour.center, 4)})| < ${fmtReal(contour.radius, 4)}`;
+  if (contour.shape === 'keyhole') return `${fmtReal(contour.inner, 4)} < |${variable} − (${fmtComplex(contour.center, 4)})| < ${fmtReal(contour.outer, 4)} without the slit at ${fmtReal(((contour.angle || 0) * 180) / Math.PI, 4)} degrees`;
   if (contour.shape === 'polygon') return `the polygon with ${contour.vertices.length} vertices ` + contour.vertices.map((p) => `(${fmtComplex(p, 4)})`).join(', ');
   const [[a, b], [c, d]] = contour.corners;
   return `Re ${variable} from ${fmtReal(Math.min(a, c), 4)} to ${fmtReal(Math.max(a, c), 4)}, Im ${variable} from ${fmtReal(Math.min(b, d), 4)} to ${fmtReal(Math.max(b, d), 4)}`;
@@ -103,6 +121,8 @@ export function createRegionEditor(page, changed) {
     rect: ['rect-x0', 'rect-x1', 'rect-y0', 'rect-y1'],
     circle: ['circ-x', 'circ-y', 'circ-r'],
     ellipse: ['ell-x', 'ell-y', 'ell-a', 'ell-b', 'ell-angle'],
+    half_disc: ['hd-x', 'hd-y', 'hd-r', 'hd-dir'],
+    keyhole: ['kh-x', 'kh-y', 'kh-inner', 'kh-outer', 'kh-angle', 'kh-gap'],
   };
   const setField = (id, value) => { if (document.activeElement !== $(id)) $(id).value = value; };
   const editor = {
@@ -119,12 +139,20 @@ export function createRegionEditor(page, changed) {
       const [ex, ey, ea, eb, et] = r.ellipse;
       [ex, ey, ea, eb, (et * 180) / Math.PI].forEach((x, k) => setField(FIELDS.ellipse[k], fieldNum(x)));
       setField('poly-vertices', verticesText(r.polygon));
+      const [hx, hy, hr, hdir] = r.half_disc;
+      [hx, hy, hr].forEach((x, k) => setField(FIELDS.half_disc[k], fieldNum(x)));
+      setField('hd-dir', hdir);
+      const [kx, ky, k1, k2, kt, kg] = r.keyhole;
+      [kx, ky, k1, k2, (kt * 180) / Math.PI].forEach((x, k) => setField(FIELDS.keyhole[k], fieldNum(x)));
+      setField('kh-gap', kg === null || kg === undefined ? '' : fieldNum(kg));
       $('region-shape').value = r.mode;
       $('region-rect').hidden = !(r.mode === 'rect' || r.mode === 'view');
       $('region-rect').classList.toggle('dim', r.mode !== 'rect');
       $('region-circle').hidden = r.mode !== 'circle';
       $('region-ellipse').hidden = r.mode !== 'ellipse';
       $('region-polygon').hidden = r.mode !== 'polygon';
+      $('region-half-disc').hidden = r.mode !== 'half_disc';
+      $('region-keyhole').hidden = r.mode !== 'keyhole';
       const contour = editor.contour();
       const dir = regionDirection(r, contour);
       $('contour-direction').textContent = dir > 0 ? 'Taken counter-clockwise.' : 'Taken clockwise.';
@@ -159,6 +187,25 @@ export function createRegionEditor(page, changed) {
     edited();
   };
   for (const mode of ['rect', 'circle', 'ellipse']) for (const id of FIELDS[mode]) $(id).addEventListener('change', regionTyped(mode));
+  const halfDiscTyped = () => {
+    const vals = ['hd-x', 'hd-y', 'hd-r'].map((id) => Number($(id).value));
+    if (!vals.every(Number.isFinite)) return;
+    state.region.half_disc = [vals[0], vals[1], vals[2], $('hd-dir').value];
+    state.region.mode = 'half_disc';
+    edited();
+  };
+  for (const id of FIELDS.half_disc) $(id).addEventListener('change', halfDiscTyped);
+  const keyholeTyped = () => {
+    const vals = ['kh-x', 'kh-y', 'kh-inner', 'kh-outer', 'kh-angle'].map((id) => Number($(id).value));
+    if (!vals.every(Number.isFinite)) return;
+    const gapText = $('kh-gap').value.trim();
+    const gap = gapText === '' ? null : Number(gapText);
+    if (gap !== null && !Number.isFinite(gap)) return;
+    state.region.keyhole = [vals[0], vals[1], vals[2], vals[3], (vals[4] * Math.PI) / 180, gap];
+    state.region.mode = 'keyhole';
+    edited();
+  };
+  for (const id of FIELDS.keyhole) $(id).addEventListener('change', keyholeTyped);
   $('poly-vertices').addEventListener('change', () => {
     const vs = parseVertices($('poly-vertices').value);
     $('poly-vertices').setAttribute('aria-invalid', vs ? 'false' : 'true');

@@ -45,8 +45,16 @@ function regionFrom(value, region) {
   if (value && value.shape === 'polygon' && Array.isArray(value.vertices) && value.vertices.length >= 3 && value.vertices.every(isPair)) {
     return Object.assign({}, region, { mode: 'polygon', polygon: value.vertices.map((p) => p.slice()) });
   }
+  if (value && value.shape === 'half_disc' && isPair(value.center) && isNum(value.radius) && ['upper', 'lower', 'left', 'right'].includes(value.direction)) {
+    return Object.assign({}, region, { mode: 'half_disc', half_disc: [value.center[0], value.center[1], value.radius, value.direction] });
+  }
+  if (value && value.shape === 'keyhole' && isPair(value.center) && isNum(value.inner) && isNum(value.outer) &&
+    (value.angle === undefined || isNum(value.angle)) && (value.gap === undefined || isNum(value.gap))) {
+    return Object.assign({}, region, { mode: 'keyhole', keyhole: [value.center[0], value.center[1], value.inner, value.outer, value.angle || 0, value.gap === undefined ? null : value.gap] });
+  }
   throw scriptError('bad_request', 'region must be "view", {"shape": "rectangle", "corners": [[x0, y0], [x1, y1]]}, {"shape": "circle", "center": [x, y], "radius": r}, ' +
-    '{"shape": "ellipse", "center": [x, y], "semi_axes": [a, b], "angle": t} or {"shape": "polygon", "vertices": [[x, y], …]}');
+    '{"shape": "ellipse", "center": [x, y], "semi_axes": [a, b], "angle": t}, {"shape": "polygon", "vertices": [[x, y], …]}, ' +
+    '{"shape": "half_disc", "center": [x, y], "radius": r, "direction": "upper" | "lower" | "left" | "right"} or {"shape": "keyhole", "center": [x, y], "inner": r1, "outer": r2, "angle": t, "gap": g}');
 }
 
 const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 'reversed', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',

@@ -33,7 +33,7 @@ export function itemsOf(resp, floor = 0) {
 /** Does the region hold the closed unit disc? */
 function coversUnitDisc(contour) {
   if (contour.shape === 'circle') return cAbs(contour.center) + 1 < contour.radius;
-  if (contour.shape === 'ellipse' || contour.shape === 'polygon') {
+  if (contour.shape !== 'rectangle') {
     // every point of a circle just outside the unit circle is inside the contour (and it holds 0)
     return windingNumber(contour, [0, 0]) !== 0 &&
       Array.from({ length: 64 }, (_, k) => [1.0001 * Math.cos(k * Math.PI / 32), 1.0001 * Math.sin(k * Math.PI / 32)]).every((p) => windingNumber(contour, p));
