@@ -47,7 +47,7 @@ export function drawRegion(plot) {
     const at = r.shape === 'circle' || r.shape === 'ellipse'
       ? [0.125, 0.375, 0.625, 0.875].map((u) => [Math.floor(u * n), 0.5])
       : r.shape === 'half_disc' || r.shape === 'keyhole'
-        ? (r.shape === 'half_disc' ? [0.1, 0.4, 0.6, 0.8] : [0.035, 0.25, 0.5, 0.675, 0.85]).map((u) => [Math.floor(u * n), 0.5])
+        ? (r.shape === 'half_disc' ? [0.05, 0.15, 0.4, 0.6, 0.8] : [0.035, 0.25, 0.5, 0.675, 0.85]).map((u) => [Math.floor(u * n), 0.5])
       : path.map((_, k) => [k, 0.5]);
     const size = 6;
     for (const [k, u] of at) {
