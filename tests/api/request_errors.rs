@@ -99,7 +99,7 @@ fn a_missing_field_says_what_it_must_be() {
     let (_, message, _) = error(json!({"task": "contour_integral", "f": "1/z", "contour": {"shape": "circle", "center": [0, 0]}}));
     assert_eq!(message, "\"contour.radius\" is missing: it must be a positive number");
     let (_, message, _) = error(json!({"task": "argument_count", "f": "1/z", "contour": {"center": [0, 0], "radius": 1}}));
-    assert_eq!(message, "\"contour.shape\" is missing: it must be \"circle\", \"ellipse\", \"rectangle\" or \"polygon\"");
+    assert_eq!(message, "\"contour.shape\" is missing: it must be \"circle\", \"ellipse\", \"rectangle\", \"polygon\", \"half_disc\" or \"keyhole\"");
 }
 
 #[test]
@@ -128,7 +128,7 @@ fn unknown_fields_are_refused_with_the_nearest_known_name() {
         ),
         (
             json!({"task": "contour_integral", "f": "1/z", "contour": {"shape": "cirlce", "center": [0, 0], "radius": 1}}),
-            "\"contour.shape\" must be \"circle\", \"ellipse\", \"rectangle\" or \"polygon\", got the string \"cirlce\"; did you mean \"circle\"?",
+            "\"contour.shape\" must be \"circle\", \"ellipse\", \"rectangle\", \"polygon\", \"half_disc\" or \"keyhole\", got the string \"cirlce\"; did you mean \"circle\"?",
         ),
     ];
     for (request, want) in cases {
