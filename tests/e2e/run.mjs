@@ -12,6 +12,7 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createRequire } from 'node:module';
 import './entry-forms.test.mjs'; // the entry forms' parsing and writing, in node
 import './contour-path.test.mjs'; // the contour shapes' polylines and the image curve's winding, in node
+import './contour-geom.test.mjs'; // winding numbers and drags of the contour editor, in node
 
 const here = dirname(fileURLToPath(import.meta.url));
 const require = createRequire(join(here, 'package.json'));
@@ -216,6 +217,7 @@ describe('the page with the real core', () => {
     assert.match(await b.page.textContent('#ci-count'), /Inside the contour: 0 zeros, 2 poles \(argument principle: N − P = −2\)/);
 
     // a circle around the upper pole only: 2πi·ωn²/(2i·ωd) = π·ωn²/ωd, ωd = ωn√(1−ζ²) (common practice)
+    await b.page.selectOption('#region-shape', 'circle'); // the circle's fields show once it is the shape
     await b.page.fill('#circ-x', '-0.6');
     await b.page.fill('#circ-y', '1.9');
     await b.page.fill('#circ-r', '1');
@@ -1930,6 +1932,274 @@ describe('the image curve f(γ)', () => {
     await b.page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
     const on = await b.page.evaluate(() => document.getElementById('image-box').dataset.markedOn);
     assert.equal(on, 'contour');
+    assert.deepEqual(b.log.errors, []);
+  });
+});
+
+describe('contours drawn and dragged on the plot', () => {
+  let b, core;
+  // poles at 1, −1 and 1.5i (by construction); no handle below starts on one of them
+  const F = '(z + 2)/((z - 1)*(z + 1)*(z - 1.5i))';
+  const POLES = [[1, 0], [-1, 0], [0, 1.5]];
+  before(async () => { core = await nodeCore(); b = await openBrowser({ width: 1400, height: 1000 }); });
+  after(async () => { if (b) await b.close(); });
+
+  /** The plot's transform (plot/view.js: MARGIN left 54, right 10, top 8) from the state's view. */
+  async function plotMap(page) {
+    await page.locator('#plot').scrollIntoViewIfNeeded();
+    const m = await page.evaluate(() => {
+      const r = document.getElementById('plot').getBoundingClientRect();
+      const v = window.residuary.state().view;
+      return { left: r.left + 54, top: r.top + 8, x0: v[0], y1: v[3], scale: (v[1] - v[0]) / (r.width - 54 - 10) };
+    });
+    m.toPx = (p) => [m.left + (p[0] - m.x0) / m.scale, m.top + (m.y1 - p[1]) / m.scale];
+    m.toPlane = (q) => [m.x0 + (q[0] - m.left) * m.scale, m.y1 - (q[1] - m.top) * m.scale];
+    return m;
+  }
+
+  /** Press at `from` (plane), move to `to` in steps, wait for the live integral, let go; settle. */
+  async function drag(page, m, from, to, frames = 12, fn = { f: F, params: {} }) {
+    const [a, c] = [m.toPx(from), m.toPx(to)];
+    await page.mouse.move(a[0], a[1]);
+    await page.mouse.down();
+    for (let i = 1; i <= frames; i++) {
+      await page.mouse.move(a[0] + ((c[0] - a[0]) * i) / frames, a[1] + ((c[1] - a[1]) * i) / frames);
+      await page.waitForTimeout(15);
+    }
+    // while the contour is held, its integral follows live (contour-edit.js createContourLive)
+    // (the last contour of the drag: earlier steps may cross a pole and be refused)
+    await page.waitForFunction(() => performance.getEntriesByType('mark').some((e) => e.name.startsWith('residuary-contour-live-')) &&
+      window.residuary.results().contour_live &&
+      JSON.stringify(window.residuary.results().contour_live.contour) === JSON.stringify(window.residuary.state().region), null, { timeout: 20000 });
+    // the live integral, for the contour it names, against the API (the core run in node)
+    const live = (await scriptResults(page)).contour_live;
+    const api = core.run({ task: 'contour_integral', f: fn.f, var: 'z', params: fn.params, contour: live.contour });
+    assert.ok(!live.contour_integral.error && Math.hypot(live.contour_integral.value[0] - api.value[0], live.contour_integral.value[1] - api.value[1]) <=
+      1e-9 * Math.max(1, Math.hypot(...api.value)), `live ${JSON.stringify(live.contour_integral.value)} vs API ${api.value}`);
+    assert.equal(await page.getAttribute('#ci-box', 'data-state'), 'live');
+    await page.mouse.up();
+    await page.evaluate(() => window.residuary.settled());
+    assert.equal((await scriptResults(page)).contour_live, undefined, 'no live entry once let go');
+  }
+
+  /** results().contour_integral against the API: the core run in node on the page's contour. */
+  async function checkAgainstApi(page, fn = { f: F, params: {} }) {
+    const st = await scriptState(page);
+    const res = await scriptResults(page);
+    const ci = res.contour_integral;
+    assert.ok(ci && !ci.error && !ci.stale, JSON.stringify(ci));
+    assert.deepEqual(ci.contour, st.contour, 'the integral is for the contour shown');
+    const api = core.run({ task: 'contour_integral', f: fn.f, var: 'z', params: fn.params, contour: st.contour });
+    assert.ok(Math.hypot(ci.value[0] - api.value[0], ci.value[1] - api.value[1]) <= 1e-9 * Math.max(1, Math.hypot(...api.value)), `${ci.value} vs API ${api.value}`);
+    assert.equal(ci.verdict, api.verdict);
+    return { st, res, api };
+  }
+
+  /** An independent winding number: follow arg(γ(t) − p) along each edge cut into 200 steps,
+   *  adding each step's change of argument taken into (−π, π]; over 2π. */
+  function angleSum(vertices, p) {
+    let total = 0;
+    let prev = null;
+    const pts = [];
+    for (let k = 0; k < vertices.length; k++) {
+      const [a, c] = [vertices[k], vertices[(k + 1) % vertices.length]];
+      for (let j = 0; j < 200; j++) pts.push([a[0] + ((c[0] - a[0]) * j) / 200, a[1] + ((c[1] - a[1]) * j) / 200]);
+    }
+    pts.push(pts[0]);
+    for (const q of pts) {
+      const arg = Math.atan2(q[1] - p[1], q[0] - p[0]);
+      if (prev !== null) { let d = arg - prev; while (d > Math.PI) d -= 2 * Math.PI; while (d <= -Math.PI) d += 2 * Math.PI; total += d; }
+      prev = arg;
+    }
+    return Math.round(total / (2 * Math.PI));
+  }
+
+  test('circle: the radius handle and the centre are dragged; the view does not pan; the integral is the API\'s', async () => {
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: F, var: 'z', params: {}, view: [-3, 3, -3, 3], region: { shape: 'circle', center: [0, 0], radius: 0.5 } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    let m = await plotMap(b.page);
+    const viewBefore = (await scriptState(b.page)).view;
+    await drag(b.page, m, [0.5, 0], [1.3, 0]);
+    let st = await scriptState(b.page);
+    assert.deepEqual(st.view, viewBefore, 'a contour drag must not pan the view');
+    assert.ok(Math.abs(st.region.radius - 1.3) <= 2 * m.scale && Math.hypot(...st.region.center) < 1e-12, JSON.stringify(st.region));
+    assert.equal(await b.page.inputValue('#circ-r'), String(Number(st.region.radius.toPrecision(6))), 'the typed radius follows the drag');
+    await drag(b.page, m, [0, 0], [0.8, 0.3]);
+    const { res } = await checkAgainstApi(b.page);
+    st = await scriptState(b.page);
+    assert.deepEqual(st.view, viewBefore);
+    assert.ok(Math.abs(st.region.center[0] - 0.8) <= 2 * m.scale && Math.abs(st.region.center[1] - 0.3) <= 2 * m.scale, JSON.stringify(st.region));
+    // inside: only the pole at 1 (|1 − c| < r, by hand), so 2πi·Res(1) = 2πi·3/(2(1 − 1.5i)) (residue by hand)
+    const den = [2, -3], k = 3 / (den[0] ** 2 + den[1] ** 2);
+    const want = [-2 * Math.PI * k * -den[1] * 1, 2 * Math.PI * k * den[0]]; // 2πi · 3/(2 − 3i) = 2πi · 3(2 + 3i)/13
+    assert.ok(Math.hypot(res.contour_integral.value[0] - want[0], res.contour_integral.value[1] - want[1]) < 1e-9, `${res.contour_integral.value} vs ${want}`);
+    // typed coordinates drive it too, and the reverse control negates the integral the page shows
+    await b.page.click('#contour-reverse');
+    await b.page.evaluate(() => window.residuary.settled());
+    assert.equal((await scriptState(b.page)).reversed, true);
+    const rev = await scriptResults(b.page);
+    assert.equal(rev.contour_integral.orientation, -1);
+    const shown = JSON.parse(await b.page.getAttribute('#ci-orientation', 'data-value'));
+    assert.ok(Math.hypot(shown[0] + res.contour_integral.value[0], shown[1] + res.contour_integral.value[1]) < 1e-12, `${shown}`);
+    assert.deepEqual(rev.singularities.windings.filter((w) => w.kind === 'pole').map((w) => w.winding), [-1]);
+    await b.page.click('#contour-reverse');
+    await b.page.evaluate(() => window.residuary.settled());
+    // hovering the outline names the point of γ under the pointer (a 'contour-hover' event for linked views)
+    await b.page.evaluate(() => document.getElementById('plot').addEventListener('contour-hover', (e) => { window.lastContourHover = e.detail; }));
+    const c = (await scriptState(b.page)).region;
+    const onIt = m.toPx([c.center[0] + c.radius * Math.cos(2), c.center[1] + c.radius * Math.sin(2)]);
+    await b.page.mouse.move(onIt[0] + 2, onIt[1] + 1);
+    const hov = await b.page.evaluate(() => window.lastContourHover);
+    assert.ok(hov && Math.abs(Math.hypot(hov.at[0] - c.center[0], hov.at[1] - c.center[1]) - c.radius) < 0.02 * c.radius, JSON.stringify(hov));
+    await b.page.screenshot({ path: join(artifacts, 'contour-drag-circle.png') });
+    assert.deepEqual(b.log.errors, []);
+  });
+
+  test('rectangle: a corner and a side dragged; the integral is the API\'s', async () => {
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: F, var: 'z', params: {}, view: [-3, 3, -3, 3], region: { shape: 'rectangle', corners: [[-0.5, -0.5], [0.5, 0.5]] } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const m = await plotMap(b.page);
+    const viewBefore = (await scriptState(b.page)).view;
+    await drag(b.page, m, [0.5, 0.5], [2, 2]);
+    await drag(b.page, m, [-0.5, 0.75], [-2, 0.75]);
+    const { st } = await checkAgainstApi(b.page);
+    assert.deepEqual(st.view, viewBefore);
+    const [[x0, y0], [x1, y1]] = st.region.corners;
+    for (const [got, want] of [[x0, -2], [y0, -0.5], [x1, 2], [y1, 2]]) assert.ok(Math.abs(got - want) <= 2 * m.scale, JSON.stringify(st.region));
+    assert.equal(await b.page.inputValue('#rect-x0'), String(Number(x0.toPrecision(6))));
+    const w = (await scriptResults(b.page)).singularities.windings;
+    assert.deepEqual(w.map((p) => p.winding), w.map(() => 1), JSON.stringify(w));
+    assert.equal(w.length, 3);
+  });
+
+  test('ellipse: the first semi-axis handle stretches and turns it, the second widens it; the integral is the API\'s', async () => {
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: F, var: 'z', params: {}, view: [-3, 3, -3, 3], region: { shape: 'ellipse', center: [0, 0], semi_axes: [0.6, 0.3], angle: 0 } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const m = await plotMap(b.page);
+    await drag(b.page, m, [0.6, 0], [0, 1.8]);
+    let st = await scriptState(b.page);
+    assert.ok(Math.abs(st.region.semi_axes[0] - 1.8) <= 2 * m.scale && Math.abs(st.region.angle - Math.PI / 2) < 0.01, JSON.stringify(st.region));
+    assert.ok(Math.abs(Number(await b.page.inputValue('#ell-angle')) - 90) < 0.6, 'the typed rotation (degrees) follows');
+    let w = (await scriptResults(b.page)).singularities.windings;
+    assert.deepEqual(w.map((p) => p.at), [[0, 1.5]], 'only 1.5i inside the tall thin ellipse');
+    // the second handle sits at c + b(−sin t, cos t) = (−0.3, 0)
+    await drag(b.page, m, [-0.3, 0], [-1.3, 0]);
+    ({ st } = await checkAgainstApi(b.page));
+    assert.ok(Math.abs(st.region.semi_axes[1] - 1.3) <= 2 * m.scale, JSON.stringify(st.region));
+    w = (await scriptResults(b.page)).singularities.windings;
+    assert.equal(w.length, 3);
+    assert.ok(w.every((p) => p.winding === 1), JSON.stringify(w));
+    await b.page.screenshot({ path: join(artifacts, 'contour-drag-ellipse.png') });
+  });
+
+  test('half-disc: the dark handle sets the radius and the side; keyhole: radii and slit dragged; the integrals are the API\'s', async () => {
+    await load(b.page);
+    let out = await scriptSet(b.page, { f: F, var: 'z', params: {}, view: [-3, 3, -3, 3], region: { shape: 'half_disc', center: [0, 0.3], radius: 0.5, direction: 'lower' } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    let m = await plotMap(b.page);
+    const viewBefore = (await scriptState(b.page)).view;
+    // the handle at the apex c + r·e^{iφ} = (0, −0.2), dragged up to (0.05, 2.3): radius 2, the upper side
+    await drag(b.page, m, [0, -0.2], [0.05, 2.3]);
+    let { st, res } = await checkAgainstApi(b.page);
+    assert.equal(st.region.direction, 'upper');
+    assert.ok(Math.abs(st.region.radius - 2) <= 3 * m.scale, JSON.stringify(st.region));
+    assert.deepEqual(st.view, viewBefore, 'no pan');
+    // inside: only 1.5i (±1 lie below the diameter Im z = 0.3), so 2πi·Res(1.5i) = 2πi·(2 + 1.5i)/((1.5i)² − 1) (by hand)
+    const num = [2, 1.5], den = -3.25; // (1.5i)^2 - 1 = -3.25
+    const want = [-2 * Math.PI * num[1] / den, 2 * Math.PI * num[0] / den];
+    assert.ok(Math.hypot(res.contour_integral.value[0] - want[0], res.contour_integral.value[1] - want[1]) < 1e-9, `${res.contour_integral.value} vs ${want}`);
+    assert.deepEqual(res.singularities.windings.map((w) => [w.at, w.winding]), [[[0, 1.5], 1]]);
+    await b.page.screenshot({ path: join(artifacts, 'contour-drag-half-disc.png') });
+    // a keyhole about 0 with its slit at 45 degrees (off every pole), radii 0.3 and 1.2: it holds ±1
+    out = await scriptSet(b.page, { region: { shape: 'keyhole', center: [0, 0], inner: 0.3, outer: 1.2, angle: Math.PI / 4 } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    assert.deepEqual(out.results.singularities.windings.map((w) => w.winding), [1, 1]);
+    // the outer handle sits opposite the slit, at 1.2·e^{i5π/4}; dragged out to radius 1.8 (1.5i comes inside, the zero −2 stays out)
+    const back = 5 * Math.PI / 4;
+    await drag(b.page, m, [1.2 * Math.cos(back), 1.2 * Math.sin(back)], [1.8 * Math.cos(back), 1.8 * Math.sin(back)]);
+    ({ st } = await checkAgainstApi(b.page));
+    assert.ok(Math.abs(st.region.outer - 1.8) <= 3 * m.scale, JSON.stringify(st.region));
+    assert.equal((await scriptResults(b.page)).singularities.windings.length, 3);
+    // the dark handle on the slit, at (r1 + r2)/2·e^{iθ}, turns it to −45 degrees
+    const mid = (0.3 + st.region.outer) / 2;
+    await drag(b.page, m, [mid * Math.cos(Math.PI / 4), mid * Math.sin(Math.PI / 4)], [mid * Math.cos(-Math.PI / 4), mid * Math.sin(-Math.PI / 4)]);
+    ({ st } = await checkAgainstApi(b.page));
+    assert.ok(Math.abs(st.region.angle + Math.PI / 4) < 0.02, JSON.stringify(st.region));
+    assert.ok(Math.abs(Number(await b.page.inputValue('#kh-angle')) + 45) < 1.2, 'the typed slit angle follows');
+    assert.match(await b.page.textContent('#ci-contour'), /around the keyhole/);
+    await b.page.screenshot({ path: join(artifacts, 'contour-drag-keyhole.png') });
+    assert.deepEqual(b.log.errors, []);
+  });
+
+  test('polygon: drawn by clicks, a vertex dragged, inserted, deleted; winding numbers against an angle sum; reversed', async () => {
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: F, var: 'z', params: {}, view: [-3, 3, -3, 3], region: { shape: 'polygon', vertices: [[-2, -2], [-1.5, -2], [-1.5, -1.5]] } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    const m = await plotMap(b.page);
+    const viewBefore = (await scriptState(b.page)).view;
+    await b.page.click('#poly-draw');
+    const drawn = [[0, -1], [2, -1], [2, 2], [-0.5, 2], [0, 0.5]];
+    for (const p of drawn) { const q = m.toPx(p); await b.page.mouse.click(q[0], q[1]); }
+    const first = m.toPx(drawn[0]);
+    await b.page.mouse.click(first[0], first[1]); // the first vertex again closes it
+    await b.page.evaluate(() => window.residuary.settled());
+    let st = await scriptState(b.page);
+    assert.deepEqual(st.view, viewBefore, 'drawing does not pan');
+    assert.equal(st.region.vertices.length, 5);
+    st.region.vertices.forEach((p, i) => assert.ok(Math.hypot(p[0] - drawn[i][0], p[1] - drawn[i][1]) <= 2 * m.scale, `${p} vs ${drawn[i]}`));
+    const windingsMatch = async () => {
+      const s = await scriptState(b.page);
+      const w = (await scriptResults(b.page)).singularities.windings;
+      for (const p of POLES) {
+        const row = w.find((r) => Math.hypot(r.at[0] - p[0], r.at[1] - p[1]) < 1e-9);
+        const want = angleSum(s.region.vertices, p);
+        if (want === 0) assert.ok(!row || row.winding === 0, `${p}: ${JSON.stringify(row)}`);
+        else assert.equal(row && row.winding, want, `${p} in ${JSON.stringify(s.region.vertices)}`);
+      }
+      const cells = await b.page.$$eval('#sing-body tr[data-index]', (trs) => trs.map((t) => t.dataset.winding));
+      assert.deepEqual(cells, w.map((r) => String(r.winding)), 'the table column shows the same');
+      return s;
+    };
+    await windingsMatch();
+    await checkAgainstApi(b.page);
+    // drag the last vertex out past −1
+    await drag(b.page, m, [0, 0.5], [-1.5, 0]);
+    st = await windingsMatch();
+    assert.equal(angleSum(st.region.vertices, [-1, 0]), 1, 'the dragged polygon now holds −1');
+    await checkAgainstApi(b.page);
+    // double-click on the middle of the side from (2, −1) to (2, 2) inserts a vertex; on it, deletes it
+    const mid = m.toPx([2, 0.5]);
+    await b.page.mouse.dblclick(mid[0], mid[1]);
+    await b.page.evaluate(() => window.residuary.settled());
+    st = await scriptState(b.page);
+    assert.equal(st.region.vertices.length, 6);
+    assert.ok(Math.hypot(st.region.vertices[2][0] - 2, st.region.vertices[2][1] - 0.5) <= 2 * m.scale, JSON.stringify(st.region.vertices));
+    await b.page.mouse.dblclick(mid[0], mid[1]);
+    await b.page.evaluate(() => window.residuary.settled());
+    assert.equal((await scriptState(b.page)).region.vertices.length, 5);
+    // choose the vertex (−0.5, 2) and press Delete
+    const v3 = m.toPx([-0.5, 2]);
+    await b.page.mouse.click(v3[0], v3[1]);
+    await b.page.focus('#plot');
+    await b.page.keyboard.press('Delete');
+    await b.page.evaluate(() => window.residuary.settled());
+    st = await scriptState(b.page);
+    assert.equal(st.region.vertices.length, 4, JSON.stringify(st.region.vertices));
+    await windingsMatch();
+    const before = await checkAgainstApi(b.page);
+    // reversed: the vertex order turns round, the core integrates clockwise, the windings are −1
+    await b.page.click('#contour-reverse');
+    await b.page.evaluate(() => window.residuary.settled());
+    st = await windingsMatch();
+    assert.deepEqual(st.region.vertices, before.st.region.vertices.slice().reverse());
+    const after = await checkAgainstApi(b.page);
+    assert.ok(Math.hypot(after.api.value[0] + before.api.value[0], after.api.value[1] + before.api.value[1]) < 1e-9, 'reversed: the integral is negated');
+    assert.match(await b.page.textContent('#ci-contour'), /once clockwise around the polygon/);
+    assert.deepEqual((await scriptState(b.page)).view, viewBefore, 'no edit panned the view');
+    await b.page.screenshot({ path: join(artifacts, 'contour-drag-polygon.png') });
     assert.deepEqual(b.log.errors, []);
   });
 });

@@ -15,17 +15,35 @@ const WAYS = [
   { key: 'quadrature', name: 'Quadrature along the contour', how: 'the integral summed numerically along the path' },
 ];
 
-/** The contour in words: its shape, where it lies and its direction. */
-export function contourWords(variable, contour, isView) {
+/** The contour in words: its shape, where it lies and its direction (`direction` −1: clockwise). */
+export function contourWords(variable, contour, isView, direction = 1) {
   const v = variable;
+  const way = direction < 0 ? 'clockwise' : 'counter-clockwise';
   if (contour.shape === 'circle') {
     const [cx, cy] = contour.center;
     const centre = cx === 0 && cy === 0 ? v
       : cy === 0 ? `${v} ${cx < 0 ? '+' : '−'} ${fmtReal(Math.abs(cx), 6)}` : `${v} − (${fmtSig(contour.center, 6)})`;
-    return `∮ f(${v}) d${v} once counter-clockwise around the circle |${centre}| = ${fmtReal(contour.radius, 6)}`;
+    return `∮ f(${v}) d${v} once ${way} around the circle |${centre}| = ${fmtReal(contour.radius, 6)}`;
+  }
+  if (contour.shape === 'ellipse') {
+    const [a, b] = contour.semi_axes;
+    const t = contour.angle || 0;
+    return `∮ f(${v}) d${v} once ${way} around the ellipse centred at ${fmtSig(contour.center, 6)} with semi-axes ${fmtReal(a, 6)} and ${fmtReal(b, 6)}` +
+      (t !== 0 ? `, turned by ${fmtReal((t * 180) / Math.PI, 4)} degrees` : '');
+  }
+  if (contour.shape === 'half_disc') {
+    return `∮ f(${v}) d${v} once ${way} around the ${contour.direction} half-disc of radius ${fmtReal(contour.radius, 6)} about ${fmtSig(contour.center, 6)} (its diameter, then its half circle)`;
+  }
+  if (contour.shape === 'keyhole') {
+    const g = contour.gap === undefined ? 0.001 * contour.inner : contour.gap;
+    return `∮ f(${v}) d${v} once ${way} around the keyhole about ${fmtSig(contour.center, 6)}: radii ${fmtReal(contour.inner, 6)} and ${fmtReal(contour.outer, 6)}, ` +
+      `the slit at ${fmtReal(((contour.angle || 0) * 180) / Math.PI, 4)} degrees with half-width ${fmtReal(g, 3)} (out along one edge, round the outer circle, back along the other, round the inner circle the other way)`;
+  }
+  if (contour.shape === 'polygon') {
+    return `∮ f(${v}) d${v} once ${way} around the polygon through ` + contour.vertices.map((p) => fmtSig(p, 4)).join(', ');
   }
   const [[a, b], [c, d]] = contour.corners;
-  return `∮ f(${v}) d${v} once counter-clockwise around the ${isView ? 'border of the current view' : 'rectangle'}: ` +
+  return `∮ f(${v}) d${v} once ${way} around the ${isView ? 'border of the current view' : 'rectangle'}: ` +
     `Re ${v} from ${fmtReal(Math.min(a, c), 6)} to ${fmtReal(Math.max(a, c), 6)}, Im ${v} from ${fmtReal(Math.min(b, d), 6)} to ${fmtReal(Math.max(b, d), 6)}`;
 }
 
@@ -53,11 +71,32 @@ export function contourStatus(parts, text, look) {
   parts.box.dataset.state = look;
 }
 
-/** Fill the block from a contour_integral response. */
-export function showContourIntegral(parts, variable, contour, isView, resp) {
+/** The direction of a contour as the core takes it: a polygon by its vertex order (the shoelace
+ *  sign), every other shape counter-clockwise. */
+function coreDirection(contour) {
+  if (contour.shape !== 'polygon') return 1;
+  let s = 0;
+  const v = contour.vertices;
+  for (let k = 0; k < v.length; k++) s += v[k][0] * v[(k + 1) % v.length][1] - v[(k + 1) % v.length][0] * v[k][1];
+  return s < 0 ? -1 : 1;
+}
+
+/** Fill the block from a contour_integral response. `sign` −1: the page takes the contour the
+ *  other way round from the core (the reverse control on a circle, ellipse or rectangle; the
+ *  contract has no orientation field for them), so the integral along it is −1 × the core's value. */
+export function showContourIntegral(parts, variable, contour, isView, resp, sign = 1) {
   parts.box.hidden = false;
   parts.box.classList.remove('stale', 'disagree');
-  parts.contour.textContent = contourWords(variable, contour, isView) + '.';
+  parts.contour.textContent = contourWords(variable, contour, isView, coreDirection(contour) * sign) + '.';
+  if (parts.orientation) {
+    const value = isFinitePair(resp && resp.value) ? resp.value : null;
+    parts.orientation.hidden = !(sign < 0);
+    parts.orientation.textContent = sign < 0
+      ? 'Taken clockwise (reversed): the values below are for the counter-clockwise contour the computing core integrates; along the reversed contour the integral is −1 times them' +
+        (value ? `, ${valueText([-value[0], -value[1]], resp.error_estimate)}.` : '.')
+      : '';
+    parts.orientation.dataset.value = sign < 0 && value ? JSON.stringify([-value[0], -value[1]]) : '';
+  }
   parts.ways.textContent = '';
   parts.warnings.textContent = '';
   parts.value.textContent = '';

@@ -1,13 +1,17 @@
 // Wires the page together: the state, the controls, the plot, the readout, the
 // region editor and the search pipeline. Everything the user types is kept (see state.js).
 import { $, debounce } from './dom.js';
-import { Engine, startEngine, runHeavy, runNow, responseError } from './engine.js';
+import { Engine, startEngine, runHeavy, runNow, responseError, cancelHeavy } from './engine.js';
 import { loadState, saveState, fromHash, toHash, hashGivesView, hasStoredState } from './state.js';
 import { showUnderline, syncMirror, checkExpression } from './expr-input.js';
 import { renderParams, functionInput } from './params.js';
 import { createPlot, plotDescription } from './plot.js';
 import { createReadout } from './readout.js';
 import { createRegionEditor } from './region.js';
+import { createContourEditor, createContourLive, windings } from './contour-edit.js';
+import { contourStatus } from './contour.js';
+import { showWindings } from './singularities.js';
+import { markerAt } from './plot/overlays.js';
 import { createPipeline } from './pipeline.js';
 import { attachInverseSection } from './inverse.js';
 import { drawInverseChart } from './inverse-chart.js';
@@ -38,7 +42,7 @@ const ui = {
   detail: { box: $('detail'), title: $('detail-title'), math: $('detail-math'), note: $('detail-note'), body: $('laurent-body'),
     warnings: $('detail-warnings'), table: $('laurent-table') },
   ci: { box: $('ci-box'), contour: $('ci-contour'), status: $('ci-status'), result: $('ci-result'), value: $('ci-value'),
-    ways: $('ci-ways'), verdict: $('ci-verdict'), count: $('ci-count'), warnings: $('ci-warnings') },
+    ways: $('ci-ways'), verdict: $('ci-verdict'), count: $('ci-count'), warnings: $('ci-warnings'), orientation: $('ci-orientation') },
   inv: { box: $('inv-box'), title: $('inv-title'), what: $('inv-what'), span: $('inv-span'), spanLabel: $('inv-span-label'),
     spanHint: $('inv-span-hint'), status: $('inv-status'), warnings: $('inv-warnings'), result: $('inv-result'),
     chart: $('inv-chart'), closed: $('inv-closed'), facts: $('inv-facts') },
@@ -83,6 +87,18 @@ const plot = createPlot(ui.canvas, {
   onUndo: () => poleDrag.undo(),
   onMarkerNudge: (index, d) => poleDrag.nudge(index, d),
   onMarkerNudgeEnd: () => poleDrag.nudgeEnd(),
+  // the contour on the plot (contour-edit.js): a press on its handles or outline edits it
+  contourDrawing: () => Boolean(page.contourEdit && page.contourEdit.drawing),
+  onContourPress: (pos) => Boolean(page.contourEdit && page.contourEdit.press(pos)),
+  onContourMove: (pos) => page.contourEdit.move(pos),
+  onContourRelease: (pos, moved) => {
+    const wasDrawing = page.contourEdit.drawing;
+    page.contourEdit.release(pos, moved);
+    if (!moved && !wasDrawing) { const i = markerAt(plot, pos); if (i >= 0) pipeline.pick(i); }
+  },
+  onContourHover: (pos) => page.contourEdit && page.contourEdit.hover(pos),
+  onDoubleClick: (pos) => Boolean(page.contourEdit && page.contourEdit.doubleClick(pos)),
+  onKey: (event) => Boolean(page.contourEdit && page.contourEdit.key(event)),
   onStatus: (what) => {
     ui.plotStatus.textContent = what === 'drawing' ? 'Drawing…' : what === 'error' ? 'Plot failed (see the message on the plot).' : '';
     ui.canvas.dataset.status = what;
@@ -90,11 +106,58 @@ const plot = createPlot(ui.canvas, {
 });
 page.plot = plot;
 const readoutAt = createReadout(page);
-const region = createRegionEditor(page, () => { pipeline.regionMoved(); plot.draw(); persist(); pipeline.autoSearchSoon(); });
-const pipeline = createPipeline(page, { contour: () => region.contour(), describePlot: () => { describePlot(); poleDrag.prepare(); },
-  searched: (serial) => laurent.afterSearch(serial), stale: () => laurent.stale() });
+const region = createRegionEditor(page, (how) => {
+  pipeline.regionMoved(); plot.draw(); persist();
+  if (how && how.now && state.autoFind && page.exprOk) pipeline.find(); else pipeline.autoSearchSoon();
+});
+const pipeline = createPipeline(page, {
+  contour: () => region.contour(), sign: () => region.sign(), tableFilled: () => showWindingColumn(),
+  describePlot: () => { describePlot(); poleDrag.prepare(); },
+  searched: (serial) => laurent.afterSearch(serial), stale: () => laurent.stale(),
+});
 const laurent = attachLaurentPanel(page, { persist: () => persist() });
 page.laurent = laurent;
+
+// ---- the contour on the plot: drawn, dragged, its integral live ------------------------------
+
+page.regionEditor = region;
+/** The winding column of the singularities table, for the contour as it stands (the searched
+ *  contour when the region is the view: a nudge may have moved it). */
+function showWindingColumn() {
+  const items = page.found.items || [];
+  const contour = state.region.mode === 'view' && page.found.contour ? page.found.contour : region.contour();
+  showWindings(ui.tbody, windings(items, contour, region.sign()));
+}
+const contourLive = createContourLive(page, { contour: () => region.contour() });
+/** A drag let go or an edit made: the full search (or, with automatic search off, the stale label). */
+function contourCommitted() {
+  contourLive.stop();
+  persist();
+  pipeline.regionMoved();
+  if (state.autoFind && page.exprOk) pipeline.find();
+  else if (ui.ci.box.dataset.state === 'live') contourStatus(ui.ci, 'The contour moved: the values below may be for a step of the drag; search again to update them.', 'stale');
+}
+page.contourEdit = createContourEditor(page, {
+  live: () => {
+    persist();
+    // a search still running would hold the worker: drop it silently, it runs again on release
+    if (!ui.cancel.disabled) {
+      page.searchSerial++;
+      ui.cancel.disabled = true;
+      ui.find.disabled = false;
+      ui.findStatus.className = 'find-status';
+      ui.findStatus.textContent = 'The contour is moving: the search runs once you let go.';
+      cancelHeavy();
+    }
+    if (page.exprOk && Engine.ready) contourLive.change();
+  },
+  released: contourCommitted,
+  changed: contourCommitted,
+});
+page.contourEdit.refresh = showWindingColumn;
+plot.contourEdit = page.contourEdit;
+$('poly-draw').addEventListener('click', () => page.contourEdit.startDrawing());
+region.fill();
 attachInverseSection(page);
 attachTransferSection(page);
 // The real-integral block (real-integral.js): recomputed when open and f or its fields change.
@@ -394,6 +457,12 @@ installScripting(page, {
   checkNow: () => { afterTyping.cancel(); return checkTyped(); },
   fit: fitToPoints,
   contour: () => region.contour(),
+  windings: () => {
+    const items = page.found.items || [];
+    const contour = state.region.mode === 'view' && page.found.contour ? page.found.contour : region.contour();
+    const w = windings(items, contour, region.sign());
+    return items.map((it, i) => ({ at: it.at.slice(), kind: it.kind, winding: w[i] }));
+  },
   pipeline,
   trails: () => trails.refresh(),
   integral: realIntegral,

@@ -16,6 +16,7 @@ import { requestContourIntegral, requestArgumentCount, showContourIntegral, show
 import { inverseStatus, prepareInverse, runInverse, stopInverse } from './inverse.js';
 import { prepareTransfer, runTransfer, stopTransfer, transferOpen } from './transfer.js';
 import { rationalAnalysis, nudgeOffEdges, nudgeNote } from './fit.js';
+import { contourSize } from './contour-geom.js';
 
 /** The pipeline over `page` (state, ui, plot, exprOk, found, searchSerial, readingOpenNext; see
  *  main.js). Hooks: contour() (the region's contour now), describePlot() (after the markers change),
@@ -81,7 +82,7 @@ export function createPipeline(page, hooks) {
     if (problem) { ui.findStatus.textContent = 'Region: ' + problem + '.'; return { status: 'failed', error: { code: 'invalid_field', message: 'region: ' + problem } }; }
     const serial = ++page.searchSerial;
     const base = functionInput(state);
-    page.results = { serial, base, contour };
+    page.results = { serial, base, contour, sign: hooks.sign ? hooks.sign() : 1 };
     ui.regionNote.textContent = '';
     ui.find.disabled = true;
     ui.cancel.disabled = false;
@@ -115,8 +116,7 @@ export function createPipeline(page, hooks) {
       return { status: 'failed', error: { code: err.code, message: err.message } };
     }
     ui.singTable.classList.remove('stale');
-    const size = contour.shape === 'circle' ? contour.radius
-      : Math.max(Math.abs(contour.corners[1][0] - contour.corners[0][0]), Math.abs(contour.corners[1][1] - contour.corners[0][1]));
+    const size = contour.shape === 'circle' ? contour.radius : contourSize(contour);
     const found = { items: itemsOf(resp, 1e-12 * size), base, contour };
     page.found = found;
     const n = found.items.length;
@@ -124,6 +124,7 @@ export function createPipeline(page, hooks) {
       (resp.method === 'rational' ? ' (f is rational: exact analysis)' : resp.method === 'numerical' ? ' (numerical search)' : '') +
       '. Choose a row or marker for its principal part.' : 'Search finished: nothing in the region.';
     fillTable(ui.tbody, found.items, pick);
+    if (hooks.tableFilled) hooks.tableFilled();
     plot().markers = found.items;
     plot().selected = -1;
     plot().draw();
@@ -153,7 +154,7 @@ export function createPipeline(page, hooks) {
     const ci = await requestContourIntegral(base, contour);
     if (serial !== page.searchSerial) return superseded;
     page.results.contour_integral = ci;
-    showContourIntegral(ui.ci, base.var, contour, state.region.mode === 'view', ci);
+    showContourIntegral(ui.ci, base.var, contour, state.region.mode === 'view', ci, hooks.sign ? hooks.sign() : 1);
     const count = await requestArgumentCount(base, contour);
     if (serial !== page.searchSerial) return superseded;
     page.results.argument_count = count;
@@ -213,7 +214,7 @@ export function createPipeline(page, hooks) {
     plot().draw();
     highlightRow(ui.tbody, index);
     const c = found.contour;
-    const size = c.shape === 'circle' ? c.radius : Math.max(Math.abs(c.corners[1][0] - c.corners[0][0]), Math.abs(c.corners[1][1] - c.corners[0][1])) / 2;
+    const size = c.shape === 'circle' ? c.radius : contourSize(c) / 2;
     const annulus = laurentRadius(item, found.items, Math.max(size / 2, 1e-6));
     ui.detail.box.hidden = false;
     ui.detail.note.textContent = 'Computing the Laurent series…';

@@ -29,7 +29,8 @@ function paramRows(params) {
   });
 }
 
-/** A contract contour (or "view") as the page's region, merged into `region`. */
+/** A contract contour (or "view") as the page's region, merged into `region`: rectangle, circle,
+ *  ellipse ({center, semi_axes, angle}) and polygon ({vertices}, whose order is its direction). */
 function regionFrom(value, region) {
   if (value === 'view') return Object.assign({}, region, { mode: 'view' });
   if (value && value.shape === 'rectangle' && Array.isArray(value.corners) && value.corners.length === 2 && value.corners.every(isPair)) {
@@ -39,10 +40,25 @@ function regionFrom(value, region) {
   if (value && value.shape === 'circle' && isPair(value.center) && isNum(value.radius)) {
     return Object.assign({}, region, { mode: 'circle', circle: [value.center[0], value.center[1], value.radius] });
   }
-  throw scriptError('bad_request', 'region must be "view", {"shape": "rectangle", "corners": [[x0, y0], [x1, y1]]} or {"shape": "circle", "center": [x, y], "radius": r}');
+  if (value && value.shape === 'ellipse' && isPair(value.center) && isPair(value.semi_axes) && (value.angle === undefined || isNum(value.angle))) {
+    return Object.assign({}, region, { mode: 'ellipse', ellipse: [value.center[0], value.center[1], value.semi_axes[0], value.semi_axes[1], value.angle || 0] });
+  }
+  if (value && value.shape === 'polygon' && Array.isArray(value.vertices) && value.vertices.length >= 3 && value.vertices.every(isPair)) {
+    return Object.assign({}, region, { mode: 'polygon', polygon: value.vertices.map((p) => p.slice()) });
+  }
+  if (value && value.shape === 'half_disc' && isPair(value.center) && isNum(value.radius) && ['upper', 'lower', 'left', 'right'].includes(value.direction)) {
+    return Object.assign({}, region, { mode: 'half_disc', half_disc: [value.center[0], value.center[1], value.radius, value.direction] });
+  }
+  if (value && value.shape === 'keyhole' && isPair(value.center) && isNum(value.inner) && isNum(value.outer) &&
+    (value.angle === undefined || isNum(value.angle)) && (value.gap === undefined || isNum(value.gap))) {
+    return Object.assign({}, region, { mode: 'keyhole', keyhole: [value.center[0], value.center[1], value.inner, value.outer, value.angle || 0, value.gap === undefined ? null : value.gap] });
+  }
+  throw scriptError('bad_request', 'region must be "view", {"shape": "rectangle", "corners": [[x0, y0], [x1, y1]]}, {"shape": "circle", "center": [x, y], "radius": r}, ' +
+    '{"shape": "ellipse", "center": [x, y], "semi_axes": [a, b], "angle": t}, {"shape": "polygon", "vertices": [[x, y], …]}, ' +
+    '{"shape": "half_disc", "center": [x, y], "radius": r, "direction": "upper" | "lower" | "left" | "right"} or {"shape": "keyhole", "center": [x, y], "inner": r1, "outer": r2, "angle": t, "gap": g}');
 }
 
-const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',
+const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 'reversed', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',
   'hz', 'sample_period', 'point', 'trails', 'domain', 'mode', 'kind', 'omega', 'alpha', 'laurent', 'image_point'];
 
 /** The Laurent section's choice (contract names: center, inner, outer, from, to) checked, or null. */
@@ -97,6 +113,10 @@ function nextPageState(current, partial) {
   }
   const region = 'region' in partial ? partial.region : partial.contour;
   if (region !== undefined) next.region = regionFrom(region, next.region);
+  if ('reversed' in partial) {
+    if (typeof partial.reversed !== 'boolean') throw scriptError('bad_request', 'reversed must be true or false');
+    next.region.reversed = partial.reversed;
+  }
   for (const k of ['modulus', 'phase', 'infinity', 'autoFind']) {
     if (k in partial) { if (typeof partial[k] !== 'boolean') throw scriptError('bad_request', `${k} must be true or false`); next[k] = partial[k]; }
   }
@@ -183,10 +203,9 @@ export function installScripting(page, hooks) {
       var: v,
       params: paramsForRequest(state.params).params,
       view: state.view.slice(),
-      region: r.mode === 'view' ? 'view'
-        : r.mode === 'rect' ? { shape: 'rectangle', corners: [[r.rect[0], r.rect[2]], [r.rect[1], r.rect[3]]] }
-          : { shape: 'circle', center: [r.circle[0], r.circle[1]], radius: r.circle[2] },
+      region: r.mode === 'view' ? 'view' : hooks.contour(),
       contour: hooks.contour(),
+      reversed: Boolean(r.reversed) && r.mode !== 'polygon',
       panels: { inverse: !ui.inv.box.hidden && ui.inv.box.open, transfer: transferOpen(page), integral: hooks.integral.open(), laurent: page.laurent.isOpen(), image: hooks.imageCurve.open() },
       kind: state.integral.kind, omega: state.integral.omega, alpha: state.integral.alpha,
       laurent: state.laurent ? JSON.parse(JSON.stringify(state.laurent)) : null,
@@ -214,7 +233,7 @@ export function installScripting(page, hooks) {
   }
 
   function currentResults() {
-    const res = page.results;
+    const res = page.results || (page.liveContour ? {} : null);
     if (!res) {
       const out = addIntegral({});
       const image = hooks.imageCurve.result();
@@ -226,9 +245,21 @@ export function installScripting(page, hooks) {
     const out = {};
     if (res.singularities) {
       out.singularities = entry(res.singularities, { region: res.contour, nudge: res.nudge || null });
+      // the table's winding column: each point shown and how often the page's contour winds round it
+      if (hooks.windings) out.singularities.windings = hooks.windings();
     }
-    if (res.contour_integral) out.contour_integral = entry(res.contour_integral, { contour: res.contour });
+    // orientation −1: the page takes the contour clockwise (reversed) and the integral along it is −1 × value
+    if (res.contour_integral) out.contour_integral = entry(res.contour_integral, { contour: res.contour, orientation: res.sign || 1 });
     if (res.argument_count) out.argument_count = entry(res.argument_count, { contour: res.contour });
+    // while a contour is being dragged: the last live answers, for the contour they were computed on
+    const lc = page.liveContour;
+    if (lc && lc.contour_integral) {
+      out.contour_live = {
+        contour: JSON.parse(JSON.stringify(lc.contour)), orientation: lc.sign,
+        contour_integral: JSON.parse(JSON.stringify(lc.contour_integral)),
+        argument_count: lc.argument_count ? JSON.parse(JSON.stringify(lc.argument_count)) : null,
+      };
+    }
     if (res.inverse && res.inverseRequest && !ui.inv.box.hidden && ui.inv.box.open) {
       const key = res.inverseRequest.task;
       out[key] = entry(res.inverse, key === 'inverse_laplace' ? { t: res.inverseRequest.t } : { n: res.inverseRequest.n });

@@ -9,6 +9,7 @@ import { mathEl, mathMagnitude, mathCoefficient } from './mathml.js';
 import { runHeavy, responseError } from './engine.js';
 import { KIND_WORDS, markerIcon } from './markers.js';
 import { regionWords } from './region.js';
+import { windingNumber } from './contour-geom.js';
 
 
 /** Flatten a singularities response into one list of points. `floor` is the size below which a
@@ -32,6 +33,11 @@ export function itemsOf(resp, floor = 0) {
 /** Does the region hold the closed unit disc? */
 function coversUnitDisc(contour) {
   if (contour.shape === 'circle') return cAbs(contour.center) + 1 < contour.radius;
+  if (contour.shape !== 'rectangle') {
+    // every point of a circle just outside the unit circle is inside the contour (and it holds 0)
+    return windingNumber(contour, [0, 0]) !== 0 &&
+      Array.from({ length: 64 }, (_, k) => [1.0001 * Math.cos(k * Math.PI / 32), 1.0001 * Math.sin(k * Math.PI / 32)]).every((p) => windingNumber(contour, p));
+  }
   const [[a, b], [c, d]] = contour.corners;
   return Math.min(a, c) < -1 && Math.max(a, c) > 1 && Math.min(b, d) < -1 && Math.max(b, d) > 1;
 }
@@ -112,7 +118,7 @@ function complexCell(z, floor = 0) {
 export function fillTable(tbody, items, onPick) {
   tbody.textContent = '';
   if (items.length === 0) {
-    tbody.append(el('tr', { class: 'empty' }, el('td', { colspan: 5, text: 'No poles, zeros or other special points were found in the region.' })));
+    tbody.append(el('tr', { class: 'empty' }, el('td', { colspan: 6, text: 'No poles, zeros or other special points were found in the region.' })));
     return;
   }
   items.forEach((it, i) => {
@@ -122,11 +128,24 @@ export function fillTable(tbody, items, onPick) {
       el('td', { class: 'kind' }, markerIcon(it.kind), ' ' + KIND_WORDS[it.kind]),
       el('td', { class: 'num', text: it.order === undefined || it.order === null ? '—' : String(it.order) }),
       complexCell(it.residue),
-      el('td', { class: 'num', text: Number.isFinite(it.error) ? fmtReal(it.error, 2) : '—' }));
+      el('td', { class: 'num', text: Number.isFinite(it.error) ? fmtReal(it.error, 2) : '—' }),
+      el('td', { class: 'num winding', text: '—' }));
     tr.addEventListener('click', () => onPick(i));
     tr.addEventListener('keydown', (e) => { if (e.key === 'Enter' || e.key === ' ') { e.preventDefault(); onPick(i); } });
     tbody.append(tr);
   });
+}
+
+/** The winding-number column: `w[i]` for row i (an integer, or null: on the contour). */
+export function showWindings(tbody, w) {
+  for (const tr of tbody.querySelectorAll('tr[data-index]')) {
+    const cell = tr.querySelector('td.winding');
+    const k = w[Number(tr.dataset.index)];
+    if (!cell) continue;
+    cell.textContent = k === null || k === undefined ? (k === null ? 'on it' : '—') : String(k).replace('-', '−');
+    cell.title = k === null ? 'The point lies on the contour' : '';
+    tr.dataset.winding = k === null || k === undefined ? '' : String(k);
+  }
 }
 
 /** Mark the chosen row. */

@@ -26,7 +26,14 @@ export function defaultState() {
     infinity: false,
     wheel: 'oklch',
     symbols: 'own',
-    region: { mode: 'view', rect: [-3, 3, -3, 3], circle: [0, 0, 2] },
+    // the region: its mode (view, rect, circle, ellipse, polygon), each shape's numbers (ellipse:
+    // [cx, cy, a, b, angle in radians]; polygon: its vertices in order) and reversed (a circle,
+    // ellipse or rectangle taken clockwise: the page negates the core's counter-clockwise integral)
+    region: { mode: 'view', rect: [-3, 3, -3, 3], circle: [0, 0, 2], ellipse: [0, 0, 2, 1, 0],
+      polygon: [[0, 2], [-1.9, 0.62], [-1.18, -1.62], [1.18, -1.62], [1.9, 0.62]],
+      half_disc: [0, 0, 2, 'upper'],          // [cx, cy, radius, side]
+      keyhole: [0, 0, 0.1, 2, 0, null],      // [cx, cy, inner, outer, slit angle in radians, gap (null: the contract's default)]
+      reversed: false },
     autoFind: true,
     hz: false,           // the transfer section's frequency unit: Hz (true) or rad/s
     sample_period: 1,    // its sampling period T (z)
@@ -77,7 +84,15 @@ export function sanitize(raw) {
   }
   const r = raw.region;
   if (r && typeof r === 'object') {
-    if (['view', 'rect', 'circle'].includes(r.mode)) s.region.mode = r.mode;
+    if (['view', 'rect', 'circle', 'ellipse', 'polygon', 'half_disc', 'keyhole'].includes(r.mode)) s.region.mode = r.mode;
+    const h = r.half_disc;
+    if (Array.isArray(h) && h.length === 4 && h.slice(0, 3).every(Number.isFinite) && ['upper', 'lower', 'left', 'right'].includes(h[3])) s.region.half_disc = h.slice();
+    const k = r.keyhole;
+    if (Array.isArray(k) && k.length === 6 && k.slice(0, 5).every(Number.isFinite) && (k[5] === null || Number.isFinite(k[5]))) s.region.keyhole = k.slice();
+    if (Array.isArray(r.ellipse) && r.ellipse.length === 5 && r.ellipse.every(Number.isFinite)) s.region.ellipse = r.ellipse;
+    if (Array.isArray(r.polygon) && r.polygon.length >= 3 && r.polygon.length <= 200 &&
+      r.polygon.every((p) => Array.isArray(p) && p.length === 2 && p.every(Number.isFinite))) s.region.polygon = r.polygon.map((p) => p.slice());
+    if (typeof r.reversed === 'boolean') s.region.reversed = r.reversed;
     if (num4(r.rect)) s.region.rect = r.rect;
     if (Array.isArray(r.circle) && r.circle.length === 3 && r.circle.every(Number.isFinite)) s.region.circle = r.circle;
   }

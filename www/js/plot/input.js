@@ -1,7 +1,8 @@
 // Pointer, wheel and keyboard input on the plot: drag to pan, pinch or wheel to
 // zoom about the pointer, arrow keys and + − 0 from the keyboard; a click that
 // did not move picks the nearest marker; the pointer's plane point goes to the readout.
-// A marker the page lets move (hooks.onMarkerDragStart) is dragged instead of the view.
+// A marker the page lets move (hooks.onMarkerDragStart) is dragged instead of the view; then a
+// press on the contour's handle or outline (hooks.onContourPress) edits the contour, never pans.
 import { insidePlot, toPlane } from './view.js';
 import { markerAt, markerScreenPoint } from './overlays.js';
 
@@ -9,12 +10,18 @@ import { markerAt, markerScreenPoint } from './overlays.js';
  *  `hooks.onMarkerClick(index)`; optional `hooks.onMarkerDragStart(index)` (true: move it),
  *  `hooks.onMarkerDrag(planePoint)`, `hooks.onMarkerDragEnd(moved)`, `hooks.onUndo()` (Ctrl+Z),
  *  `hooks.onMarkerNudge(index, [dx, dy])` (Alt + arrows on the selected marker; true: it moves) and
- *  `hooks.onMarkerNudgeEnd()` (Alt let go, or the plot loses focus). Zooming goes through plot.zoom and plot.reset. */
+ *  `hooks.onMarkerNudgeEnd()` (Alt let go, or the plot loses focus).
+ *  optional contour
+ *  editing (contour-edit.js): `hooks.contourDrawing()` (a polygon is being drawn: every press is the
+ *  editor's), `hooks.onContourPress(pos)` (true: the editor takes the press), `hooks.onContourMove(pos)`,
+ *  `hooks.onContourRelease(pos, moved)`, `hooks.onContourHover(pos | null)`, `hooks.onDoubleClick(pos)`,
+ *  `hooks.onKey(event)` (true: handled). Zooming goes through plot.zoom and plot.reset. */
 export function attachInput(plot, viewChanged, hooks) {
   const canvas = plot.canvas;
   const pointers = new Map();
   let dragStart = null, pinchStart = null, moved = false;
   let markerDrag = null; // a marker being moved (hooks.onMarkerDragStart said yes): no panning
+  let contourPress = null; // a press the contour editor took: {id, pos, moved}: no panning
 
   function localPos(event) {
     const r = canvas.getBoundingClientRect();
@@ -26,6 +33,11 @@ export function attachInput(plot, viewChanged, hooks) {
     if (!insidePlot(plot, pos) && pointers.size === 0) return;
     canvas.setPointerCapture(event.pointerId);
     moved = false;
+    if (pointers.size === 0 && !markerDrag && !contourPress && hooks.contourDrawing && hooks.contourDrawing()) {
+      contourPress = { id: event.pointerId, pos, moved: false };
+      hooks.onContourPress(pos);
+      return;
+    }
     if (pointers.size === 0 && hooks.onMarkerDragStart) {
       const index = markerAt(plot, pos);
       if (index >= 0 && hooks.onMarkerDragStart(index)) {
@@ -35,7 +47,11 @@ export function attachInput(plot, viewChanged, hooks) {
         return;
       }
     }
-    if (markerDrag) return;
+    if (markerDrag || contourPress) return;
+    if (pointers.size === 0 && hooks.onContourPress && hooks.onContourPress(pos)) {
+      contourPress = { id: event.pointerId, pos, moved: false };
+      return;
+    }
     pointers.set(event.pointerId, pos);
     if (pointers.size === 1) dragStart = { pos, cx: plot.cx, cy: plot.cy };
     if (pointers.size === 2) {
@@ -49,6 +65,15 @@ export function attachInput(plot, viewChanged, hooks) {
     if (markerDrag && markerDrag.id === event.pointerId) {
       if (Math.abs(pos[0] - markerDrag.pos[0]) + Math.abs(pos[1] - markerDrag.pos[1]) > 2) markerDrag.moved = true;
       if (markerDrag.moved) hooks.onMarkerDrag(toPlane(plot, pos[0] + markerDrag.offset[0], pos[1] + markerDrag.offset[1]));
+    } else if (contourPress && contourPress.id === event.pointerId) {
+      if (Math.abs(pos[0] - contourPress.pos[0]) + Math.abs(pos[1] - contourPress.pos[1]) > 2) contourPress.moved = true;
+      if (contourPress.moved || (hooks.contourDrawing && hooks.contourDrawing())) hooks.onContourMove(pos);
+    } else if (!contourPress && pointers.size === 0 && !markerDrag) {
+      if (hooks.contourDrawing && hooks.contourDrawing()) hooks.onContourMove(pos);
+      else if (hooks.onContourHover) hooks.onContourHover(insidePlot(plot, pos) ? pos : null);
+    }
+    if (markerDrag || contourPress) {
+      // nothing more: the view stays
     } else if (pointers.has(event.pointerId)) {
       pointers.set(event.pointerId, pos);
       if (pointers.size === 2 && pinchStart) {
@@ -73,6 +98,12 @@ export function attachInput(plot, viewChanged, hooks) {
   });
 
   function endPointer(event) {
+    if (contourPress && contourPress.id === event.pointerId) {
+      const c = contourPress;
+      contourPress = null;
+      hooks.onContourRelease(localPos(event), c.moved || event.type !== 'pointerup');
+      return;
+    }
     if (markerDrag && markerDrag.id === event.pointerId) {
       const d = markerDrag;
       markerDrag = null;
@@ -109,8 +140,14 @@ export function attachInput(plot, viewChanged, hooks) {
     plot.zoom(Math.pow(1.0015, dy), pos);
   }, { passive: false });
 
+  canvas.addEventListener('dblclick', (event) => {
+    const pos = localPos(event);
+    if (insidePlot(plot, pos) && hooks.onDoubleClick && hooks.onDoubleClick(pos)) event.preventDefault();
+  });
+
   canvas.addEventListener('keydown', (event) => {
     const k = event.key;
+    if (hooks.onKey && hooks.onKey(event)) { event.preventDefault(); return; }
     if ((event.ctrlKey || event.metaKey) && (k === 'z' || k === 'Z') && hooks.onUndo) {
       if (hooks.onUndo()) event.preventDefault();
       return;

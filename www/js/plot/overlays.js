@@ -1,8 +1,9 @@
 // What the plot draws over the picture: the unit circle of the z-plane, the
-// region's outline with its direction, the singularity markers, and a message.
+// region's outline with its direction and the contour editor's handles, the singularity markers, and a message.
 import { cInv } from '../complex.js';
 import { drawMarker } from '../markers.js';
 import { MARGIN, toScreen } from './view.js';
+import { contourPath } from '../contour-geom.js';
 
 /** A faint dotted unit circle in the z-plane (where |z| = 1 matters for discrete time). */
 export function drawUnitCircle(plot) {
@@ -20,51 +21,56 @@ export function drawUnitCircle(plot) {
 }
 
 /** The region's boundary: the contour of the contour integral, a thin outline with small
- *  arrowheads showing its counter-clockwise direction (dark with a light edge, so it reads on any colour). */
+ *  arrowheads showing its direction (dark with a light edge, so it reads on any colour): the
+ *  core's direction (contourPath) times plot.regionDirection's sign for shapes other than a polygon
+ *  (whose vertex order is its direction). Then the contour editor's handles (plot.contourEdit). */
 export function drawRegion(plot) {
   const r = plot.region;
-  if (!r || plot.infinityMode) return;
-  const ctx = plot.ctx;
-  const arrows = []; // [x, y, dx, dy] on the screen: a point on the outline and the direction of travel
-  ctx.save();
-  ctx.beginPath();
-  if (r.shape === 'rectangle') {
-    const [[ax, ay], [bx, by]] = r.corners;
-    const [sx0, sy0] = toScreen(plot, Math.min(ax, bx), Math.max(ay, by)); // top left
-    const [sx1, sy1] = toScreen(plot, Math.max(ax, bx), Math.min(ay, by)); // bottom right
-    ctx.rect(sx0, sy0, sx1 - sx0, sy1 - sy0);
-    const mx = (sx0 + sx1) / 2, my = (sy0 + sy1) / 2;
-    // Counter-clockwise in the plane: along the bottom to the right, up the right side, ...
-    arrows.push([mx, sy1, 1, 0], [sx1, my, 0, -1], [mx, sy0, -1, 0], [sx0, my, 0, 1]);
-  } else if (r.shape === 'circle') {
-    const [sx, sy] = toScreen(plot, r.center[0], r.center[1]);
-    const rad = r.radius / plot.scale;
-    ctx.arc(sx, sy, rad, 0, 2 * Math.PI);
-    for (const t of [Math.PI / 4, (3 * Math.PI) / 4, (5 * Math.PI) / 4, (7 * Math.PI) / 4]) {
-      // the point at angle t in the plane, and the tangent (−sin t, cos t), with y flipped
-      arrows.push([sx + rad * Math.cos(t), sy - rad * Math.sin(t), -Math.sin(t), -Math.cos(t)]);
-    }
-  }
-  ctx.lineWidth = 3;
-  ctx.strokeStyle = 'rgba(255,255,255,0.75)';
-  ctx.stroke();
-  ctx.lineWidth = 1.25;
-  ctx.strokeStyle = 'rgba(15,15,15,0.9)';
-  ctx.stroke();
-  const size = 6;
-  for (const [x, y, dx, dy] of arrows) {
+  if (plot.infinityMode) return;
+  if (r) {
+    const ctx = plot.ctx;
+    let path = contourPath(r, 128).map(([x, y]) => toScreen(plot, x, y));
+    const reversed = r.shape !== 'polygon' && plot.regionDirection < 0;
+    if (reversed) path = path.reverse();
+    const n = path.length;
+    ctx.save();
     ctx.beginPath();
-    ctx.moveTo(x + dx * size, y + dy * size);
-    ctx.lineTo(x - dx * size - dy * size * 0.75, y - dy * size + dx * size * 0.75);
-    ctx.lineTo(x - dx * size + dy * size * 0.75, y - dy * size - dx * size * 0.75);
+    path.forEach(([x, y], i) => (i ? ctx.lineTo(x, y) : ctx.moveTo(x, y)));
     ctx.closePath();
-    ctx.fillStyle = 'rgba(15,15,15,0.9)';
-    ctx.lineWidth = 1.5;
-    ctx.strokeStyle = 'rgba(255,255,255,0.85)';
+    ctx.lineWidth = 3;
+    ctx.strokeStyle = 'rgba(255,255,255,0.75)';
     ctx.stroke();
-    ctx.fill();
+    ctx.lineWidth = 1.25;
+    ctx.strokeStyle = 'rgba(15,15,15,0.9)';
+    ctx.stroke();
+    // arrowheads: at the middle of each side of a rectangle or polygon, at four points of a circle or ellipse
+    const at = r.shape === 'circle' || r.shape === 'ellipse'
+      ? [0.125, 0.375, 0.625, 0.875].map((u) => [Math.floor(u * n), 0.5])
+      : r.shape === 'half_disc' || r.shape === 'keyhole'
+        ? (r.shape === 'half_disc' ? [0.05, 0.15, 0.4, 0.6, 0.8] : [0.035, 0.25, 0.5, 0.675, 0.85]).map((u) => [Math.floor(u * n), 0.5])
+      : path.map((_, k) => [k, 0.5]);
+    const size = 6;
+    for (const [k, u] of at) {
+      const a = path[k], b = path[(k + 1) % n];
+      let dx = b[0] - a[0], dy = b[1] - a[1];
+      const len = Math.hypot(dx, dy);
+      if (!(len > 0)) continue;
+      dx /= len; dy /= len;
+      const x = a[0] + u * (b[0] - a[0]), y = a[1] + u * (b[1] - a[1]);
+      ctx.beginPath();
+      ctx.moveTo(x + dx * size, y + dy * size);
+      ctx.lineTo(x - dx * size - dy * size * 0.75, y - dy * size + dx * size * 0.75);
+      ctx.lineTo(x - dx * size + dy * size * 0.75, y - dy * size - dx * size * 0.75);
+      ctx.closePath();
+      ctx.fillStyle = 'rgba(15,15,15,0.9)';
+      ctx.lineWidth = 1.5;
+      ctx.strokeStyle = 'rgba(255,255,255,0.85)';
+      ctx.stroke();
+      ctx.fill();
+    }
+    ctx.restore();
   }
-  ctx.restore();
+  if (plot.contourEdit) plot.contourEdit.drawOverlay(plot.ctx);
 }
 
 /** Where marker `m` sits on the canvas, or null (the origin has no image in the view around infinity). */
