@@ -143,17 +143,31 @@ export function installScripting(page, hooks) {
     return out;
   }
 
+  /** The function input a result was computed for, in the contract's shape. */
+  const forWhat = (base) => (base ? JSON.parse(JSON.stringify({ f: base.f, var: base.var, params: base.params || {} })) : null);
+
   function currentResults() {
     const res = page.results;
     if (!res) return {};
     const stale = ui.singTable.classList.contains('stale') || res.serial !== page.searchSerial;
     const entry = (resp, extra = {}) => (resp ? Object.assign({}, JSON.parse(JSON.stringify(resp)), { stale }, extra) : undefined);
     const out = {};
-    if (res.singularities) {
-      out.singularities = entry(res.singularities, { region: res.contour, nudge: res.nudge || null });
+    // The table shown: this run's search, or, while it runs or after it failed or was stopped,
+    // the last search that finished (dimmed and inert on the page), stale and naming its f.
+    const good = page.lastGood;
+    const searchFailed = !res.singularities || responseError(res.singularities);
+    if (searchFailed && good && good !== res && good.singularities) {
+      out.singularities = Object.assign({}, JSON.parse(JSON.stringify(good.singularities)), { stale: true, region: good.contour, nudge: good.nudge || null,
+        computed_for: forWhat(good.base), search_error: res.singularities ? responseError(res.singularities) : null });
+    } else if (res.singularities) {
+      out.singularities = entry(res.singularities, { region: res.contour, nudge: res.nudge || null, computed_for: forWhat(res.base) });
     }
-    if (res.contour_integral) out.contour_integral = entry(res.contour_integral, { contour: res.contour });
-    if (res.argument_count) out.argument_count = entry(res.argument_count, { contour: res.contour });
+    for (const key of ['contour_integral', 'argument_count']) {
+      if (res[key]) out[key] = entry(res[key], { contour: res.contour, computed_for: forWhat(res.base) });
+      else if (searchFailed && good && good !== res && good[key]) {
+        out[key] = Object.assign({}, JSON.parse(JSON.stringify(good[key])), { stale: true, contour: good.contour, computed_for: forWhat(good.base) });
+      }
+    }
     if (res.inverse && res.inverseRequest && !ui.inv.box.hidden && ui.inv.box.open) {
       const key = res.inverseRequest.task;
       out[key] = entry(res.inverse, key === 'inverse_laplace' ? { t: res.inverseRequest.t } : { n: res.inverseRequest.n });
