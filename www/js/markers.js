@@ -45,9 +45,6 @@ export function markerPath(ctx, kind, x, y) {
 }
 
 /** A marker on the plot canvas at (x, y) in CSS pixels; the chosen one gets a ring. */
-/** Which symbols markers are drawn with now (a key for layers drawn earlier). */
-export function markerSymbolsKey() { return symbols; }
-
 export function drawMarker(ctx, kind, x, y, selected) {
   ctx.save();
   ctx.lineWidth = 2;

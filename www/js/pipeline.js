@@ -22,7 +22,7 @@ import { isFinitePair } from './complex.js';
 
 /** Seconds as shown by the progress line: one decimal. */
 function secondsText(ms) {
-  return fmtReal(Math.max(0, ms) / 1000, 2).replace(/^(\d+)$/, '$1.0') + ' s';
+  return (Math.max(0, ms) / 1000).toFixed(1) + ' s';
 }
 
 /** The pipeline over `page` (state, ui, plot, exprOk, found, searchSerial, readingOpenNext; see
@@ -224,7 +224,7 @@ export function createPipeline(page, hooks) {
     ui.findStatus.textContent = n ? `Found ${n} point${n === 1 ? '' : 's'} in the region` +
       (resp.method === 'rational' ? ' (f is rational: partial fractions, poles as polynomial roots)' : resp.method === 'numerical' ? ' (numerical search)' : '') +
       '. Choose a row or marker for its principal part.' : 'Search finished: nothing in the region.';
-    fillTable(ui.tbody, found.items, pick);
+    await fillTable(ui.tbody, found.items, pick);
     if (await breathe()) return superseded;
     plot().markers = found.items;
     plot().selected = -1;

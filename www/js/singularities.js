@@ -113,6 +113,8 @@ function complexCell(z, floor = 0) {
 /** Rows the table shows at a time: a page of this many rows is built in well under 50 ms, so a
  *  search with thousands of points never stalls the page (the markers show them all). */
 export const TABLE_PAGE = 100;
+/** Rows put in per task while a page is built. */
+const ROW_CHUNK = 20;
 
 /** One row of the table for item `it` at index `i`. */
 function tableRow(it, i, onPick) {
@@ -130,34 +132,51 @@ function tableRow(it, i, onPick) {
 
 /** Fill the table body, TABLE_PAGE rows at a time, with Previous / Next below it in `pager`
  *  (an element, or null); `onPick(i)` when a row is chosen. The body keeps its pager as
- *  `tbody.pager` ({page, pages, show(p), showRowOf(i)}). */
+ *  `tbody.pager` ({page, pages, show(p), showRowOf(i)}). Resolves once the first page is in. */
 export function fillTable(tbody, items, onPick, pager = document.getElementById('sing-pager')) {
   tbody.textContent = '';
   if (pager) { pager.textContent = ''; pager.hidden = true; }
   tbody.pager = null;
   if (items.length === 0) {
     tbody.append(el('tr', { class: 'empty' }, el('td', { colspan: 5, text: 'No poles, zeros or other special points were found in the region.' })));
-    return;
+    return Promise.resolve(true);
   }
   const pages = Math.ceil(items.length / TABLE_PAGE);
   const state = { page: 0, pages };
   const label = el('span', { class: 'pager-label', 'aria-live': 'polite' });
   const prev = el('button', { type: 'button', class: 'small', id: 'sing-prev', text: 'Previous rows' });
   const next = el('button', { type: 'button', class: 'small', id: 'sing-next', text: 'Next rows' });
+  let generation = 0;
+  /** Show page `p`; its rows go in ROW_CHUNK at a time, one task each (resolves when all are in). */
   state.show = (p) => {
+    const gen = ++generation;
     state.page = Math.max(0, Math.min(pages - 1, p));
     const from = state.page * TABLE_PAGE, to = Math.min(items.length, from + TABLE_PAGE);
-    const rows = document.createDocumentFragment();
-    for (let i = from; i < to; i++) rows.append(tableRow(items[i], i, onPick));
     tbody.textContent = '';
-    tbody.append(rows);
     label.textContent = `Rows ${from + 1}–${to} of ${items.length}`;
     prev.disabled = state.page === 0;
     next.disabled = state.page === pages - 1;
     if (pager) pager.dataset.page = String(state.page);
+    const put = (a) => {
+      const rows = document.createDocumentFragment();
+      for (let i = a; i < Math.min(to, a + ROW_CHUNK); i++) rows.append(tableRow(items[i], i, onPick));
+      tbody.append(rows);
+    };
+    put(from);
+    if (from + ROW_CHUNK >= to) return Promise.resolve(true);
+    return new Promise((resolve) => {
+      let a = from + ROW_CHUNK;
+      const step = () => {
+        if (gen !== generation) { resolve(false); return; }
+        put(a);
+        a += ROW_CHUNK;
+        if (a < to) setTimeout(step, 0); else resolve(true);
+      };
+      setTimeout(step, 0);
+    });
   };
   /** Show the page holding row `i`. */
-  state.showRowOf = (i) => { const p = Math.floor(i / TABLE_PAGE); if (p !== state.page) state.show(p); };
+  state.showRowOf = (i) => { const p = Math.floor(i / TABLE_PAGE); return p !== state.page ? state.show(p) : Promise.resolve(true); };
   prev.addEventListener('click', () => state.show(state.page - 1));
   next.addEventListener('click', () => state.show(state.page + 1));
   tbody.pager = state;
@@ -165,13 +184,14 @@ export function fillTable(tbody, items, onPick, pager = document.getElementById(
     pager.append(prev, label, next);
     pager.hidden = false;
   }
-  state.show(0);
+  return state.show(0);
 }
 
 /** Mark the chosen row (turning to its page first). */
 export function highlightRow(tbody, index) {
-  if (tbody.pager) tbody.pager.showRowOf(index);
-  for (const tr of tbody.querySelectorAll('tr')) tr.classList.toggle('picked', Number(tr.dataset.index) === index);
+  const mark = () => { for (const tr of tbody.querySelectorAll('tr')) tr.classList.toggle('picked', Number(tr.dataset.index) === index); };
+  if (tbody.pager) tbody.pager.showRowOf(index).then(mark);
+  mark();
 }
 
 /** Radius for the Laurent annulus: half the distance to the nearest other singular point,

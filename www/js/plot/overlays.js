@@ -1,7 +1,7 @@
 // What the plot draws over the picture: the unit circle of the z-plane, the
 // region's outline with its direction, the singularity markers, and a message.
 import { cInv } from '../complex.js';
-import { drawMarker, markerSymbolsKey } from '../markers.js';
+import { drawMarker } from '../markers.js';
 import { MARGIN, toScreen } from './view.js';
 
 /** A faint dotted unit circle in the z-plane (where |z| = 1 matters for discrete time). */
@@ -77,22 +77,28 @@ export function markerScreenPoint(plot, m) {
   return toScreen(plot, p[0], p[1]);
 }
 
-/** Above this many markers, they are drawn once into a layer that later frames reuse (a band
- *  of the picture arriving, a message), so a search with thousands of points never makes a frame
- *  take long; while the view pans the layer is moved, and drawn afresh once the view rests. */
-export const MARKER_LAYER_FROM = 300;
+/** Above this many markers, a marker whose kind was already drawn within the same
+ *  MARKER_CELL-pixel cell is skipped: thousands of poles on a small circle would otherwise be
+ *  drawn on top of each other, one frame taking far over 50 ms; the picture looks the same. */
+export const MARKER_THIN_FROM = 300;
+const MARKER_CELL = 2;
 
-/** Markers drawn into the layer per task while it is built (a task stays well under 50 ms). */
-const LAYER_CHUNK = 250;
-
-function drawMarkerSet(plot, ctx, selected, from = 0, to = plot.markers.length) {
-  for (let i = from; i < to; i++) {
-    const m = plot.markers[i];
+/** Every marker in (or just outside) the view, the chosen one ringed, orders above 1 written beside. */
+export function drawMarkers(plot) {
+  const ctx = plot.ctx;
+  const thin = plot.markers.length >= MARKER_THIN_FROM;
+  const drawn = thin ? new Set() : null;
+  plot.markers.forEach((m, i) => {
     const at = markerScreenPoint(plot, m);
-    if (!at) continue;
+    if (!at) return;
     const [x, y] = at;
-    if (x < MARGIN.left - 10 || x > MARGIN.left + plot.pw + 10 || y < MARGIN.top - 10 || y > MARGIN.top + plot.ph + 10) continue;
-    drawMarker(ctx, m.kind, x, y, i === selected);
+    if (x < MARGIN.left - 10 || x > MARGIN.left + plot.pw + 10 || y < MARGIN.top - 10 || y > MARGIN.top + plot.ph + 10) return;
+    if (thin && i !== plot.selected) {
+      const key = `${m.kind}|${m.order}|${Math.round(x / MARKER_CELL)}|${Math.round(y / MARKER_CELL)}`;
+      if (drawn.has(key)) return;
+      drawn.add(key);
+    }
+    drawMarker(ctx, m.kind, x, y, i === plot.selected);
     if (m.order > 1) {
       ctx.font = 'bold 12px system-ui, sans-serif';
       ctx.lineWidth = 3;
@@ -101,52 +107,7 @@ function drawMarkerSet(plot, ctx, selected, from = 0, to = plot.markers.length) 
       ctx.strokeText(String(m.order), x + 8, y - 7);
       ctx.fillText(String(m.order), x + 8, y - 7);
     }
-  }
-}
-
-/** A new marker layer for the view now, filled LAYER_CHUNK markers per task (the plot is drawn
- *  again after each, so the markers appear in a few quick steps). */
-function buildMarkerLayer(plot, shape, dpr) {
-  const c = document.createElement('canvas');
-  c.width = Math.max(1, Math.round(plot.cssW * dpr));
-  c.height = Math.max(1, Math.round(plot.cssH * dpr));
-  const lctx = c.getContext('2d');
-  lctx.setTransform(dpr, 0, 0, dpr, 0, 0);
-  const layer = { canvas: c, markers: plot.markers, shape, cx: plot.cx, cy: plot.cy, timer: 0, done: 0 };
-  const chunk = () => {
-    if (plot.markerLayer !== layer || plot.markers !== layer.markers) return;
-    const to = Math.min(layer.markers.length, layer.done + LAYER_CHUNK);
-    drawMarkerSet(plot, lctx, -1, layer.done, to);
-    layer.done = to;
-    if (to < layer.markers.length) setTimeout(chunk, 0);
-    plot.draw();
-  };
-  plot.markerLayer = layer;
-  setTimeout(chunk, 0);
-  return layer;
-}
-
-/** Every marker in (or just outside) the view, the chosen one ringed, orders above 1 written beside. */
-export function drawMarkers(plot) {
-  const ctx = plot.ctx;
-  if (plot.markers.length < MARKER_LAYER_FROM) { drawMarkerSet(plot, ctx, plot.selected); return; }
-  const dpr = window.devicePixelRatio || 1;
-  const shape = `${plot.scale}|${plot.cssW}|${plot.cssH}|${dpr}|${plot.infinityMode}|${markerSymbolsKey()}`;
-  let layer = plot.markerLayer;
-  const fresh = layer && layer.markers === plot.markers && layer.shape === shape;
-  if (fresh && layer.cx === plot.cx && layer.cy === plot.cy) {
-    ctx.drawImage(layer.canvas, 0, 0, plot.cssW, plot.cssH);
-  } else if (fresh) {
-    // the view moved at the same scale: shift the layer now, draw it afresh when the view rests
-    ctx.drawImage(layer.canvas, (layer.cx - plot.cx) / plot.scale, (plot.cy - layer.cy) / plot.scale, plot.cssW, plot.cssH);
-    clearTimeout(layer.timer);
-    layer.timer = setTimeout(() => { if (plot.markerLayer === layer) { plot.markerLayer = null; plot.draw(); } }, 150);
-  } else {
-    buildMarkerLayer(plot, shape, dpr);
-  }
-  const m = plot.markers[plot.selected];
-  const at = m ? markerScreenPoint(plot, m) : null;
-  if (at) drawMarker(ctx, m.kind, at[0], at[1], true);
+  });
 }
 
 /** The index of the marker nearest the CSS pixel `pos` within 14 pixels, or −1. */
