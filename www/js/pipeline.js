@@ -196,6 +196,10 @@ export function createPipeline(page, hooks) {
       }
     }
     page.results.singularities = resp;
+    // Large answers are shown in steps, letting the browser breathe between them (no task over 50 ms).
+    const big = (Array.isArray(resp.poles) ? resp.poles.length : 0) + (Array.isArray(resp.zeros) ? resp.zeros.length : 0) > 300;
+    const breathe = async () => { if (big) await yieldToBrowser(); return serial !== page.searchSerial; };
+    if (await breathe()) return superseded;
     ui.findStatus.className = 'find-status';
     const err = responseError(resp);
     if (err) {
@@ -213,9 +217,6 @@ export function createPipeline(page, hooks) {
     page.lastGood = page.results;
     const size = contour.shape === 'circle' ? contour.radius
       : Math.max(Math.abs(contour.corners[1][0] - contour.corners[0][0]), Math.abs(contour.corners[1][1] - contour.corners[0][1]));
-    // Large answers are shown in steps, letting the browser breathe between them (no task over 50 ms).
-    const big = (Array.isArray(resp.poles) ? resp.poles.length : 0) + (Array.isArray(resp.zeros) ? resp.zeros.length : 0) > 300;
-    const breathe = async () => { if (big) await yieldToBrowser(); return serial !== page.searchSerial; };
     const found = { items: itemsOf(resp, 1e-12 * size), base, contour };
     if (await breathe()) return superseded;
     page.found = found;

@@ -3,7 +3,7 @@
 // results() gives what each panel computed, as the core's JSON contract responses. The state
 // uses the contract's field names (f, var, params, region, contour, t, n) plus the page's own
 // (view, panels and the display options); links and stored states keep the page's own shape.
-import { Engine, runNow, responseError } from './engine.js';
+import { Engine, runNow, responseError, yieldToBrowser } from './engine.js';
 import { paramsForRequest, functionInput } from './params.js';
 import { sanitize, saveState } from './state.js';
 import { regionProblem } from './region.js';
@@ -149,34 +149,48 @@ export function installScripting(page, hooks) {
   const copy = (x) => (typeof structuredClone === 'function' ? structuredClone(x) : JSON.parse(JSON.stringify(x)));
   const forWhat = (base) => (base ? JSON.parse(JSON.stringify({ f: base.f, var: base.var, params: base.params || {} })) : null);
 
-  function currentResults() {
+  /** What results() holds, as [key, response, added fields] (the responses not yet copied). */
+  function resultsPlan() {
     const res = page.results;
-    if (!res) return {};
+    if (!res) return [];
     const stale = ui.singTable.classList.contains('stale') || res.serial !== page.searchSerial;
-    const entry = (resp, extra = {}) => (resp ? Object.assign({}, copy(resp), { stale }, extra) : undefined);
-    const out = {};
+    const plan = [];
+    const entry = (key, resp, extra = {}) => { if (resp) plan.push([key, resp, Object.assign({ stale }, extra)]); };
     // The table shown: this run's search, or, while it runs or after it failed or was stopped,
     // the last search that finished (dimmed and inert on the page), stale and naming its f.
     const good = page.lastGood;
     const searchFailed = !res.singularities || responseError(res.singularities);
-    if (searchFailed && good && good !== res && good.singularities) {
-      out.singularities = Object.assign({}, copy(good.singularities), { stale: true, region: good.contour, nudge: good.nudge || null,
-        computed_for: forWhat(good.base), search_error: res.singularities ? responseError(res.singularities) : null });
-    } else if (res.singularities) {
-      out.singularities = entry(res.singularities, { region: res.contour, nudge: res.nudge || null, computed_for: forWhat(res.base) });
-    }
+    const older = searchFailed && good && good !== res;
+    if (older && good.singularities) {
+      plan.push(['singularities', good.singularities, { stale: true, region: good.contour, nudge: good.nudge || null,
+        computed_for: forWhat(good.base), search_error: res.singularities ? responseError(res.singularities) : null }]);
+    } else entry('singularities', res.singularities, { region: res.contour, nudge: res.nudge || null, computed_for: forWhat(res.base) });
     for (const key of ['contour_integral', 'argument_count']) {
-      if (res[key]) out[key] = entry(res[key], { contour: res.contour, computed_for: forWhat(res.base) });
-      else if (searchFailed && good && good !== res && good[key]) {
-        out[key] = Object.assign({}, copy(good[key]), { stale: true, contour: good.contour, computed_for: forWhat(good.base) });
-      }
+      if (res[key]) entry(key, res[key], { contour: res.contour, computed_for: forWhat(res.base) });
+      else if (older && good[key]) plan.push([key, good[key], { stale: true, contour: good.contour, computed_for: forWhat(good.base) }]);
     }
     if (res.inverse && res.inverseRequest && !ui.inv.box.hidden && ui.inv.box.open) {
       const key = res.inverseRequest.task;
-      out[key] = entry(res.inverse, key === 'inverse_laplace' ? { t: res.inverseRequest.t } : { n: res.inverseRequest.n });
+      entry(key, res.inverse, key === 'inverse_laplace' ? { t: res.inverseRequest.t } : { n: res.inverseRequest.n });
     }
-    if (res.transfer_function && transferOpen(page)) out.transfer_function = entry(res.transfer_function);
-    if (res.partial_fractions) out.partial_fractions = entry(res.partial_fractions);
+    if (res.transfer_function && transferOpen(page)) entry('transfer_function', res.transfer_function);
+    entry('partial_fractions', res.partial_fractions);
+    return plan;
+  }
+
+  function currentResults() {
+    const out = {};
+    for (const [key, resp, extra] of resultsPlan()) out[key] = Object.assign({}, copy(resp), extra);
+    return out;
+  }
+
+  /** The same as results(), one entry per task, so that copying large answers never holds up the page. */
+  async function currentResultsInSteps() {
+    const out = {};
+    for (const [key, resp, extra] of resultsPlan()) {
+      await yieldToBrowser();
+      out[key] = Object.assign({}, copy(resp), extra);
+    }
     return out;
   }
 
@@ -208,7 +222,7 @@ export function installScripting(page, hooks) {
     const outcome = await hooks.pipeline.find();
     if (outcome.status === 'failed') throw scriptError(outcome.error.code, outcome.error.message);
     if (outcome.status === 'superseded') throw scriptError('cancelled', 'a newer change or Stop came in before the panels finished');
-    return currentResults();
+    return currentResultsInSteps();
   }
 
   window.residuary = {
@@ -220,6 +234,6 @@ export function installScripting(page, hooks) {
     /** What each shown panel computed, keyed by task. */
     results: currentResults,
     /** Resolves when whatever is computing now has finished (with results()). */
-    settled: async () => { await hooks.started; await hooks.pipeline.settled(); return currentResults(); },
+    settled: async () => { await hooks.started; await hooks.pipeline.settled(); return currentResultsInSteps(); },
   };
 }

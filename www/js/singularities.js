@@ -114,7 +114,7 @@ function complexCell(z, floor = 0) {
  *  search with thousands of points never stalls the page (the markers show them all). */
 export const TABLE_PAGE = 100;
 /** Rows put in per task while a page is built. */
-const ROW_CHUNK = 20;
+const ROW_CHUNK = 10;
 
 /** One row of the table for item `it` at index `i`. */
 function tableRow(it, i, onPick) {

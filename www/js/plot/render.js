@@ -129,6 +129,7 @@ function pictureIsOf(plot, base) {
   plot.pictureOf = functionWords(base);
   plot.lastValid = false;
   plot.canvas.dataset.pictureOf = plot.pictureOf;
+  if (plot.canvas.dataset.lastValid !== undefined) plot.canvas.setAttribute('aria-label', 'Phase plot');
   delete plot.canvas.dataset.lastValid;
 }
 
@@ -138,6 +139,7 @@ export function keepLastValid(plot) {
   if (!plot.coarse || !plot.pictureOf) return false;
   plot.lastValid = true;
   plot.canvas.dataset.lastValid = plot.pictureOf;
+  plot.canvas.setAttribute('aria-label', `Phase plot of the last valid f, ${plot.pictureOf}; the typed f has an error`);
   plot.draw();
   return true;
 }
