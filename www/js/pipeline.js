@@ -196,6 +196,8 @@ export function createPipeline(page, hooks) {
       }
     }
     page.results.singularities = resp;
+    // performance marks around taking the answer in (table, markers, sums): residuary-table-start / -end
+    performance.mark('residuary-table-start');
     // Large answers are shown in steps, letting the browser breathe between them (no task over 50 ms).
     const big = (Array.isArray(resp.poles) ? resp.poles.length : 0) + (Array.isArray(resp.zeros) ? resp.zeros.length : 0) > 300;
     const breathe = async () => { if (big) await yieldToBrowser(); return serial !== page.searchSerial; };
@@ -239,6 +241,7 @@ export function createPipeline(page, hooks) {
     for (const w of Array.isArray(resp.warnings) ? resp.warnings : []) ui.warnings.append(el('li', { text: String(w) }));
     showSums(ui, resp, found.items);
     if (await breathe()) return superseded;
+    performance.mark('residuary-table-end');
     // A transfer-function reading, only for s or z, and said to be a reading.
     const reading = stabilityReading(base.var, found.items, contour, resp.method);
     const wasVar = ui.stabilityBox.dataset.var;
