@@ -116,7 +116,11 @@ function attachHeavy(worker) {
     const pending = Engine.heavyPending.get(msg.id);
     if (pending) {
       Engine.heavyPending.delete(msg.id);
-      pending(msg.response);
+      let response = msg.response;
+      if (typeof msg.json === 'string') {
+        try { response = JSON.parse(msg.json); } catch (e) { response = { error: { code: 'internal', message: 'the answer could not be read: ' + String(e && e.message), span: null } }; }
+      }
+      pending(response);
     }
   };
 }

@@ -46,9 +46,11 @@ export async function rationalAnalysis(base) {
 /** The same points once each (partial fractions list a pole of order m m times). */
 function distinct(points) {
   const out = [];
+  const seen = new Set(); // exact equality, as before, in one pass (thousands of poles stay quick)
   for (const p of points) {
     if (!Array.isArray(p) || !p.every(Number.isFinite)) continue;
-    if (!out.some((q) => q[0] === p[0] && q[1] === p[1])) out.push(p);
+    const key = p[0] + ',' + p[1];
+    if (!seen.has(key)) { seen.add(key); out.push(p); }
   }
   return out;
 }
@@ -141,3 +143,28 @@ export function nudgeNote(variable, nudge, poles) {
 /** The unit circle's extreme points: a discrete-time transfer function's view holds the circle
  *  (its stability boundary, common practice for z-plane diagrams). */
 export const UNIT_CIRCLE_BOX = [[1, 0], [-1, 0], [0, 1], [0, -1]];
+
+/** How many times the search is asked again with a wider region when it reports a zero or pole
+ *  on the edge of the "current view" region (f not rational, so its points are not known first). */
+export const NUDGE_TRIES = 4;
+
+/** The `k`-th widening (k = 0, 1, …) of a region whose edge the search found a zero or pole on:
+ *  a rectangle widened on every side by 1e-4 × its size × 1.618^k × (1 + 0.0731k) (not a round
+ *  step: lattices of integers or of multiples of π are not met again), or a circle whose radius
+ *  grows by that much. Returns {contour, widenedBy}. */
+export function widenOffContour(contour, k) {
+  const grow = (size) => 1e-4 * size * Math.pow(1.618, k) * (1 + 0.0731 * k) * 1.0137;
+  if (contour.shape === 'circle') {
+    const by = grow(contour.radius);
+    return { contour: { shape: 'circle', center: contour.center.slice(), radius: contour.radius + by }, widenedBy: by };
+  }
+  const [[a, b], [c, d]] = contour.corners;
+  const x0 = Math.min(a, c), x1 = Math.max(a, c), y0 = Math.min(b, d), y1 = Math.max(b, d);
+  const by = grow(Math.max(x1 - x0, y1 - y0));
+  return { contour: { shape: 'rectangle', corners: [[x0 - by, y0 - by], [x1 + by, y1 + by]] }, widenedBy: by };
+}
+
+/** The sentence for the singularities panel after such a widening. */
+export function widenNote(variable, nudge) {
+  return `The search met a zero or pole of f on the edge of the current view, so the region was widened by ${fmtReal(nudge.widenedBy, 3)} on every side (${variable} is searched a little beyond the view).`;
+}

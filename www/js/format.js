@@ -64,3 +64,11 @@ export function fmtSigLines(z, digits = 10, absFloor = 0) {
 export function fmtExact(z) {
   return isFinitePair(z) ? `${z[0]} ${z[1] < 0 || Object.is(z[1], -0) ? '-' : '+'} ${Math.abs(z[1])}i` : String(z);
 }
+
+/** A function input {f, var, params} as a reader would write it: "f(z) = … (a = 2, b = 1+0.5i)". */
+export function functionWords(base) {
+  const v = (base && base.var) || 'z';
+  const params = base && base.params && typeof base.params === 'object' ? Object.entries(base.params) : [];
+  const p = params.map(([k, x]) => `${k} = ${Array.isArray(x) ? fmtComplex(x, 6) : fmtReal(x, 6)}`).join(', ');
+  return `f(${v}) = ${base ? base.f : ''}` + (p ? ` (${p})` : '');
+}

@@ -176,7 +176,7 @@ function describePlot() {
 // ---- typing ------------------------------------------------------------------------------
 
 function showNoPicture() {
-  if (plot.coarse) return; // keep the last good picture
+  if (plot.keepLastValid()) return; // keep the last good picture, labelled with its f
   plot.message = Engine.ready ? 'No picture yet: the function needs fixing (see the message under it).' : Engine.message;
   plot.draw();
 }

@@ -5,8 +5,8 @@
 // inverse transform (when its section is open) and the partial fractions. Each
 // step checks that no newer search or Stop has come in the meantime. Also the
 // Laurent detail for a chosen point.
-import { el, debounce } from './dom.js';
-import { Engine, runHeavy, cancelHeavy, responseError } from './engine.js';
+import { $, el, debounce } from './dom.js';
+import { Engine, runHeavy, cancelHeavy, responseError, yieldToBrowser } from './engine.js';
 import { functionInput } from './params.js';
 import { regionProblem } from './region.js';
 import {
@@ -15,8 +15,16 @@ import {
 import { requestContourIntegral, requestArgumentCount, showContourIntegral, showArgumentCount, contourStatus } from './contour.js';
 import { inverseStatus, prepareInverse, runInverse, stopInverse } from './inverse.js';
 import { prepareTransfer, runTransfer, stopTransfer, transferOpen } from './transfer.js';
-import { rationalAnalysis, nudgeOffEdges, nudgeNote } from './fit.js';
+import { rationalAnalysis, nudgeOffEdges, nudgeNote, widenOffContour, widenNote, NUDGE_TRIES } from './fit.js';
 import { contourSize } from './contour-geom.js';
+import { fmtReal, fmtSig, functionWords } from './format.js';
+import { KIND_WORDS } from './markers.js';
+import { isFinitePair } from './complex.js';
+
+/** Seconds as shown by the progress line: one decimal. */
+function secondsText(ms) {
+  return (Math.max(0, ms) / 1000).toFixed(1) + ' s';
+}
 
 /** The pipeline over `page` (state, ui, plot, exprOk, found, searchSerial, readingOpenNext; see
  *  main.js). Hooks: contour() (the region's contour now), describePlot() (after the markers change),
@@ -32,26 +40,94 @@ export function createPipeline(page, hooks) {
 
   const autoSearch = debounce(() => { if (state.autoFind) find(); }, 700);
 
+  const singStale = () => $('sing-stale');
+  const sums = () => $('sums');
+
+  /** The table, the sums and the detail shown as stale and inert: dimmed, labelled with the f
+   *  they were computed for, rows unfocusable and unclickable (pick() refuses them too). */
+  function showTableStale(why) {
+    ui.singTable.classList.add('stale');
+    ui.tbody.inert = true;
+    if ($('sing-pager')) $('sing-pager').inert = true;
+    for (const tr of ui.tbody.querySelectorAll('tr[data-index]')) tr.removeAttribute('tabindex');
+    if (sums()) sums().classList.add('stale');
+    for (const part of [ui.warnings, ui.stabilityBox, ui.partial, ui.pfWarnings]) part.classList.add('stale');
+    ui.detail.box.hidden = true;
+    hidePickNote();
+    const note = singStale();
+    const found = page.found;
+    if (note) {
+      note.hidden = !(found && found.base && found.items);
+      note.textContent = note.hidden ? '' : `Stale: the table and the sums below were computed for ${functionWords(found.base)}; ${why}. They cannot be chosen until a search for the current f finishes.`;
+    }
+  }
+
+  /** Fresh results: the table and the sums at full contrast and live again. */
+  function showTableFresh() {
+    ui.singTable.classList.remove('stale');
+    ui.tbody.inert = false;
+    if ($('sing-pager')) $('sing-pager').inert = false;
+    if (sums()) sums().classList.remove('stale');
+    for (const part of [ui.warnings, ui.stabilityBox, ui.partial, ui.pfWarnings]) part.classList.remove('stale');
+    const note = singStale();
+    if (note) { note.hidden = true; note.textContent = ''; }
+  }
+
   /** The results no longer belong to the function: dim them and take the markers off the plot. */
   function markStale() {
     page.searchSerial++;
-    ui.singTable.classList.add('stale');
+    endProgress();
+    showTableStale('the function has changed since');
     ui.find.disabled = false;
     ui.cancel.disabled = true;
     ui.findStatus.className = 'find-status';
     ui.findStatus.textContent = state.autoFind ? 'The function changed; searching again when typing stops…' : 'The function changed: press “Find singularities” for new results.';
     if (plot().markers.length) { plot().markers = []; plot().selected = -1; plot().draw(); }
     ui.canvas.dataset.markers = '0';
-    ui.detail.box.hidden = true;
     if (hooks.stale) hooks.stale(); // the Laurent section (laurent-panel.js)
     if (ui.ci.box.dataset.state !== 'none') contourStatus(ui.ci, 'The function changed: the contour integral is computed again with the next search.', 'stale');
     if (!['none', 'closed'].includes(ui.inv.box.dataset.state)) inverseStatus(ui.inv, 'The function changed: the inverse transform is computed again with the next search.', 'stale');
+  }
+
+  // ---- progress: the stage, the time since the run began and what it has found so far ----
+  // The core answers a search in one piece (it cannot report partial finds), so while the search
+  // runs the line says the stage and the elapsed time; once the search has answered, the later
+  // stages say how many points it found.
+  const progress = { timer: 0, t0: 0, stage: '', found: '' };
+  const progressLine = () => $('find-progress');
+  function showProgress() {
+    const line = progressLine();
+    if (!line) return;
+    line.hidden = false;
+    line.textContent = `${progress.stage} ${secondsText(performance.now() - progress.t0)}` + (progress.found ? ` · ${progress.found}` : '') + '. Stop abandons it.';
+    line.dataset.stage = progress.key;
+  }
+  function startProgress() {
+    clearInterval(progress.timer);
+    progress.t0 = performance.now();
+    progress.found = '';
+    progress.timer = setInterval(showProgress, 200);
+  }
+  function stage(key, text) {
+    progress.key = key;
+    progress.stage = text;
+    showProgress();
+  }
+  /** The run has ended; the line is cleared and the time it took is returned (ms). */
+  function endProgress() {
+    clearInterval(progress.timer);
+    progress.timer = 0;
+    const line = progressLine();
+    if (line) { line.hidden = true; line.textContent = ''; delete line.dataset.stage; }
+    return progress.t0 ? performance.now() - progress.t0 : 0;
   }
 
   /** The contour no longer matches the shown integral: say so until the next search. */
   function regionMoved() {
     const st = ui.ci.box.dataset.state;
     if (st === 'done' || st === 'error') contourStatus(ui.ci, 'The region changed: the integral below is for the contour named above; search again to update it.', 'stale');
+    // The points found are still f's, but the sums and the count are the searched region's.
+    if (sums() && page.found && page.found.items && !ui.singTable.classList.contains('stale')) sums().classList.add('stale');
   }
 
   /** Run the pipeline now; resolves with its outcome (see above). */
@@ -86,8 +162,10 @@ export function createPipeline(page, hooks) {
     ui.regionNote.textContent = '';
     ui.find.disabled = true;
     ui.cancel.disabled = false;
-    ui.findStatus.textContent = 'Searching…';
+    ui.findStatus.textContent = 'Searching the region for zeros, poles and other special points.';
     ui.findStatus.className = 'find-status busy';
+    startProgress();
+    stage('search', 'Searching for zeros and poles:');
     if (ui.ci.box.dataset.state !== 'none') contourStatus(ui.ci, 'Waiting for the search…', 'stale');
     // The current view as the region: a known pole or zero on its edge moves the edge out a little.
     if (state.region.mode === 'view') {
@@ -103,39 +181,72 @@ export function createPipeline(page, hooks) {
         }
       }
     }
-    const resp = await searchSingularities(base, contour);
+    let resp = await searchSingularities(base, contour);
     if (serial !== page.searchSerial) return superseded;
+    // The current view as the region, and the search met a zero or pole on its edge (f not
+    // rational, e.g. gamma's poles at the integers): widen the region a little, by a step that is
+    // not a round number, and search again; the note says so.
+    if (state.region.mode === 'view') {
+      const start = contour;
+      for (let k = 0; k < NUDGE_TRIES && responseError(resp) && responseError(resp).code === 'on_contour'; k++) {
+        const nudge = widenOffContour(start, k);
+        contour = nudge.contour;
+        page.results.contour = contour;
+        page.results.nudge = { widened_by: nudge.widenedBy, at: null, note: widenNote(base.var, nudge) };
+        ui.regionNote.textContent = page.results.nudge.note;
+        resp = await searchSingularities(base, contour);
+        if (serial !== page.searchSerial) return superseded;
+      }
+    }
     page.results.singularities = resp;
+    // performance marks around taking the answer in (table, markers, sums): residuary-table-start / -end
+    performance.mark('residuary-table-start');
+    // Large answers are shown in steps, letting the browser breathe between them (no task over 50 ms).
+    const big = (Array.isArray(resp.poles) ? resp.poles.length : 0) + (Array.isArray(resp.zeros) ? resp.zeros.length : 0) > 300;
+    const breathe = async () => { if (big) await yieldToBrowser(); return serial !== page.searchSerial; };
+    if (await breathe()) return superseded;
     ui.findStatus.className = 'find-status';
     const err = responseError(resp);
     if (err) {
+      const took = endProgress();
       ui.find.disabled = false;
       ui.cancel.disabled = true;
-      ui.findStatus.textContent = err.code === 'cancelled' ? 'Search stopped.' : 'Search failed: ' + err.message;
-      contourStatus(ui.ci, 'Not computed: the search did not finish.', 'stale');
+      ui.findStatus.textContent = err.code === 'cancelled' ? `Search stopped after ${secondsText(took)}.` : `Search failed after ${secondsText(took)}: ` + err.message;
+      showTableStale(err.code === 'cancelled' ? 'the search for the current f was stopped' : 'the search for the current f failed');
+      if (plot().markers.length) { plot().markers = []; plot().selected = -1; plot().draw(); ui.canvas.dataset.markers = '0'; }
+      const old = page.found && page.found.base && !ui.ci.result.hidden && ui.ci.box.dataset.state !== 'none';
+      contourStatus(ui.ci, 'Not computed: the search did not finish' + (old ? `; the integral below is for ${functionWords(page.found.base)}.` : '.'), 'stale');
       return { status: 'failed', error: { code: err.code, message: err.message } };
     }
-    ui.singTable.classList.remove('stale');
+    showTableFresh();
+    page.lastGood = page.results;
     const size = contour.shape === 'circle' ? contour.radius : contourSize(contour);
     const found = { items: itemsOf(resp, 1e-12 * size), base, contour };
+    if (await breathe()) return superseded;
     page.found = found;
     const n = found.items.length;
+    progress.found = `${n} point${n === 1 ? '' : 's'} found`;
     ui.findStatus.textContent = n ? `Found ${n} point${n === 1 ? '' : 's'} in the region` +
-      (resp.method === 'rational' ? ' (f is rational: exact analysis)' : resp.method === 'numerical' ? ' (numerical search)' : '') +
+      (resp.method === 'rational' ? ' (f is rational: partial fractions, poles as polynomial roots)' : resp.method === 'numerical' ? ' (numerical search)' : '') +
       '. Choose a row or marker for its principal part.' : 'Search finished: nothing in the region.';
-    fillTable(ui.tbody, found.items, pick);
+    await fillTable(ui.tbody, found.items, pick);
     if (hooks.tableFilled) hooks.tableFilled();
+    if (await breathe()) return superseded;
     plot().markers = found.items;
     plot().selected = -1;
     plot().draw();
     ui.canvas.dataset.markers = String(found.items.length);
+    if (await breathe()) return superseded;
     hooks.describePlot();
     ui.detail.box.hidden = true;
+    hidePickNote();
     ui.warnings.textContent = '';
     for (const w of Array.isArray(resp.warnings) ? resp.warnings : []) ui.warnings.append(el('li', { text: String(w) }));
     showSums(ui, resp, found.items);
+    if (await breathe()) return superseded;
+    performance.mark('residuary-table-end');
     // A transfer-function reading, only for s or z, and said to be a reading.
-    const reading = stabilityReading(base.var, found.items, contour);
+    const reading = stabilityReading(base.var, found.items, contour, resp.method);
     const wasVar = ui.stabilityBox.dataset.var;
     ui.stabilityBox.hidden = !reading;
     if (reading) {
@@ -151,16 +262,19 @@ export function createPipeline(page, hooks) {
     prepareInverse(page, base);
     // The contour integral three ways, then the argument-principle count (still cancellable by Stop).
     contourStatus(ui.ci, 'Computing the contour integral three ways…', 'busy');
+    stage('integral', 'Computing the contour integral three ways:');
     const ci = await requestContourIntegral(base, contour);
     if (serial !== page.searchSerial) return superseded;
     page.results.contour_integral = ci;
     showContourIntegral(ui.ci, base.var, contour, state.region.mode === 'view', ci, hooks.sign ? hooks.sign() : 1);
+    stage('count', 'Counting zeros minus poles (argument principle):');
     const count = await requestArgumentCount(base, contour);
     if (serial !== page.searchSerial) return superseded;
     page.results.argument_count = count;
     showArgumentCount(ui.ci, count);
     // Then the inverse transform (s or z), when its section is open; Stop still cancels it.
     if (!ui.inv.box.hidden && ui.inv.box.open) {
+      stage('inverse', 'Computing the inverse transform:');
       await runInverse(page, base);
       if (serial !== page.searchSerial) return superseded;
     }
@@ -168,11 +282,13 @@ export function createPipeline(page, hooks) {
     await prepareTransfer(page, base);
     if (serial !== page.searchSerial) return superseded;
     if (transferOpen(page)) {
+      stage('transfer', 'Computing the frequency response:');
       await runTransfer(page, base);
       if (serial !== page.searchSerial) return superseded;
     }
     ui.find.disabled = false;
     ui.cancel.disabled = true;
+    endProgress();
     // Partial fractions, shown only when f is rational (the task answers).
     const pf = await runHeavy(Object.assign({}, base, { task: 'partial_fractions' }));
     if (serial !== page.searchSerial) return superseded;
@@ -192,22 +308,53 @@ export function createPipeline(page, hooks) {
     return { status: 'done' };
   }
 
-  /** Stop pressed: whatever is computing is dropped and the heavy worker restarted. */
+  /** Stop pressed: whatever is computing is dropped and the heavy worker restarted. Every
+   *  status that was waiting says it was stopped; what is still shown from before is stale. */
   async function stop() {
+    const running = progress.timer !== 0;
+    const during = progress.stage.replace(/:$/, '');
     page.searchSerial++;
+    const took = endProgress();
     ui.cancel.disabled = true;
     ui.find.disabled = false;
     ui.findStatus.className = 'find-status';
-    ui.findStatus.textContent = 'Search stopped.';
-    if (ui.ci.box.dataset.state === 'busy') contourStatus(ui.ci, 'Stopped before the contour integral finished.', 'stale');
+    ui.findStatus.textContent = running ? `Search stopped after ${secondsText(took)} (stage: ${during.charAt(0).toLowerCase() + during.slice(1)}).` : 'Search stopped.';
+    const ciState = ui.ci.box.dataset.state;
+    if (ciState !== 'none' && ciState !== 'done' && ciState !== 'error') {
+      const old = !ui.ci.result.hidden && page.found && page.found.base;
+      contourStatus(ui.ci, 'Stopped before the contour integral was computed' + (old ? `; the integral below is for ${functionWords(page.found.base)}.` : '.'), 'stale');
+      ui.ci.box.dataset.state = 'stopped';
+    }
+    if (!page.results || !page.results.singularities || responseError(page.results.singularities)) {
+      showTableStale('the search for the current f was stopped');
+      if (plot().markers.length) { plot().markers = []; plot().selected = -1; plot().draw(); ui.canvas.dataset.markers = '0'; }
+    }
     stopInverse(page);
     stopTransfer(page);
     await cancelHeavy();
   }
 
+  /** Under the plot: the point chosen, its order and residue, and a way to its detail. */
+  function showPickNote(variable, item) {
+    const note = $('pick-note');
+    if (!note) return;
+    note.textContent = '';
+    const kind = KIND_WORDS[item.kind];
+    const facts = [item.order > 0 ? `order ${item.order}` : '', isFinitePair(item.residue) ? `residue ${fmtSig(item.residue, 10)}` : ''].filter(Boolean).join(', ');
+    note.append(`Chosen: ${kind} at ${variable} = ${fmtSig(item.at, 10, item.floor)}` + (facts ? ` (${facts})` : '') + '. ',
+      el('button', { type: 'button', class: 'small', id: 'pick-go', text: 'Go to its Laurent series', onclick: () => ui.detail.box.scrollIntoView({ block: 'start' }) }));
+    note.hidden = false;
+  }
+  function hidePickNote() {
+    const note = $('pick-note');
+    if (note) { note.hidden = true; note.textContent = ''; }
+  }
+
   /** A row or marker chosen: its principal part and Laurent coefficients. */
   async function pick(index) {
     const found = page.found;
+    // A stale table is inert: its rows belong to another f (or to a search that did not finish).
+    if (ui.singTable.classList.contains('stale')) return;
     const item = found.items[index];
     if (!item) return;
     plot().selected = index;
@@ -224,8 +371,20 @@ export function createPipeline(page, hooks) {
     const resp = await requestLaurent(found.base, item, annulus.radius);
     if (plot().selected !== index) return;
     showDetail(ui.detail, found.base.var, item, resp, annulus);
+    showPickNote(found.base.var, item);
+    // Scroll to the detail only where it sits beside the plot (three columns, the plot held in
+    // place): in one or two columns the plot stays where it is and the note under it offers a
+    // way to the detail.
     const r = ui.detail.box.getBoundingClientRect();
-    if (r.top > window.innerHeight || r.bottom < 0) ui.detail.box.scrollIntoView({ block: 'nearest' });
+    const p = ui.canvas.getBoundingClientRect();
+    const beside = r.left >= p.right - 1 || r.right <= p.left + 1;
+    const column = ui.detail.box.closest('.results');
+    const ownScroll = column && getComputedStyle(column).overflowY === 'auto' && column.scrollHeight > column.clientHeight + 1;
+    if (beside && ownScroll) {
+      // the results column scrolls by itself beside the plot: bring the detail up in it, the page stays
+      const c = column.getBoundingClientRect();
+      if (r.top < c.top || r.top > c.bottom - 40) column.scrollTop += r.top - c.top - 8;
+    } else if (beside && (r.top > window.innerHeight || r.bottom < 0)) ui.detail.box.scrollIntoView({ block: 'nearest' });
   }
 
   return {

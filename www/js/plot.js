@@ -4,9 +4,9 @@
 // (progressive rendering through the core), plot/axes.js, plot/overlays.js (unit
 // circle, region, markers, message) and plot/input.js (pan, zoom, pick).
 import { viewBox, toPlane, setView, zoomAbout, fitCanvas, MARGIN } from './plot/view.js';
-import { drawLayer, renderPlot, renderLive, scheduleRender } from './plot/render.js';
+import { drawLayer, renderPlot, renderLive, scheduleRender, keepLastValid } from './plot/render.js';
 import { drawAxes } from './plot/axes.js';
-import { drawUnitCircle, drawRegion, drawMarkers, drawMessage, drawTrails, drawInfinityMarker, drawAnnulus } from './plot/overlays.js';
+import { drawUnitCircle, drawRegion, drawMarkers, drawMessage, drawTrails, drawInfinityMarker, drawAnnulus, drawLastValid } from './plot/overlays.js';
 import { attachInput } from './plot/input.js';
 import { KIND_WORDS } from './markers.js';
 import { regionWords } from './region.js';
@@ -40,6 +40,8 @@ export function createPlot(canvas, hooks) {
   plot.render = () => renderPlot(plot, hooks);
   /** A quick coarse picture while dragging (resolves true when drawn). */
   plot.renderLive = () => renderLive(plot, hooks);
+  /** The typed f is invalid: keep the last picture with a label naming its f (false: none). */
+  plot.keepLastValid = () => keepLastValid(plot);
   /** Redraw soon (coalesces bursts of view changes). */
   plot.scheduleRender = (ms = 90) => scheduleRender(plot, ms);
 
@@ -84,6 +86,7 @@ function drawPlot(plot) {
   drawInfinityMarker(plot);
   for (const hook of plot.overlayHooks || []) hook(ctx); // e.g. the image curve's mark on γ
   drawMessage(plot);
+  drawLastValid(plot);
   ctx.restore();
   drawAxes(plot);
 }

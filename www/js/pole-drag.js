@@ -57,9 +57,13 @@ function rootsOf(pf) {
 /** The gain–zeros–poles model of a rational `base` ({f, var, params}): {k, zeros, poles, real},
  *  or null when f is not rational or the core does not answer. k = f(s0)·Π(s0 − p)/Π(s0 − z) at
  *  a generic point s0 (the `evaluate` task). */
+const MAX_DRAG_TERMS = 400;
 export async function rationalModel(base) {
   const pf = await runHeavy(Object.assign({}, base, { task: 'partial_fractions' }));
   if (responseError(pf)) return null;
+  // Dragging one of thousands of poles is not offered: the model's checks grow with the square of
+  // their number and would hold up the page (no main-thread task over 50 ms).
+  if (Array.isArray(pf.terms) && pf.terms.length > MAX_DRAG_TERMS) return null;
   const inv = await runHeavy(Object.assign({}, base, { f: `1/(${base.f})`, task: 'partial_fractions' }));
   const invErr = responseError(inv);
   if (invErr && invErr.code !== 'not_applicable') return null;

@@ -3,7 +3,7 @@
 // results() gives what each panel computed, as the core's JSON contract responses. The state
 // uses the contract's field names (f, var, params, region, contour, t, n) plus the page's own
 // (view, panels and the display options); links and stored states keep the page's own shape.
-import { Engine, runNow, responseError } from './engine.js';
+import { Engine, runNow, responseError, yieldToBrowser } from './engine.js';
 import { paramsForRequest, functionInput } from './params.js';
 import { sanitize, saveState } from './state.js';
 import { regionProblem } from './region.js';
@@ -232,46 +232,80 @@ export function installScripting(page, hooks) {
     return out;
   }
 
-  function currentResults() {
+  /** A deep copy of a response (plain JSON data): structuredClone where there is one (quicker
+   *  for answers with thousands of points), else through JSON. */
+  const copy = (x) => (typeof structuredClone === 'function' ? structuredClone(x) : JSON.parse(JSON.stringify(x)));
+  /** The function input a result was computed for, in the contract's shape. */
+  const forWhat = (base) => (base ? JSON.parse(JSON.stringify({ f: base.f, var: base.var, params: base.params || {} })) : null);
+
+  /** What results() holds from the search's run, as [key, response, added fields] (the responses
+   *  not yet copied). */
+  function resultsPlan() {
     const res = page.results || (page.liveContour ? {} : null);
-    if (!res) {
-      const out = addIntegral({});
-      const image = hooks.imageCurve.result();
-      if (image) out.image_curve = image;
-      return out;
-    }
+    if (!res) return [];
     const stale = ui.singTable.classList.contains('stale') || res.serial !== page.searchSerial;
-    const entry = (resp, extra = {}) => (resp ? Object.assign({}, JSON.parse(JSON.stringify(resp)), { stale }, extra) : undefined);
-    const out = {};
-    if (res.singularities) {
-      out.singularities = entry(res.singularities, { region: res.contour, nudge: res.nudge || null });
-      // the table's winding column: each point shown and how often the page's contour winds round it
-      if (hooks.windings) out.singularities.windings = hooks.windings();
+    const plan = [];
+    const entry = (key, resp, extra = {}) => { if (resp) plan.push([key, resp, Object.assign({ stale }, extra)]); };
+    // The table shown: this run's search, or, while it runs or after it failed or was stopped,
+    // the last search that finished (dimmed and inert on the page), stale and naming its f.
+    const good = page.lastGood;
+    const searchFailed = !res.singularities || responseError(res.singularities);
+    const older = searchFailed && good && good !== res;
+    // the table's winding column: each point shown and how often the page's contour winds round it
+    const windings = hooks.windings ? { windings: hooks.windings() } : {};
+    if (older && good.singularities) {
+      plan.push(['singularities', good.singularities, Object.assign({ stale: true, region: good.contour, nudge: good.nudge || null,
+        computed_for: forWhat(good.base), search_error: res.singularities ? responseError(res.singularities) : null }, windings)]);
+    } else entry('singularities', res.singularities, Object.assign({ region: res.contour, nudge: res.nudge || null, computed_for: forWhat(res.base) }, windings));
+    for (const key of ['contour_integral', 'argument_count']) {
+      // orientation −1: the page takes the contour clockwise (reversed) and the integral along it is −1 × value
+      const orient = key === 'contour_integral' ? { orientation: res.sign || 1 } : {};
+      if (res[key]) entry(key, res[key], Object.assign({ contour: res.contour, computed_for: forWhat(res.base) }, orient));
+      else if (older && good[key]) plan.push([key, good[key], Object.assign({ stale: true, contour: good.contour, computed_for: forWhat(good.base) }, orient)]);
     }
-    // orientation −1: the page takes the contour clockwise (reversed) and the integral along it is −1 × value
-    if (res.contour_integral) out.contour_integral = entry(res.contour_integral, { contour: res.contour, orientation: res.sign || 1 });
-    if (res.argument_count) out.argument_count = entry(res.argument_count, { contour: res.contour });
     // while a contour is being dragged: the last live answers, for the contour they were computed on
     const lc = page.liveContour;
     if (lc && lc.contour_integral) {
-      out.contour_live = {
-        contour: JSON.parse(JSON.stringify(lc.contour)), orientation: lc.sign,
-        contour_integral: JSON.parse(JSON.stringify(lc.contour_integral)),
-        argument_count: lc.argument_count ? JSON.parse(JSON.stringify(lc.argument_count)) : null,
-      };
+      plan.push(['contour_live', { contour: lc.contour, orientation: lc.sign, contour_integral: lc.contour_integral,
+        argument_count: lc.argument_count || null }, {}]);
     }
     if (res.inverse && res.inverseRequest && !ui.inv.box.hidden && ui.inv.box.open) {
       const key = res.inverseRequest.task;
-      out[key] = entry(res.inverse, key === 'inverse_laplace' ? { t: res.inverseRequest.t } : { n: res.inverseRequest.n });
+      entry(key, res.inverse, key === 'inverse_laplace' ? { t: res.inverseRequest.t } : { n: res.inverseRequest.n });
     }
-    if (res.transfer_function && transferOpen(page)) out.transfer_function = entry(res.transfer_function);
-    if (res.partial_fractions) out.partial_fractions = entry(res.partial_fractions);
-    if (state.trails && page.trailsResult) out.pole_trails = entry(page.trailsResult);
+    if (res.transfer_function && transferOpen(page)) entry('transfer_function', res.transfer_function);
+    entry('partial_fractions', res.partial_fractions);
+    return plan;
+  }
+
+  function currentResults() {
+    const out = {};
+    for (const [key, resp, extra] of resultsPlan()) out[key] = Object.assign({}, copy(resp), extra);
+    return addPanels(out);
+  }
+
+  /** The panels outside the search's run: pole trails, the real integral, the Laurent section and
+   *  the image curve (each knows what it was computed for). */
+  function addPanels(out) {
+    const res = page.results;
+    const stale = !res || ui.singTable.classList.contains('stale') || res.serial !== page.searchSerial;
+    if (state.trails && page.trailsResult) out.pole_trails = Object.assign({}, copy(page.trailsResult), { stale });
     addIntegral(out);
     const lp = page.laurent.results(stale);
     if (lp) out.laurent = lp;
     const image = hooks.imageCurve.result(); // computed for the state as it is now: never stale
     if (image) out.image_curve = image;
+    return out;
+  }
+
+  /** The same as results(), one entry per task, so that copying large answers never holds up the page. */
+  async function currentResultsInSteps() {
+    const out = {};
+    for (const [key, resp, extra] of resultsPlan()) {
+      await yieldToBrowser();
+      out[key] = Object.assign({}, copy(resp), extra);
+    }
+    addPanels(out);
     return out;
   }
 
@@ -318,7 +352,7 @@ export function installScripting(page, hooks) {
       await hooks.trails();
       for (let i = 0; i < 3 && !page.trailsResult; i++) await hooks.trails();
     }
-    return currentResults();
+    return currentResultsInSteps();
   }
 
   window.residuary = {
@@ -330,6 +364,6 @@ export function installScripting(page, hooks) {
     /** What each shown panel computed, keyed by task. */
     results: currentResults,
     /** Resolves when whatever is computing now has finished (with results()). */
-    settled: async () => { await hooks.started; await hooks.pipeline.settled(); await hooks.integral.ensure(); return currentResults(); },
+    settled: async () => { await hooks.started; await hooks.pipeline.settled(); await hooks.integral.ensure(); return currentResultsInSteps(); },
   };
 }

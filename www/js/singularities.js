@@ -18,7 +18,8 @@ export function itemsOf(resp, floor = 0) {
   const items = [];
   const pts = (list) => (Array.isArray(list) ? list : []);
   const pp = (p) => (Array.isArray(p.principal_part) ? p.principal_part.filter(isFinitePair) : []);
-  for (const p of pts(resp.poles)) items.push({ kind: 'pole', at: p.at, order: p.order, residue: p.residue, error: p.error_estimate, principal: pp(p) });
+  const method = resp.method; // 'rational' or 'numerical': which method produced each point
+  for (const p of pts(resp.poles)) items.push({ kind: 'pole', at: p.at, order: p.order, residue: p.residue, error: p.error_estimate, principal: pp(p), method });
   for (const z of pts(resp.zeros)) items.push({ kind: 'zero', at: z.at, order: z.order, error: z.error_estimate });
   for (const e of pts(resp.essential)) {
     const at = Array.isArray(e) ? e : e.at;
@@ -43,9 +44,10 @@ function coversUnitDisc(contour) {
 }
 
 /** A conditional transfer-function reading of the poles found, only for the variable s
- *  (continuous time: Re s > 0 is unstable) or z (discrete time: |z| > 1 is unstable).
+ *  (continuous time: Re s > 0 is unstable) or z (discrete time: |z| > 1 is unstable, and only
+ *  when f is rational in z, `method` 'rational': z is also the default variable of any f).
  *  Returns {title, text} or null for any other variable. */
-export function stabilityReading(variable, items, contour) {
+export function stabilityReading(variable, items, contour, method = 'rational') {
   const poles = items.filter((it) => it.kind === 'pole');
   const tol = (p) => 1e-9 * Math.max(1, cAbs(p.at));
   const n = poles.length;
@@ -63,7 +65,7 @@ export function stabilityReading(variable, items, contour) {
     text += `Only the searched region (${where}) was examined: a pole outside it would be missed, and the right half-plane never fits in a finite region, so widen the region to be sure.`;
     return { title: 'Read as a continuous-time transfer function H(s)', text };
   }
-  if (variable === 'z') {
+  if (variable === 'z' && method === 'rational') {
     const outside = poles.filter((p) => cAbs(p.at) > 1 + tol(p)).length;
     const onCircle = poles.filter((p) => Math.abs(cAbs(p.at) - 1) <= tol(p)).length;
     const largest = n ? Math.max(...poles.map((p) => cAbs(p.at))) : NaN;
@@ -114,43 +116,107 @@ function complexCell(z, floor = 0) {
   return td;
 }
 
-/** Fill the table body; `onPick(i)` when a row is chosen. */
-export function fillTable(tbody, items, onPick) {
+/** Rows the table shows at a time: a page of this many rows is built in well under 50 ms, so a
+ *  search with thousands of points never stalls the page (the markers show them all). */
+export const TABLE_PAGE = 100;
+/** Rows put in per task while a page is built. */
+const ROW_CHUNK = 10;
+
+/** The winding-number cell of row `tr`: `k` an integer, null (the point is on the contour) or
+ *  undefined (not known). */
+function windingCell(tr, k) {
+  const cell = tr.querySelector('td.winding');
+  if (!cell) return;
+  cell.textContent = k === null || k === undefined ? (k === null ? 'on it' : '—') : String(k).replace('-', '−');
+  cell.title = k === null ? 'The point lies on the contour' : '';
+  tr.dataset.winding = k === null || k === undefined ? '' : String(k);
+}
+
+/** The winding-number column: `w[i]` for row i (kept on the body for the rows of other pages). */
+export function showWindings(tbody, w) {
+  tbody.windings = w;
+  for (const tr of tbody.querySelectorAll('tr[data-index]')) windingCell(tr, w[Number(tr.dataset.index)]);
+}
+
+/** One row of the table for item `it` at index `i` (its winding from `windings`, when known). */
+function tableRow(it, i, onPick, windings) {
+  const tr = el('tr', { tabindex: 0, 'data-index': i, 'data-kind': it.kind, 'data-at': JSON.stringify(it.at),
+    'data-residue': isFinitePair(it.residue) ? JSON.stringify(it.residue) : null, title: 'Show the principal part and Laurent coefficients' },
+    complexCell(it.at, it.floor),
+    el('td', { class: 'kind' }, markerIcon(it.kind), ' ' + KIND_WORDS[it.kind]),
+    el('td', { class: 'num', text: it.order === undefined || it.order === null ? '—' : String(it.order) }),
+    complexCell(it.residue),
+    el('td', { class: 'num', text: Number.isFinite(it.error) ? fmtReal(it.error, 2) : '—' }),
+    el('td', { class: 'num winding', text: '—' }));
+  if (windings) windingCell(tr, windings[i]);
+  tr.addEventListener('click', () => onPick(i));
+  tr.addEventListener('keydown', (e) => { if (e.key === 'Enter' || e.key === ' ') { e.preventDefault(); onPick(i); } });
+  return tr;
+}
+
+/** Fill the table body, TABLE_PAGE rows at a time, with Previous / Next below it in `pager`
+ *  (an element, or null); `onPick(i)` when a row is chosen. The body keeps its pager as
+ *  `tbody.pager` ({page, pages, show(p), showRowOf(i)}). Resolves once the first page is in. */
+export function fillTable(tbody, items, onPick, pager = document.getElementById('sing-pager')) {
   tbody.textContent = '';
+  if (pager) { pager.textContent = ''; pager.hidden = true; }
+  tbody.pager = null;
+  tbody.windings = null;
   if (items.length === 0) {
     tbody.append(el('tr', { class: 'empty' }, el('td', { colspan: 6, text: 'No poles, zeros or other special points were found in the region.' })));
-    return;
+    return Promise.resolve(true);
   }
-  items.forEach((it, i) => {
-    const tr = el('tr', { tabindex: 0, 'data-index': i, 'data-kind': it.kind, 'data-at': JSON.stringify(it.at),
-      'data-residue': isFinitePair(it.residue) ? JSON.stringify(it.residue) : null, title: 'Show the principal part and Laurent coefficients' },
-      complexCell(it.at, it.floor),
-      el('td', { class: 'kind' }, markerIcon(it.kind), ' ' + KIND_WORDS[it.kind]),
-      el('td', { class: 'num', text: it.order === undefined || it.order === null ? '—' : String(it.order) }),
-      complexCell(it.residue),
-      el('td', { class: 'num', text: Number.isFinite(it.error) ? fmtReal(it.error, 2) : '—' }),
-      el('td', { class: 'num winding', text: '—' }));
-    tr.addEventListener('click', () => onPick(i));
-    tr.addEventListener('keydown', (e) => { if (e.key === 'Enter' || e.key === ' ') { e.preventDefault(); onPick(i); } });
-    tbody.append(tr);
-  });
+  const pages = Math.ceil(items.length / TABLE_PAGE);
+  const state = { page: 0, pages };
+  const label = el('span', { class: 'pager-label', 'aria-live': 'polite' });
+  const prev = el('button', { type: 'button', class: 'small', id: 'sing-prev', text: 'Previous rows' });
+  const next = el('button', { type: 'button', class: 'small', id: 'sing-next', text: 'Next rows' });
+  let generation = 0;
+  /** Show page `p`; its rows go in ROW_CHUNK at a time, one task each (resolves when all are in). */
+  state.show = (p) => {
+    const gen = ++generation;
+    state.page = Math.max(0, Math.min(pages - 1, p));
+    const from = state.page * TABLE_PAGE, to = Math.min(items.length, from + TABLE_PAGE);
+    tbody.textContent = '';
+    label.textContent = `Rows ${from + 1}–${to} of ${items.length}`;
+    prev.disabled = state.page === 0;
+    next.disabled = state.page === pages - 1;
+    if (pager) pager.dataset.page = String(state.page);
+    const put = (a) => {
+      const rows = document.createDocumentFragment();
+      for (let i = a; i < Math.min(to, a + ROW_CHUNK); i++) rows.append(tableRow(items[i], i, onPick, tbody.windings));
+      tbody.append(rows);
+    };
+    put(from);
+    if (from + ROW_CHUNK >= to) return Promise.resolve(true);
+    return new Promise((resolve) => {
+      let a = from + ROW_CHUNK;
+      const step = () => {
+        if (gen !== generation) { resolve(false); return; }
+        put(a);
+        a += ROW_CHUNK;
+        if (a < to) setTimeout(step, 0); else resolve(true);
+      };
+      setTimeout(step, 0);
+    });
+  };
+  /** Show the page holding row `i`. */
+  state.showRowOf = (i) => { const p = Math.floor(i / TABLE_PAGE); return p !== state.page ? state.show(p) : Promise.resolve(true); };
+  prev.addEventListener('click', () => state.show(state.page - 1));
+  next.addEventListener('click', () => state.show(state.page + 1));
+  tbody.pager = state;
+  if (pager && pages > 1) {
+    pager.append(prev, label, next);
+    pager.hidden = false;
+  }
+  return state.show(0);
 }
 
-/** The winding-number column: `w[i]` for row i (an integer, or null: on the contour). */
-export function showWindings(tbody, w) {
-  for (const tr of tbody.querySelectorAll('tr[data-index]')) {
-    const cell = tr.querySelector('td.winding');
-    const k = w[Number(tr.dataset.index)];
-    if (!cell) continue;
-    cell.textContent = k === null || k === undefined ? (k === null ? 'on it' : '—') : String(k).replace('-', '−');
-    cell.title = k === null ? 'The point lies on the contour' : '';
-    tr.dataset.winding = k === null || k === undefined ? '' : String(k);
-  }
-}
-
-/** Mark the chosen row. */
+/** Mark the chosen row (turning to its page first). */
 export function highlightRow(tbody, index) {
-  for (const tr of tbody.querySelectorAll('tr')) tr.classList.toggle('picked', Number(tr.dataset.index) === index);
+  const mark = () => { for (const tr of tbody.querySelectorAll('tr')) tr.classList.toggle('picked', Number(tr.dataset.index) === index); };
+  if (tbody.pager) tbody.pager.showRowOf(index).then(mark);
+  mark();
 }
 
 /** Radius for the Laurent annulus: half the distance to the nearest other singular point,
@@ -224,6 +290,12 @@ export function principalPartMathML(variable, z0, coefficients, level, more, flo
   return math;
 }
 
+/** Which method produced a pole's principal part, as the detail's label says it. */
+export function principalPartSource(method) {
+  if (method === 'rational') return 'Principal part (from the partial fractions of the rational function: exact in form, the poles are polynomial roots to about double precision):';
+  return 'Principal part (numerical: Laurent coefficients by the trapezoidal rule on circles around the point, from the search):';
+}
+
 /** Fill the detail box for one item from a laurent response. */
 export function showDetail(parts, variable, item, response, annulus) {
   const radius = annulus.radius;
@@ -237,15 +309,17 @@ export function showDetail(parts, variable, item, response, annulus) {
   const est = !err && Number.isFinite(response.error_estimate) ? response.error_estimate : 0;
   const biggest = Math.max(0, ...coeffs.filter((t) => isFinitePair(t.c)).map((t) => cAbs(t.c)));
   const level = Math.max(10 * est, 1e-13 * biggest);
+  // The search's own principal part (a pole): say which method produced it.
   const exact = item.kind === 'pole' && Array.isArray(item.principal) && item.principal.length > 0;
   const notes = [];
   if (item.kind === 'zero' || item.kind === 'removable') {
     parts.math.append(el('p', { class: 'detail-label', text: `No principal part: f is analytic at a ${KIND_WORDS[item.kind]}.` }));
   } else if (exact) {
-    // Rational f: the core's exact partial-fraction principal part.
+    // The search's principal part: partial fractions for a rational f, trapezoidal Laurent
+    // coefficients on circles around the point for any other f.
     const ppLevel = Math.max(10 * (Number.isFinite(item.error) ? item.error : 0), 1e-15 * Math.max(...item.principal.map(cAbs)));
     const pp = item.principal.map((c, k) => ({ n: -(k + 1), c }));
-    parts.math.append(el('p', { class: 'detail-label', text: 'Principal part (from the exact analysis of the rational function):' }),
+    parts.math.append(el('p', { class: 'detail-label', 'data-method': item.method || '', text: principalPartSource(item.method) }),
       principalPartMathML(variable, item.at, pp, ppLevel, false, item.floor));
   } else if (!err) {
     parts.math.append(el('p', { class: 'detail-label', text: item.kind === 'essential'

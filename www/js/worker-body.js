@@ -1,7 +1,8 @@
 // Worker side of the engine (a classic script; the build puts the wasm glue,
 // as `wasmGlue`, in front of it and starts it from a Blob URL).
 // Messages in:  {type:'init', module} | {type:'run', id, request} | {type:'plot', id, request, bands}
-// Messages out: {type:'ready', version} | {type:'init-error', message} | {type:'result', id, response}
+// Messages out: {type:'ready', version} | {type:'init-error', message} | {type:'result', id, json} (the
+//               response as JSON text; {…, response} when it cannot be written as JSON)
 //               {type:'band', id, rows, width, rgba} | {type:'plot-done', id} | {type:'plot-error', id, error}
 /* global wasmGlue */
 let latestPlot = -1;
@@ -28,7 +29,12 @@ self.onmessage = async (event) => {
     } catch (e) {
       response = { error: errorOf(e) };
     }
-    self.postMessage({ type: 'result', id: msg.id, response });
+    // As JSON text: one string crosses to the page and is parsed there in a few milliseconds,
+    // where a structured clone of a large answer (thousands of poles) is slow to unpack.
+    let json = null;
+    try { json = JSON.stringify(response); } catch (e) { json = null; }
+    if (json !== null) self.postMessage({ type: 'result', id: msg.id, json });
+    else self.postMessage({ type: 'result', id: msg.id, response });
   } else if (msg.type === 'plot') {
     latestPlot = msg.id;
     for (const rows of msg.bands) {

@@ -83,14 +83,27 @@ export function markerScreenPoint(plot, m) {
   return toScreen(plot, p[0], p[1]);
 }
 
+/** Above this many markers, a marker whose kind was already drawn within the same
+ *  MARKER_CELL-pixel cell is skipped: thousands of poles on a small circle would otherwise be
+ *  drawn on top of each other (a marker is 12 pixels wide), one frame taking far over 50 ms. */
+export const MARKER_THIN_FROM = 300;
+const MARKER_CELL = 4;
+
 /** Every marker in (or just outside) the view, the chosen one ringed, orders above 1 written beside. */
 export function drawMarkers(plot) {
   const ctx = plot.ctx;
+  const thin = plot.markers.length >= MARKER_THIN_FROM;
+  const drawn = thin ? new Set() : null;
   plot.markers.forEach((m, i) => {
     const at = markerScreenPoint(plot, m);
     if (!at) return;
     const [x, y] = at;
     if (x < MARGIN.left - 10 || x > MARGIN.left + plot.pw + 10 || y < MARGIN.top - 10 || y > MARGIN.top + plot.ph + 10) return;
+    if (thin && i !== plot.selected) {
+      const key = `${m.kind}|${m.order}|${Math.round(x / MARKER_CELL)}|${Math.round(y / MARKER_CELL)}`;
+      if (drawn.has(key)) return;
+      drawn.add(key);
+    }
     drawMarker(ctx, m.kind, x, y, i === plot.selected);
     if (m.order > 1) {
       ctx.font = 'bold 12px system-ui, sans-serif';
@@ -278,4 +291,32 @@ export function drawAnnulus(plot) {
   }
   ctx.restore();
   plot.canvas.dataset.annulus = JSON.stringify([c, a.inner, Number.isFinite(a.outer) ? a.outer : null]);
+
+/** Over a picture kept while the typed f is invalid: a band at the top naming the f it shows. */
+export function drawLastValid(plot) {
+  if (!plot.lastValid || !plot.pictureOf) return;
+  const ctx = plot.ctx;
+  ctx.save();
+  ctx.font = '13px system-ui, sans-serif';
+  const text = `Last valid f shown: ${plot.pictureOf}. The typed f has an error.`;
+  const pad = 6;
+  const maxW = plot.pw - 2 * pad;
+  let shown = text;
+  if (ctx.measureText(shown).width > maxW) {
+    while (shown.length > 8 && ctx.measureText(shown + '...').width > maxW) shown = shown.slice(0, -1);
+    shown += '...';
+  }
+  ctx.fillStyle = 'rgba(255,248,230,0.94)';
+  ctx.fillRect(MARGIN.left, MARGIN.top, plot.pw, 24);
+  ctx.strokeStyle = '#b7791f';
+  ctx.lineWidth = 2;
+  ctx.beginPath();
+  ctx.moveTo(MARGIN.left, MARGIN.top + 24);
+  ctx.lineTo(MARGIN.left + plot.pw, MARGIN.top + 24);
+  ctx.stroke();
+  ctx.fillStyle = '#5a3d0c';
+  ctx.textAlign = 'left';
+  ctx.textBaseline = 'middle';
+  ctx.fillText(shown, MARGIN.left + pad, MARGIN.top + 12);
+  ctx.restore();
 }

@@ -4,6 +4,7 @@
 // while panning or zooming the last pictures are moved and scaled at once.
 import { plotBands } from '../engine.js';
 import { toScreen, viewBox } from './view.js';
+import { functionWords } from '../format.js';
 
 const BAND_PIXELS = 40000;
 // Rendering costs per pixel (about 0.5–1.5 µs each in the core), so on high-DPI screens the
@@ -71,6 +72,7 @@ export async function renderPlot(plot, hooks) {
   }
   plot.message = '';
   plot.coarse = coarse;
+  pictureIsOf(plot, base);
   plot.fine = newLayer(W, H, b);
   const fine = plot.fine;
   plot.draw();
@@ -116,7 +118,28 @@ export async function renderLive(plot, hooks) {
   if (gen !== plot.generation || out.stale || out.error) return false;
   plot.message = '';
   plot.coarse = layer;
+  pictureIsOf(plot, base);
   plot.fine = null;
+  plot.draw();
+  return true;
+}
+
+/** The picture now drawn is of `base`'s f: the "last valid f" label, if any, goes. */
+function pictureIsOf(plot, base) {
+  plot.pictureOf = functionWords(base);
+  plot.lastValid = false;
+  plot.canvas.dataset.pictureOf = plot.pictureOf;
+  if (plot.canvas.dataset.lastValid !== undefined) plot.canvas.setAttribute('aria-label', 'Phase plot');
+  delete plot.canvas.dataset.lastValid;
+}
+
+/** The typed f cannot be drawn: keep the last picture, labelled with the f it shows (the label
+ *  stays until a picture of a valid f replaces it). False when there is no picture to keep. */
+export function keepLastValid(plot) {
+  if (!plot.coarse || !plot.pictureOf) return false;
+  plot.lastValid = true;
+  plot.canvas.dataset.lastValid = plot.pictureOf;
+  plot.canvas.setAttribute('aria-label', `Phase plot of the last valid f, ${plot.pictureOf}; the typed f has an error`);
   plot.draw();
   return true;
 }
