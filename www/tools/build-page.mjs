@@ -13,7 +13,9 @@
 // The same glue text, plus www/js/worker-body.js, is kept as a string so the
 // page can start Web Workers from Blob URLs (nothing is fetched, even from file://).
 // No npm dependencies: node's standard library only.
-import { readFileSync, writeFileSync, readdirSync, mkdirSync, existsSync } from 'node:fs';
+import { readFileSync, writeFileSync, readdirSync, mkdirSync, existsSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { spawnSync } from 'node:child_process';
 import { dirname, join, relative, resolve, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { gzipSync } from 'node:zlib';
@@ -188,6 +190,16 @@ const bundle = [
   scriptSafe(glue, 'the wasm glue'),
   scriptSafe(app, 'www/js'),
 ].join('\n');
+
+// The bundle must parse as one module: a brace lost in one file would otherwise swallow the
+// files after it (each file alone parses), and the page would be dead.
+{
+  const probe = join(tmpdir(), `residuary-bundle-${process.pid}.mjs`);
+  writeFileSync(probe, bundle);
+  const check = spawnSync(process.execPath, ['--check', probe], { encoding: 'utf8' });
+  rmSync(probe, { force: true });
+  if (check.status !== 0) fail('the page bundle does not parse:\n' + (check.stderr || '').split('\n').slice(0, 6).join('\n'));
+}
 
 let html = read(join(www, 'index.html'));
 const css = read(join(www, 'style.css'));

@@ -291,6 +291,7 @@ export function drawAnnulus(plot) {
   }
   ctx.restore();
   plot.canvas.dataset.annulus = JSON.stringify([c, a.inner, Number.isFinite(a.outer) ? a.outer : null]);
+}
 
 /** Over a picture kept while the typed f is invalid: a band at the top naming the f it shows. */
 export function drawLastValid(plot) {
