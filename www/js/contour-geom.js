@@ -4,64 +4,27 @@
 // dragging one does (regionHandles, dragRegion). The editor (contour-edit.js), the plot's
 // outline (plot/overlays.js) and the singularities table's winding column use them.
 
+import { sampleContour } from './contour-path.js';
+
 const TWO_PI = 2 * Math.PI;
 
 /** The closed path of a contract contour as plane points (the last joins the first), in the
  *  direction the core integrates: counter-clockwise for circle, ellipse and rectangle; the
- *  vertex order for a polygon. `n` points on a circle or an ellipse. */
+ *  vertex order for a polygon. A rectangle's corners and a polygon's vertices as they are; the
+ *  curved shapes from the one sampler (contour-path.js), `n` points on a circle or an ellipse. */
 export function contourPath(contour, n = 96) {
-  if (contour.shape === 'circle') {
-    const [cx, cy] = contour.center, r = contour.radius;
-    return Array.from({ length: n }, (_, k) => [cx + r * Math.cos((TWO_PI * k) / n), cy + r * Math.sin((TWO_PI * k) / n)]);
-  }
-  if (contour.shape === 'ellipse') {
-    const [cx, cy] = contour.center, [a, b] = contour.semi_axes, t = contour.angle || 0;
-    const c = Math.cos(t), s = Math.sin(t);
-    return Array.from({ length: n }, (_, k) => {
-      const u = a * Math.cos((TWO_PI * k) / n), v = b * Math.sin((TWO_PI * k) / n);
-      return [cx + c * u - s * v, cy + s * u + c * v];
-    });
-  }
+  if (contour.shape === 'circle' || contour.shape === 'ellipse') return sampleContour(contour, n).points;
   if (contour.shape === 'rectangle') {
     const [[ax, ay], [bx, by]] = contour.corners;
     const x0 = Math.min(ax, bx), x1 = Math.max(ax, bx), y0 = Math.min(ay, by), y1 = Math.max(ay, by);
     return [[x0, y0], [x1, y0], [x1, y1], [x0, y1]];
   }
   if (contour.shape === 'polygon') return contour.vertices.map((p) => p.slice());
-  if (contour.shape === 'half_disc') {
-    // the diameter first, then the half circle on the named side, counter-clockwise (contract.md)
-    const [cx, cy] = contour.center, r = contour.radius, phi = DIRECTION_ANGLE[contour.direction] ?? Math.PI / 2;
-    const out = [];
-    const m = Math.max(8, Math.round(n / 4)), k = Math.max(16, n);
-    const a = [cx + r * Math.cos(phi + Math.PI / 2), cy + r * Math.sin(phi + Math.PI / 2)];
-    const b = [cx + r * Math.cos(phi - Math.PI / 2), cy + r * Math.sin(phi - Math.PI / 2)];
-    for (let j = 0; j < m; j++) out.push([a[0] + ((b[0] - a[0]) * j) / m, a[1] + ((b[1] - a[1]) * j) / m]);
-    for (let j = 0; j < k; j++) {
-      const t = phi - Math.PI / 2 + (Math.PI * j) / k;
-      out.push([cx + r * Math.cos(t), cy + r * Math.sin(t)]);
-    }
-    return out;
-  }
-  if (contour.shape === 'keyhole') {
-    // out along the slit's edge on the side of increasing angle, counter-clockwise round the outer
-    // circle, back in along the other edge, clockwise round the inner circle (contract.md)
-    const [cx, cy] = contour.center, r1 = contour.inner, r2 = contour.outer, th = contour.angle || 0;
-    const g = contour.gap === undefined ? 0.001 * r1 : contour.gap;
-    const d1 = Math.asin(Math.min(1, g / r1)), d2 = Math.asin(Math.min(1, g / r2));
-    const at = (r, t) => [cx + r * Math.cos(t), cy + r * Math.sin(t)];
-    const out = [];
-    const m = Math.max(6, Math.round(n / 8)), k2 = Math.max(16, n), k1 = Math.max(12, Math.round(n / 2));
-    // the edges are straight: points at distance g from the ray
-    const edge = (side, from, to) => {
-      const ux = Math.cos(th), uy = Math.sin(th), vx = -uy * side * g, vy = ux * side * g;
-      const s0 = Math.sqrt(Math.max(0, from * from - g * g)), s1 = Math.sqrt(Math.max(0, to * to - g * g));
-      for (let j = 0; j < m; j++) { const s = s0 + ((s1 - s0) * j) / m; out.push([cx + s * ux + vx, cy + s * uy + vy]); }
-    };
-    edge(1, r1, r2);
-    for (let j = 0; j < k2; j++) out.push(at(r2, th + d2 + ((2 * Math.PI - 2 * d2) * j) / k2));
-    edge(-1, r2, r1);
-    for (let j = 0; j < k1; j++) out.push(at(r1, th + 2 * Math.PI - d1 - ((2 * Math.PI - 2 * d1) * j) / k1));
-    return out;
+  // the curved shapes: the one sampler of the contract's shapes (contour-path.js), points spread
+  // by arc length, about n on a full turn
+  if (contour.shape === 'half_disc' || contour.shape === 'keyhole') {
+    const sampled = sampleContour(contour, Math.round(1.6 * n));
+    return sampled ? sampled.points : [];
   }
   return [];
 }
@@ -107,6 +70,14 @@ export function pathWinding(path, p, tol = 0) {
     total += Math.atan2(ax * by - ay * bx, ax * bx + ay * by);
   }
   return Math.round(total / TWO_PI);
+}
+
+/** The winding number about p of a closed polyline of computed values ([[re, im], …], the image
+ *  curve f(γ)): pathWinding, and null when a value is not finite or the curve passes through p. */
+export function windingAbout(values, p) {
+  if (!values.every((v) => Number.isFinite(v[0]) && Number.isFinite(v[1]))) return null;
+  const w = pathWinding(values, p, 0);
+  return w === null ? null : w || 0; // never −0
 }
 
 /** The winding number of a contract contour about p, as the core integrates it (see

@@ -98,16 +98,3 @@ export function contourPointAt(contour, t) {
   }
   return null;
 }
-
-/** The winding number of the closed polyline `values` ([[re, im], …]) about p by the angle sum;
- *  null when the curve passes through p or is not finite. */
-export function windingAbout(values, p) {
-  let total = 0;
-  for (let k = 0; k < values.length; k++) {
-    const a = values[k], b = values[(k + 1) % values.length];
-    const ar = a[0] - p[0], ai = a[1] - p[1], br = b[0] - p[0], bi = b[1] - p[1];
-    if (![ar, ai, br, bi].every(Number.isFinite) || (ar === 0 && ai === 0)) return null;
-    total += Math.atan2(ar * bi - ai * br, ar * br + ai * bi);
-  }
-  return Math.round(total / (2 * Math.PI)) || 0; // never −0
-}

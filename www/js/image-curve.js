@@ -8,7 +8,8 @@
 import { $ } from './dom.js';
 import { runNow, responseError } from './engine.js';
 import { drawPolarChart } from './polar-chart.js';
-import { sampleContour, windingAbout } from './contour-path.js';
+import { sampleContour } from './contour-path.js';
+import { windingAbout } from './contour-geom.js';
 import { toScreen } from './plot/view.js';
 import { fmtComplex } from './format.js';
 
