@@ -2402,4 +2402,16 @@ describe('state that never lies, readable progress, layout', () => {
       assert.deepEqual(b.log.errors, []);
     });
   }
+
+  test('a discrete-time reading only where it applies: Γ(z) gets no inverse z-transform section, a rational X(z) does', async () => {
+    await load(b.page);
+    const g = await scriptSet(b.page, { f: 'gamma(z)', var: 'z', params: {} });
+    assert.ok(g.ok || (g.error && g.error.code), JSON.stringify(g.error));
+    assert.equal(await b.page.isHidden('#inv-box'), true, 'no inverse z-transform section for gamma(z)');
+    // X(z) = z/(z − 0.5) ↔ x[n] = 0.5^n (z-transform tables, from memory)
+    const r = await scriptSet(b.page, { f: 'z/(z-0.5)', var: 'z', params: {}, panels: { inverse: true } });
+    assert.ok(r.ok, JSON.stringify(r.error));
+    assert.equal(await b.page.isHidden('#inv-box'), false);
+    r.results.inverse_z.x.forEach((x, n) => assert.ok(Math.abs(x - Math.pow(0.5, n)) < 1e-12, `x[${n}] = ${x}`));
+  });
 });

@@ -182,14 +182,19 @@ export function currentInverseSpan(page, variable) {
   return kind ? inverseSpan(page, kind) : null;
 }
 
-/** After a search: show the section for s or z, in words fitting the variable, open or folded. */
-export function prepareInverse(page, base) {
+/** After a search: show the section for s (any f) or z (a rational f, or when asked), in words
+ *  fitting the variable, open or folded; `rational` says whether the search found f rational. */
+export function prepareInverse(page, base, rational = true) {
   const inv = page.ui.inv;
   const kind = inverseKind(base.var);
   const box = inv.box;
   const wasVar = box.dataset.var;
-  box.hidden = !kind;
-  if (!kind) { page.inverseOpenNext = null; return; }
+  // For z the section is a discrete-time reading: shown when f is rational, or when asked for
+  // (set() with panels.inverse, an example); Γ(z) and other functions of z do not get it.
+  const asked = inverseSection.forceOpen === true || page.inverseOpenNext === true;
+  const applies = kind === 'laplace' || (kind === 'z' && (rational || asked));
+  box.hidden = !applies;
+  if (!applies) { page.inverseOpenNext = null; inverseSection.forceOpen = null; return; }
   if (wasVar !== base.var && inverseSection.keepSpanFor !== base.var) inverseSection.spanTyped = false;
   inverseSection.keepSpanFor = null;
   // Open for s; for z folded unless the chosen example is a transfer function (or the user opened it).

@@ -259,7 +259,7 @@ export function createPipeline(page, hooks) {
       page.readingOpenNext = null;
       ui.stabilityBox.dataset.var = base.var;
     }
-    prepareInverse(page, base);
+    prepareInverse(page, base, resp.method === 'rational');
     // The contour integral three ways, then the argument-principle count (still cancellable by Stop).
     contourStatus(ui.ci, 'Computing the contour integral three ways…', 'busy');
     stage('integral', 'Computing the contour integral three ways:');
