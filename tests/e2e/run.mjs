@@ -2202,6 +2202,29 @@ describe('contours drawn and dragged on the plot', () => {
     await b.page.screenshot({ path: join(artifacts, 'contour-drag-polygon.png') });
     assert.deepEqual(b.log.errors, []);
   });
+
+  test('the indented imaginary axis: the right half-disc indented around the poles on the axis', async () => {
+    // F = (s + 1)/((s² + 4)(s − 1)): poles ±2i on the axis (kept outside by the indentations), −1 on
+    // the left and 1 on the right, residue there (1 + 1)/(1 + 4) = 0.4 (cover-up rule, by hand), so
+    // the integral is 2πi · 0.4 and the right-half-plane count is one pole.
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: '(s+1)/((s^2+4)*(s-1))', var: 's', params: {}, view: [-3, 3, -3, 3] });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    await b.page.selectOption('#region-shape', 'polygon');
+    await b.page.click('#poly-indented');
+    const r = await b.page.evaluate(() => window.residuary.settled());
+    const st = await scriptState(b.page);
+    assert.equal(st.region.shape, 'polygon');
+    const vs = st.region.vertices;
+    assert.ok(vs.every(([x]) => x >= 0), 'every vertex in the closed right half-plane');
+    for (const y of [2, -2]) assert.ok(vs.some(([x, yy]) => x > 0 && Math.abs(yy - y) < 1e-9), `an indentation around ${y}i`);
+    const ci = r.contour_integral;
+    assert.ok(Math.hypot(ci.value[0], ci.value[1] - 2 * Math.PI * 0.4) < 1e-9, JSON.stringify(ci.value));
+    // searched over that region: only the pole at 1 is inside, winding once; the count N − P = −1
+    assert.deepEqual(r.singularities.poles.map((p) => p.at), [[1, 0]]);
+    assert.deepEqual(r.singularities.windings.map((e) => e.winding), [1]);
+    assert.equal(r.argument_count.zeros_minus_poles, -1);
+  });
 });
 
 describe('state that never lies, readable progress, layout', () => {

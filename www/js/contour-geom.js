@@ -239,3 +239,24 @@ export function dragRegion(start, grab, p0, p) {
   if (r.mode === 'polygon' && id.startsWith('vertex')) r.polygon[Number(id.slice(7))] = p.slice();
   return r;
 }
+
+/** The indented imaginary axis as a closed polygon: the boundary of the right half-disc |s| < R,
+ *  Re s > 0, taken counter-clockwise (the arc from −iR through R to iR, then down the axis), with a
+ *  small half circle of radius `eps` into the right half-plane around each axis point i·y in `ys`
+ *  (the poles on the axis stay outside the region). The contour of the stability count in s
+ *  (common practice), as vertices: `arcSteps` on the large arc, `indentSteps` on each indentation. */
+export function indentedAxisPolygon(R, ys, eps, arcSteps = 40, indentSteps = 8) {
+  const out = [];
+  for (let j = 0; j <= arcSteps; j++) {
+    const t = -Math.PI / 2 + (Math.PI * j) / arcSteps;
+    out.push([R * Math.cos(t), R * Math.sin(t)]);
+  }
+  const inside = ys.filter((y) => Math.abs(y) < R - 2 * eps).sort((a, b) => b - a);
+  for (const y of inside) {
+    for (let j = 0; j <= indentSteps; j++) {
+      const t = Math.PI / 2 - (Math.PI * j) / indentSteps;
+      out.push([eps * Math.cos(t), y + eps * Math.sin(t)]);
+    }
+  }
+  return out.map(([x, y]) => [Math.abs(x) < 1e-15 * R ? 0 : x, y]);
+}

@@ -4,7 +4,9 @@
 // coordinates and the reverse control). Drawing and dragging it on the plot: contour-edit.js.
 import { $ } from './dom.js';
 import { fmtComplex, fmtReal } from './format.js';
-import { contourSize, signedArea2 } from './contour-geom.js';
+import { contourSize, signedArea2, indentedAxisPolygon } from './contour-geom.js';
+import { rationalAnalysis } from './fit.js';
+import { functionInput } from './params.js';
 
 /** The shapes of the select, in its order: the page's mode and the contract's shape. */
 export const REGION_SHAPES = [
@@ -206,6 +208,28 @@ export function createRegionEditor(page, changed) {
     edited();
   };
   for (const id of FIELDS.keyhole) $(id).addEventListener('change', keyholeTyped);
+  // The indented imaginary axis (contour-geom.js indentedAxisPolygon): the right half-disc of
+  // radius R reaching to the view's edge (or 1.5 × the largest pole found), indented by ε around
+  // every pole on the axis (all of a rational f's, else those the last search found); set as the
+  // polygon, to edit like any other.
+  $('poly-indented').addEventListener('click', async () => {
+    const v = zView();
+    // the poles: every finite pole of a rational f (its partial fractions), else those the last search found
+    const known = page.exprOk ? await rationalAnalysis(functionInput(state)) : null;
+    const items = known && known.rational ? known.poles.map((at) => ({ kind: 'pole', at }))
+      : ((page.found && page.found.items) || []).filter((it) => it.kind === 'pole');
+    const onAxis = items.filter((it) => Math.abs(it.at[0]) <= 1e-9 * Math.max(1, Math.hypot(...it.at))).map((it) => it.at[1]);
+    const fromView = Math.min(v[1], v[3], -v[2]);
+    const largest = Math.max(0, ...items.map((it) => Math.hypot(...it.at)));
+    const R = fromView > 0 ? 0.95 * fromView : largest > 0 ? 1.5 * largest : 1;
+    const sorted = onAxis.slice().sort((a, b) => a - b);
+    const gap = sorted.slice(1).reduce((m, y, k) => Math.min(m, y - sorted[k]), Infinity);
+    const eps = Math.min(0.03 * R, 0.3 * gap);
+    state.region.polygon = indentedAxisPolygon(R, onAxis, eps).map(([x, y]) => [Number(x.toPrecision(10)), Number(y.toPrecision(10))]);
+    state.region.mode = 'polygon';
+    state.region.reversed = false;
+    edited(true);
+  });
   $('poly-vertices').addEventListener('change', () => {
     const vs = parseVertices($('poly-vertices').value);
     $('poly-vertices').setAttribute('aria-invalid', vs ? 'false' : 'true');
