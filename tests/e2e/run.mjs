@@ -102,6 +102,19 @@ const view = (page) => page.evaluate(() => JSON.parse(decodeURIComponent(locatio
 
 /** The scripting interface (docs/scripting.md): set resolves {ok, results} or {ok: false, error}. */
 const scriptSet = (page, st) => page.evaluate((st) => window.residuary.set(st).then((results) => ({ ok: true, results }), (error) => ({ ok: false, error })), st);
+
+/** The plot's transform (plot/view.js: MARGIN left 54, right 10, top 8) from the state's view. */
+async function plotMap(page) {
+  await page.locator('#plot').scrollIntoViewIfNeeded();
+  const m = await page.evaluate(() => {
+    const r = document.getElementById('plot').getBoundingClientRect();
+    const v = window.residuary.state().view;
+    return { left: r.left + 54, top: r.top + 8, x0: v[0], y1: v[3], scale: (v[1] - v[0]) / (r.width - 54 - 10) };
+  });
+  m.toPx = (p) => [m.left + (p[0] - m.x0) / m.scale, m.top + (m.y1 - p[1]) / m.scale];
+  m.toPlane = (q) => [m.x0 + (q[0] - m.left) * m.scale, m.y1 - (q[1] - m.top) * m.scale];
+  return m;
+}
 const scriptState = (page) => page.evaluate(() => window.residuary.state());
 const scriptResults = (page) => page.evaluate(() => window.residuary.results());
 
@@ -1113,17 +1126,6 @@ describe('moving poles and zeros, pole trails', () => {
   before(async () => { b = await openBrowser(); });
   after(async () => { if (b) await b.close(); });
 
-  /** The plot's transform (plot/view.js: MARGIN left 54, right 10, top 8) from the state's view. */
-  async function plotMap(page) {
-    const m = await page.evaluate(() => {
-      const r = document.getElementById('plot').getBoundingClientRect();
-      const v = window.residuary.state().view;
-      return { left: r.left + 54, top: r.top + 8, x0: v[0], y1: v[3], scale: (v[1] - v[0]) / (r.width - 54 - 10) };
-    });
-    m.toPx = (p) => [m.left + (p[0] - m.x0) / m.scale, m.top + (m.y1 - p[1]) / m.scale];
-    m.toPlane = (q) => [m.x0 + (q[0] - m.left) * m.scale, m.y1 - (q[1] - m.top) * m.scale];
-    return m;
-  }
 
   async function dragMouse(page, from, to, frames = 20) {
     await page.mouse.move(from[0], from[1]);
@@ -1944,18 +1946,6 @@ describe('contours drawn and dragged on the plot', () => {
   before(async () => { core = await nodeCore(); b = await openBrowser({ width: 1400, height: 1000 }); });
   after(async () => { if (b) await b.close(); });
 
-  /** The plot's transform (plot/view.js: MARGIN left 54, right 10, top 8) from the state's view. */
-  async function plotMap(page) {
-    await page.locator('#plot').scrollIntoViewIfNeeded();
-    const m = await page.evaluate(() => {
-      const r = document.getElementById('plot').getBoundingClientRect();
-      const v = window.residuary.state().view;
-      return { left: r.left + 54, top: r.top + 8, x0: v[0], y1: v[3], scale: (v[1] - v[0]) / (r.width - 54 - 10) };
-    });
-    m.toPx = (p) => [m.left + (p[0] - m.x0) / m.scale, m.top + (m.y1 - p[1]) / m.scale];
-    m.toPlane = (q) => [m.x0 + (q[0] - m.left) * m.scale, m.y1 - (q[1] - m.top) * m.scale];
-    return m;
-  }
 
   /** Press at `from` (plane), move to `to` in steps, wait for the live integral, let go; settle. */
   async function drag(page, m, from, to, frames = 12, fn = { f: F, params: {} }) {
