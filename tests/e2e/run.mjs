@@ -2428,3 +2428,200 @@ describe('state that never lies, readable progress, layout', () => {
     r.results.inverse_z.x.forEach((x, n) => assert.ok(Math.abs(x - Math.pow(0.5, n)) < 1e-12, `x[${n}] = ${x}`));
   });
 });
+
+describe('export and copy', () => {
+  // The exports read back by independent readers: Pillow for the PNG and the SVG's picture,
+  // Python's csv and json modules for the tables (tests/e2e/export_check.py), compared with the
+  // core's own pixels (phase_plot "rgba") and with window.residuary.results().
+  const { execFileSync } = require('node:child_process');
+  const checker = join(here, 'export_check.py');
+  let python = null;
+  try { execFileSync('python3', ['-c', 'import PIL, csv, json'], { stdio: 'ignore' }); python = 'python3'; } catch (e) { python = null; }
+  const py = (...args) => JSON.parse(execFileSync(python, [checker, ...args], { encoding: 'utf-8', maxBuffer: 64 << 20 }));
+  const F = '(z^2 - 2)/((z - 0.5)*(z^2 + 2*z + 5))';
+  let b, dir;
+  before(async () => {
+    dir = mkdtempSync(join(tmpdir(), 'residuary-export-'));
+    b = await openBrowser({ width: 1280, height: 1000 });
+    await load(b.page);
+    const r = await scriptSet(b.page, { f: F, var: 'z', params: {}, view: [-3, 3, -3, 3], region: 'view' });
+    assert.ok(r.ok, JSON.stringify(r.error));
+    await plotDone(b.page);
+  });
+  after(async () => { if (b) await b.close(); if (dir) rmSync(dir, { recursive: true, force: true }); });
+  const file = (name, data) => { const p = join(dir, name); writeFileSync(p, data); return p; };
+  const b64 = (s) => Buffer.from(s, 'base64');
+
+  test('PNG: the core\'s picture at 2× and at 300×200, decoded by Pillow, equals the core\'s RGBA pixels', { skip: !python && 'no python3 with Pillow' }, async () => {
+    for (const o of [{ scale: 2, axes: false, overlay: false }, { width: 300, height: 200, axes: false, overlay: false }]) {
+      const got = await b.page.evaluate((o) => Promise.all([window.residuary.export.png(o), window.residuary.export.pixels(o)]), o);
+      const [png, px] = got;
+      assert.ok(!png.error && !px.error, JSON.stringify(got).slice(0, 300));
+      if (o.width) { assert.equal(png.width, 300); assert.equal(png.height, 200); }
+      const check = py('png', file('plain.png', b64(png.png)), file('plain.rgba', b64(px.rgba)), String(px.width), String(px.height), '0', '0', '0');
+      // Pillow 11 Image.open: the file's size is the picture's
+      assert.deepEqual(check.size, [px.width, px.height]);
+      assert.equal(check.compared, px.width * px.height);
+      assert.equal(check.different, 0, `${check.different} pixels differ (max ${check.max_delta})`);
+    }
+  });
+
+  test('PNG with axes and overlay: the picture sits inside the margins unchanged; the markers are drawn over it', { skip: !python && 'no python3 with Pillow' }, async () => {
+    const o = { scale: 2, axes: true, overlay: false };
+    const [png, px, plot] = await b.page.evaluate((o) => Promise.all([window.residuary.export.png(o), window.residuary.export.pixels(o),
+      (() => { const r = document.getElementById('plot').getBoundingClientRect(); return { w: r.width, h: r.height }; })()]), o);
+    // plot/view.js MARGIN: left 54, top 8; the frame line is drawn over the picture's edge pixels
+    // plot/axes.js draws the zero lines over the picture: x = 0 and y = 0 of the view, in picture pixels
+    const [x0, x1, y0, y1] = px.view;
+    const lines = `x=${(0 - x0) / (x1 - x0) * px.width},y=${(y1 - 0) / (y1 - y0) * px.height}`;
+    const check = py('png', file('axes.png', b64(png.png)), file('axes.rgba', b64(px.rgba)), String(px.width), String(px.height), String(54 * 2), String(8 * 2), '3', lines);
+    assert.deepEqual(check.size, [Math.round(plot.w * 2), Math.round(plot.h * 2)]);
+    assert.ok(check.different > 0, 'no zero lines drawn');
+    assert.equal(check.off_lines, 0, `${check.off_lines} of ${check.compared} pixels differ away from the zero lines (max ${check.max_delta})`);
+    const over = await b.page.evaluate(() => window.residuary.export.png({ scale: 2, axes: true, overlay: true }));
+    const marked = py('png', file('over.png', b64(over.png)), file('axes.rgba', b64(px.rgba)), String(px.width), String(px.height), String(54 * 2), String(8 * 2), '3');
+    assert.ok(marked.different > 200, `the overlay changed only ${marked.different} pixels`);
+  });
+
+  test('SVG: vector overlay and axes, the picture inside as a PNG that Pillow decodes at the plot\'s size', { skip: !python && 'no python3 with Pillow' }, async () => {
+    const r = await b.page.evaluate(() => window.residuary.export.svg({ scale: 1, axes: true, overlay: true, picture: true }));
+    assert.ok(!r.error, JSON.stringify(r.error));
+    const s = py('svg', file('plot.svg', r.svg));
+    assert.equal(s.root, '{http://www.w3.org/2000/svg}svg');
+    assert.equal(Number(s.width), r.width);
+    const pw = r.width - 54 - 10, ph = r.height - 8 - 34; // plot/view.js MARGIN
+    assert.deepEqual(s.image.size, [pw, ph]);
+    assert.ok(Math.abs(s.image.width - pw) < 1e-6 && Math.abs(s.image.height - ph) < 1e-6);
+    // three poles (0.5, −1 ± 2i) and two zeros (±√2): one marker path or more each, plus the contour, frame and ticks
+    assert.ok(s.paths >= 10, `${s.paths} paths`);
+    assert.ok(s.texts.some((t) => /Re/.test(t)) && s.texts.some((t) => /Im/.test(t)), JSON.stringify(s.texts));
+    const bare = await b.page.evaluate(() => window.residuary.export.svg({ axes: false, picture: false }));
+    assert.ok(!/<image/.test(bare.svg) && /<path/.test(bare.svg));
+  });
+
+  test('CSV and JSON of the singularities re-read by Python equal results() in full precision, in each complex format', { skip: !python && 'no python3' }, async () => {
+    const res = await scriptResults(b.page);
+    const poles = res.singularities.poles;
+    assert.equal(poles.length, 3);
+    // columns: at.re, at.im, residue.re, residue.im
+    const csvCols = await b.page.evaluate(() => window.residuary.export.table('singularities.poles', 'csv', 'columns'));
+    assert.ok(!/\u2212/.test(csvCols));
+    const c = py('csv', file('poles.csv', csvCols));
+    const col = (n) => c.header.indexOf(n);
+    for (const n of ['at.re', 'at.im', 'residue.re', 'residue.im', 'order']) assert.ok(col(n) >= 0, `no column ${n} in ${c.header}`);
+    poles.forEach((p, i) => {
+      assert.equal(c.rows[i][col('at.re')], p.at[0]); assert.equal(c.rows[i][col('at.im')], p.at[1]);
+      assert.equal(c.rows[i][col('residue.re')], p.residue[0]); assert.equal(c.rows[i][col('residue.im')], p.residue[1]);
+      assert.equal(c.rows[i][col('order')], p.order);
+    });
+    // one cell: Python's complex() reads "a+bj"; "a+bi" read the same after i → j
+    for (const fmt of ['j', 'i']) {
+      await scriptSet(b.page, { complex_format: fmt });
+      assert.equal((await scriptState(b.page)).complex_format, fmt);
+      const text = await b.page.evaluate(() => window.residuary.export.table('singularities.poles', 'csv'));
+      const d = py('csv', file(`poles-${fmt}.csv`, text));
+      const at = d.header.indexOf('at'), rz = d.header.indexOf('residue');
+      poles.forEach((p, i) => {
+        assert.deepEqual(d.rows[i][at], { re: p.at[0], im: p.at[1] });
+        assert.deepEqual(d.rows[i][rz], { re: p.residue[0], im: p.residue[1] });
+      });
+    }
+    await scriptSet(b.page, { complex_format: 'columns' });
+    // every result as JSON, re-read by Python's json: the same numbers as results()
+    const all = py('json', file('all.json', await b.page.evaluate(() => window.residuary.export.json())));
+    const now = await scriptResults(b.page);
+    for (const k of ['singularities', 'contour_integral', 'argument_count', 'partial_fractions']) assert.deepEqual(all[k], now[k], k);
+    // a table as JSON: complex numbers in two columns as JSON numbers
+    const tj = py('json', file('poles.json', await b.page.evaluate(() => window.residuary.export.table('singularities.poles', 'json'))));
+    assert.equal(tj.table, 'singularities.poles');
+    const j = tj.columns.indexOf('residue.im');
+    poles.forEach((p, i) => assert.equal(tj.rows[i][j], p.residue[1]));
+  });
+
+  test('time samples, the frequency response and the partial fractions export with the numbers results() has', { skip: !python && 'no python3' }, async () => {
+    const r = await scriptSet(b.page, { f: '3/(s^2 + 1.2*s + 9)', var: 's', params: {}, panels: { inverse: true, transfer: true } });
+    assert.ok(r.ok, JSON.stringify(r.error));
+    const res = await scriptResults(b.page);
+    const names = await b.page.evaluate(() => window.residuary.export.tables().map((t) => t.name));
+    for (const n of ['inverse_laplace.samples', 'transfer_function.frequency_response.samples', 'transfer_function.step.samples', 'partial_fractions.terms', 'contour_integral'])
+      assert.ok(names.includes(n), `no table ${n} in ${names}`);
+    const inv = py('csv', file('inv.csv', await b.page.evaluate(() => window.residuary.export.table('inverse_laplace.samples', 'csv'))));
+    const ti = inv.header.indexOf('t'), fi = inv.header.indexOf('f');
+    assert.equal(inv.rows.length, res.inverse_laplace.t.length);
+    inv.rows.forEach((row, i) => { assert.equal(row[ti], res.inverse_laplace.t[i]); assert.equal(row[fi], res.inverse_laplace.f[i]); });
+    const fr = py('csv', file('fr.csv', await b.page.evaluate(() => window.residuary.export.table('transfer_function.frequency_response.samples', 'csv'))));
+    const resp = res.transfer_function.frequency_response;
+    assert.equal(fr.rows.length, resp.omega.length);
+    fr.rows.forEach((row, i) => {
+      assert.equal(row[fr.header.indexOf('omega')], resp.omega[i]);
+      assert.equal(row[fr.header.indexOf('magnitude_db')], resp.magnitude_db[i]);
+      assert.equal(row[fr.header.indexOf('phase_deg')], resp.phase_deg[i]);
+    });
+    // from memory: 3/(s² + 1.2 s + 9) has poles −0.6 ± i√8.64
+    const pf = py('csv', file('pf.csv', await b.page.evaluate(() => window.residuary.export.table('partial_fractions.terms', 'csv', 'j'))));
+    const pole = pf.header.indexOf('at');
+    assert.ok(pole >= 0, String(pf.header));
+    const ims = pf.rows.map((row) => row[pole].im).sort((x, y) => x - y);
+    assert.ok(Math.abs(ims[1] - Math.sqrt(8.64)) < 1e-9 && Math.abs(ims[0] + Math.sqrt(8.64)) < 1e-9, JSON.stringify(pf.rows));
+  });
+
+  test('copying rows of the singularities table gives tab-separated full-precision values with an ASCII minus', async () => {
+    const r = await scriptSet(b.page, { f: F, var: 'z', params: {}, view: [-3, 3, -3, 3], region: 'view', complex_format: 'j' });
+    assert.ok(r.ok, JSON.stringify(r.error));
+    const copied = await b.page.evaluate(() => {
+      const body = document.getElementById('sing-body');
+      const range = document.createRange();
+      range.setStartBefore(body.rows[0]);
+      range.setEndAfter(body.rows[body.rows.length - 1]);
+      const sel = document.getSelection();
+      sel.removeAllRanges();
+      sel.addRange(range);
+      const dt = new DataTransfer();
+      const ev = new ClipboardEvent('copy', { clipboardData: dt, bubbles: true, cancelable: true });
+      body.dispatchEvent(ev);
+      return { text: dt.getData('text/plain'), prevented: ev.defaultPrevented };
+    });
+    assert.ok(copied.prevented, 'the copy handler did not take the copy');
+    assert.ok(!/\u2212/.test(copied.text), copied.text);
+    const rows = copied.text.trim().split('\n').map((l) => l.split('\t'));
+    assert.equal(rows.length, 5); // three poles, two zeros
+    const res = r.results.singularities;
+    // every complex cell "a+bj" reads back to one of the places or residues of results() exactly
+    const wanted = [...res.poles, ...res.zeros].map((p) => p.at).concat(res.poles.map((p) => p.residue)).map((z) => `${z[0]},${z[1]}`);
+    let matched = 0;
+    for (const cell of rows.flat()) {
+      const m = /^(-?[0-9.e-]+)([+-][0-9.e-]+)j$/.exec(cell);
+      if (!m) continue;
+      assert.ok(wanted.includes(`${Number(m[1])},${Number(m[2])}`), `${cell} is not a value of results()`);
+      matched++;
+    }
+    assert.ok(matched >= 8, `${matched} complex cells in ${copied.text}`);
+  });
+
+  test('the Export section: PNG and CSV buttons download files, the complex choice is kept in the state', { skip: !python && 'no python3 with Pillow' }, async () => {
+    await b.page.locator('#export-box > summary').click();
+    await b.page.selectOption('#export-scale', '1');
+    await b.page.uncheck('#export-axes');
+    await b.page.uncheck('#export-overlay');
+    const [dl] = await Promise.all([b.page.waitForEvent('download'), b.page.click('#export-png')]);
+    assert.match(dl.suggestedFilename(), /\.png$/);
+    const saved = join(dir, 'button.png');
+    await dl.saveAs(saved);
+    const rgba = await b.page.evaluate(() => window.residuary.export.pixels({ scale: 1 }));
+    const check = py('png', saved, file('button.rgba', b64(rgba.rgba)), String(rgba.width), String(rgba.height), '0', '0', '0');
+    assert.equal(check.different, 0, JSON.stringify(check));
+    await b.page.selectOption('#export-complex', 'i');
+    assert.equal((await scriptState(b.page)).complex_format, 'i');
+    const li = b.page.locator('#export-tables li[data-table="singularities.zeros"]');
+    await li.waitFor({ timeout: 5000 });
+    const [dc] = await Promise.all([b.page.waitForEvent('download'), li.locator('button[data-as=csv]').click()]);
+    const csvPath = join(dir, 'zeros.csv');
+    await dc.saveAs(csvPath);
+    const z = py('csv', csvPath);
+    const zeros = (await scriptResults(b.page)).singularities.zeros.map((p) => p.at);
+    const at = z.header.indexOf('at');
+    assert.deepEqual(z.rows.map((row) => [row[at].re, row[at].im]), zeros);
+    await b.page.screenshot({ path: join(artifacts, 'export.png'), fullPage: false });
+    assert.deepEqual(b.log.errors, []);
+  });
+});

@@ -72,3 +72,50 @@ export function functionWords(base) {
   const p = params.map(([k, x]) => `${k} = ${Array.isArray(x) ? fmtComplex(x, 6) : fmtReal(x, 6)}`).join(', ');
   return `f(${v}) = ${base ? base.f : ''}` + (p ? ` (${p})` : '');
 }
+
+// ---- machine-readable numbers (exported and copied text: CSV, JSON, tab-separated copies) ----
+
+/** How complex numbers are written in exported and copied text: 'columns' (re and im in two
+ *  columns), 'j' (one cell "a+bj", as Python's complex() reads it) or 'i' (one cell "a+bi"). */
+export const COMPLEX_FORMATS = ['columns', 'j', 'i'];
+
+/** A real as machine-readable text: the shortest decimal that reads back to the same double
+ *  (at most 17 significant digits; ECMAScript Number::toString), ASCII minus, exponent as "e";
+ *  not finite: "inf", "-inf", "nan" (as Python's float() reads them); null: empty. */
+export function numText(x) {
+  if (x === null || x === undefined) return '';
+  if (typeof x !== 'number') return String(x);
+  if (Number.isNaN(x)) return 'nan';
+  if (!Number.isFinite(x)) return x > 0 ? 'inf' : '-inf';
+  return String(x).replace('e+', 'e');
+}
+
+/** [re, im] as one machine-readable cell "a+bj" (`unit` 'j') or "a+bi" (`unit` 'i'): both parts
+ *  always written, the sign of im between them (−0 written "-0"), no spaces. */
+export function complexText(z, unit = 'j') {
+  if (!Array.isArray(z) || z.length !== 2) return '';
+  const [re, im] = z;
+  const neg = typeof im === 'number' && (im < 0 || Object.is(im, -0));
+  const ims = typeof im === 'number' ? numText(Math.abs(im)) : numText(im);
+  return `${numText(re)}${neg ? '-' : '+'}${ims}${unit}`;
+}
+
+/** Read a full-precision title written by fmtExact ("Full precision: a + bi" or "a - bi") back
+ *  into [re, im], or null (the copy handler of tables uses it for cells showing fewer digits). */
+export function parseExact(text) {
+  const m = /^(?:Full precision: )?(\S+) ([+-]) (\S+)i$/.exec(String(text || '').trim());
+  if (!m) return null;
+  const re = Number(m[1]), im = Number(m[3]) * (m[2] === '-' ? -1 : 1);
+  return Number.isNaN(re) || Number.isNaN(im) ? null : [re, im];
+}
+
+/** A displayed number's text made machine-readable: U+2212 to ASCII minus, "∞" to "inf",
+ *  line breaks and the spaces around a complex sign removed, "i" as the chosen unit. */
+export function cleanNumberText(text, unit = 'j') {
+  let t = String(text || '').replace(/\u2212/g, '-').replace(/∞/g, 'inf').replace(/\s+/g, ' ').trim();
+  const m = /^(-?[0-9.]+(?:e-?[0-9]+)?) ([+-]) ([0-9.]*(?:e-?[0-9]+)?)i$/.exec(t);
+  if (m) return `${m[1]}${m[2]}${m[3] === '' ? '1' : m[3]}${unit}`;
+  const p = /^(-?)([0-9.]*(?:e-?[0-9]+)?)i$/.exec(t);
+  if (p) return `0${p[1] === '-' ? '-' : '+'}${p[2] === '' ? '1' : p[2]}${unit}`;
+  return t;
+}

@@ -28,6 +28,7 @@ import { attachEntryForms } from './entry-forms.js';
 import { attachRealIntegral } from './real-integral.js';
 import { attachLaurentPanel } from './laurent-panel.js';
 import { createImageCurve } from './image-curve.js';
+import { installExport } from './export.js';
 
 const state = loadState();
 const ui = {
@@ -283,6 +284,7 @@ function applyStateToControls() {
   ui.wheel.value = state.wheel;
   ui.symbols.value = state.symbols;
   applySymbols();
+  if ($('export-complex')) $('export-complex').value = state.complex_format;
   ui.autoFind.checked = state.autoFind;
   applyTransferState(page);
   renderParams(ui.params, state.params, inputsChanged);
@@ -467,3 +469,7 @@ installScripting(page, {
   trails: () => trails.refresh(),
   integral: realIntegral,
 });
+
+// Export and copy (export.js): PNG, SVG, CSV and JSON of the plot and of every result; window.residuary.export.
+installExport(page, { baseRequest: () => plot.baseRequest(), persist: () => persist(), results: () => window.residuary.results() });
+

@@ -38,6 +38,8 @@ export function createPlot(canvas, hooks) {
   plot.draw = () => drawPlot(plot);
   /** Ask the core for a new picture of the current view (coarse, then fine). */
   plot.render = () => renderPlot(plot, hooks);
+  /** The phase_plot request without view and size (null while the core loads); export.js uses it. */
+  plot.baseRequest = () => hooks.baseRequest();
   /** A quick coarse picture while dragging (resolves true when drawn). */
   plot.renderLive = () => renderLive(plot, hooks);
   /** The typed f is invalid: keep the last picture with a label naming its f (false: none). */
@@ -77,6 +79,18 @@ function drawPlot(plot) {
   const fineScale = plot.fine ? plot.fine.canvas.width / Math.max(1, (plot.fine.box[1] - plot.fine.box[0]) / plot.scale) : 1;
   ctx.imageSmoothingEnabled = Math.abs(fineScale - dpr) > 0.01;
   drawLayer(plot, plot.fine);
+  drawOverlays(plot);
+  for (const hook of plot.overlayHooks || []) hook(ctx); // e.g. the image curve's mark on γ
+  drawMessage(plot);
+  drawLastValid(plot);
+  ctx.restore();
+  drawAxes(plot);
+}
+
+/** What is drawn over the picture, on plot.ctx (CSS-pixel transform set): the unit circle, the
+ *  region's contour, the real integral's contour, pole trails, the Laurent annulus, the markers
+ *  and the marker of infinity. The page's plot and export.js's PNG and SVG share it. */
+export function drawOverlays(plot) {
   drawUnitCircle(plot);
   drawRegion(plot);
   drawIntegralContour(plot);
@@ -84,11 +98,6 @@ function drawPlot(plot) {
   drawAnnulus(plot);
   drawMarkers(plot);
   drawInfinityMarker(plot);
-  for (const hook of plot.overlayHooks || []) hook(ctx); // e.g. the image curve's mark on γ
-  drawMessage(plot);
-  drawLastValid(plot);
-  ctx.restore();
-  drawAxes(plot);
 }
 
 /** A short text description of the plot for screen readers; `v` names the plane's variable. */

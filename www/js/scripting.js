@@ -59,7 +59,7 @@ function regionFrom(value, region) {
 }
 
 const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 'reversed', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',
-  'hz', 'sample_period', 'point', 'trails', 'domain', 'mode', 'kind', 'omega', 'alpha', 'laurent', 'image_point'];
+  'hz', 'sample_period', 'point', 'trails', 'domain', 'mode', 'kind', 'omega', 'alpha', 'laurent', 'image_point', 'complex_format'];
 
 /** The Laurent section's choice (contract names: center, inner, outer, from, to) checked, or null. */
 function laurentChoice(x) {
@@ -119,6 +119,10 @@ function nextPageState(current, partial) {
   }
   for (const k of ['modulus', 'phase', 'infinity', 'autoFind']) {
     if (k in partial) { if (typeof partial[k] !== 'boolean') throw scriptError('bad_request', `${k} must be true or false`); next[k] = partial[k]; }
+  }
+  if ('complex_format' in partial) {
+    if (!['columns', 'j', 'i'].includes(partial.complex_format)) throw scriptError('invalid_field', 'complex_format must be "columns", "j" or "i"');
+    next.complex_format = partial.complex_format;
   }
   if ('symbols' in partial) { if (!['own', 'diagram'].includes(partial.symbols)) throw scriptError('invalid_field', 'symbols must be "own" or "diagram"'); next.symbols = partial.symbols; }
   if ('hz' in partial) { if (typeof partial.hz !== 'boolean') throw scriptError('bad_request', 'hz must be true or false'); next.hz = partial.hz; }
@@ -211,6 +215,7 @@ export function installScripting(page, hooks) {
       laurent: state.laurent ? JSON.parse(JSON.stringify(state.laurent)) : null,
       image_point: hooks.imageCurve.point(),
       modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, symbols: state.symbols, autoFind: state.autoFind,
+      complex_format: state.complex_format,
       hz: state.hz, point: transferPoint(state),
       domain: state.domain === 'none' ? null : state.domain,
       mode: !ui.tf.box.hidden ? 'transfer_function' : 'function',

@@ -26,6 +26,7 @@ export function defaultState() {
     infinity: false,
     wheel: 'oklch',
     symbols: 'own',
+    complex_format: 'columns', // complex numbers in exported and copied text: 'columns' (re, im), 'j' (a+bj) or 'i' (a+bi) (export.js)
     // the region: its mode (view, rect, circle, ellipse, polygon), each shape's numbers (ellipse:
     // [cx, cy, a, b, angle in radians]; polygon: its vertices in order) and reversed (a circle,
     // ellipse or rectangle taken clockwise: the page negates the core's counter-clockwise integral)
@@ -70,6 +71,7 @@ export function sanitize(raw) {
   if (['auto', 's', 'z', 'none'].includes(raw.domain)) s.domain = raw.domain;
   if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
   if (raw.symbols === 'own' || raw.symbols === 'diagram') s.symbols = raw.symbols;
+  if (['columns', 'j', 'i'].includes(raw.complex_format)) s.complex_format = raw.complex_format;
   s.integral = sanitizeIntegral(raw.integral);
   const t = raw.trails;
   if (t && typeof t === 'object' && typeof t.name === 'string' && Number.isFinite(t.from) && Number.isFinite(t.to) && t.from !== t.to &&
