@@ -2451,6 +2451,33 @@ describe('export and copy', () => {
   after(async () => { if (b) await b.close(); if (dir) rmSync(dir, { recursive: true, force: true }); });
   const file = (name, data) => { const p = join(dir, name); writeFileSync(p, data); return p; };
   const b64 = (s) => Buffer.from(s, 'base64');
+  const toCSVText = (head, rows) => [head, ...rows].map((r) => r.join(',')).join('\n') + '\n';
+
+  test('numbers as text read back by Python\'s float() and complex() to the same doubles; CSV quoting read back by Python\'s csv', { skip: !python && 'no python3' }, async () => {
+    const fmt = await import(pathToFileURL(join(root, 'www', 'js', 'format.js')).href);
+    const ex = await import(pathToFileURL(join(root, 'www', 'js', 'export.js')).href);
+    // doubles from their bits (seeded) and the edges: subnormal, largest, −0, 0.1 + 0.2, 1e21, 1e-7
+    const xs = [5e-324, 1.7976931348623157e308, -0, 0.1 + 0.2, 1e21, 1e-7, -2.5e-300, 123456789.12345678, Math.PI, -Math.E];
+    const buf = new DataView(new ArrayBuffer(8));
+    let seed = 12345;
+    const rnd = () => { seed = (Math.imul(seed, 1103515245) + 12345) >>> 0; return seed; };
+    while (xs.length < 400) { buf.setUint32(0, rnd()); buf.setUint32(4, rnd()); const x = buf.getFloat64(0); if (Number.isFinite(x)) xs.push(x); }
+    const zs = xs.map((x, i) => [x, xs[(i * 7 + 3) % xs.length]]);
+    const text = [...xs.map((x) => fmt.numText(x)), ...zs.map((z) => fmt.complexText(z, 'j'))];
+    for (const t of text) assert.ok(/^[-+0-9.ej]+$/.test(t), `${t} is not plain ASCII number text`);
+    for (const z of zs) { const q = fmt.parseExact(fmt.fmtExact(z)); assert.ok(q[0] === z[0] && q[1] === z[1], `${fmt.fmtExact(z)} read as ${q}`); }
+    const p = file('numbers.csv', toCSVText(['x'], text.map((t) => [t])));
+    const back = py('csv', p).rows.map((r) => r[0]);
+    xs.forEach((x, i) => assert.ok(Object.is(back[i], x) || (x === 0 && back[i] === 0), `${x} came back as ${back[i]}`));
+    zs.forEach((z, i) => assert.deepEqual(back[xs.length + i], { re: z[0], im: z[1] }, `${z} came back as ${JSON.stringify(back[xs.length + i])}`));
+    // fields with commas, quotes and line breaks survive RFC 4180 quoting
+    const t = { name: 't', columns: ['words', 'z'], rows: [['a, "b"\nc', { c: [-0.5, 2] }], ['plain', 3]] };
+    const rt = py('csv', file('quoted.csv', ex.toCSV(ex.tableMatrix(t, 'columns'))));
+    assert.deepEqual(rt.header, ['words', 'z.re', 'z.im']);
+    assert.deepEqual(rt.rows, [['a, "b"\nc', -0.5, 2], ['plain', 3, 0]]);
+    assert.equal(fmt.cleanNumberText('\u22121.5 \u2212 2i'), '-1.5-2j');
+    assert.equal(fmt.cleanNumberText('\u2212i', 'i'), '0-1i');
+  });
 
   test('PNG: the core\'s picture at 2× and at 300×200, decoded by Pillow, equals the core\'s RGBA pixels', { skip: !python && 'no python3 with Pillow' }, async () => {
     for (const o of [{ scale: 2, axes: false, overlay: false }, { width: 300, height: 200, axes: false, overlay: false }]) {
@@ -2459,7 +2486,7 @@ describe('export and copy', () => {
       assert.ok(!png.error && !px.error, JSON.stringify(got).slice(0, 300));
       if (o.width) { assert.equal(png.width, 300); assert.equal(png.height, 200); }
       const check = py('png', file('plain.png', b64(png.png)), file('plain.rgba', b64(px.rgba)), String(px.width), String(px.height), '0', '0', '0');
-      // Pillow 11 Image.open: the file's size is the picture's
+      // Pillow Image.open: the file's size is the picture's
       assert.deepEqual(check.size, [px.width, px.height]);
       assert.equal(check.compared, px.width * px.height);
       assert.equal(check.different, 0, `${check.different} pixels differ (max ${check.max_delta})`);
@@ -2563,6 +2590,16 @@ describe('export and copy', () => {
     assert.ok(pole >= 0, String(pf.header));
     const ims = pf.rows.map((row) => row[pole].im).sort((x, y) => x - y);
     assert.ok(Math.abs(ims[1] - Math.sqrt(8.64)) < 1e-9 && Math.abs(ims[0] + Math.sqrt(8.64)) < 1e-9, JSON.stringify(pf.rows));
+    // the step response's data table under its chart: CSV of every row (not only the page shown) in full precision
+    const step = res.transfer_function.step;
+    assert.ok(step.t.length > 20, `${step.t.length} step samples`);
+    await b.page.locator('#tf-step-data > summary').click();
+    const [dl] = await Promise.all([b.page.waitForEvent('download'), b.page.click('#tf-step-data .data-csv')]);
+    const stepPath = join(dir, 'step.csv');
+    await dl.saveAs(stepPath);
+    const sc = py('csv', stepPath);
+    assert.equal(sc.rows.length, step.t.length);
+    sc.rows.forEach((row, i) => { assert.equal(row[0], step.t[i]); assert.equal(row[1], step.y[i]); });
   });
 
   test('copying rows of the singularities table gives tab-separated full-precision values with an ASCII minus', async () => {

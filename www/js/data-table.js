@@ -2,6 +2,8 @@
 // built only when opened and 200 rows at a time (previous / next), so that no single task
 // on the main thread grows with the number of samples.
 import { el } from './dom.js';
+import { cleanNumberText, numText } from './format.js';
+import { toCSV, toTSV, copyText, download } from './export.js';
 
 export const ROWS_PER_PAGE = 200;
 
@@ -15,16 +17,37 @@ function build(box, caption) {
   const prev = el('button', { type: 'button', class: 'data-prev', text: 'Previous 200' });
   const next = el('button', { type: 'button', class: 'data-next', text: 'Next 200' });
   const where = el('span', { class: 'data-where', 'aria-live': 'polite' });
+  const copy = el('button', { type: 'button', class: 'small data-copy', text: 'Copy all', 'aria-label': `Copy every row of the ${caption} as tab-separated text` });
+  const csv = el('button', { type: 'button', class: 'small data-csv', text: 'CSV', 'aria-label': `Save every row of the ${caption} as CSV` });
   box.append(summary,
-    el('div', { class: 'data-nav' }, prev, next, where),
+    el('div', { class: 'data-nav' }, prev, next, where, copy, csv),
     el('div', { class: 'tf-table-wrap data-wrap' }, el('table', { class: 'tf-table data-table' },
       el('caption', { class: 'visually-hidden', text: caption }), head, body)));
   const t = { box, summary, head, body, prev, next, where, spec: null, page: 0 };
   prev.addEventListener('click', () => { t.page--; render(t); });
   next.addEventListener('click', () => { t.page++; render(t); });
   box.addEventListener('toggle', () => { if (box.open) render(t); });
+  copy.addEventListener('click', async () => {
+    if (!t.spec) return;
+    where.textContent = (await copyText(toTSV(dataMatrix(t.spec)))) ? `${t.spec.count} rows copied` : 'the browser refused the copy';
+  });
+  csv.addEventListener('click', () => {
+    if (!t.spec) return;
+    download(toCSV(dataMatrix(t.spec)), caption.replace(/[^A-Za-z0-9]+/g, '-').toLowerCase() + '.csv', 'text/csv');
+  });
   tables.set(box, t);
   return t;
+}
+
+/** Every row of `spec` as machine-readable text (format.js numText): its values(i) when the
+ *  chart gives them (full precision), else the cells shown made machine-readable. */
+export function dataMatrix(spec) {
+  const rows = [spec.heads.slice()];
+  for (let i = 0; i < spec.count; i++) {
+    rows.push(spec.values ? spec.values(i).map((v) => (typeof v === 'number' ? numText(v) : v === null || v === undefined ? '' : String(v)))
+      : spec.row(i).map((c) => cleanNumberText(c)));
+  }
+  return rows;
 }
 
 /** Draw the current page (only while open). */
@@ -45,7 +68,8 @@ function render(t) {
 }
 
 /** Give the table under a chart its samples: `spec` {heads: [column heading with its unit],
- *  count, row(i) → [cell text]} (null: no data). Back to the first page; drawn now if open. */
+ *  count, row(i) → [cell text], values(i) → [number | text] (optional: the full-precision values
+ *  that Copy all and CSV write)} (null: no data). Back to the first page; drawn now if open. */
 export function setDataTable(box, caption, spec) {
   const t = tables.get(box) || build(box, caption);
   t.spec = spec;

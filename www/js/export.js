@@ -11,12 +11,17 @@ import { numText, complexText, parseExact, cleanNumberText, COMPLEX_FORMATS } fr
 import { runHeavy, responseError } from './engine.js';
 import { MARGIN, viewBox } from './plot/view.js';
 import { drawAxes } from './plot/axes.js';
-import { drawOverlays } from './plot.js';
 
 // ---- the tables of a results() object ---------------------------------------------------------
 
+/** The page's additions to a result that restate its input (the contour, the function, the
+ *  request): left out of the tables (every result's JSON keeps them). */
+const INPUT_FIELDS = new Set(['region', 'contour', 'request']);
 /** Pairs of numbers that are not complex numbers (an interval, a span, a size). */
-const NOT_COMPLEX = new Set(['radii', 'span', 'semi_axes', 'size', 'rows', 'view']);
+const NOT_COMPLEX = new Set(['radii', 'span', 'semi_axes', 'size', 'rows', 'view', 't', 'n', 'omega', 'magnitude_db', 'phase_deg',
+  'gain_crossovers', 'phase_margins', 'phase_crossovers', 'gain_margins', 'error_estimates', 'values']);
+/** Lists of samples: a list of numbers as long as one of these beside it is a sample list too. */
+const SAMPLE_KEYS = ['t', 'n', 'omega'];
 const isNumOrNull = (x) => x === null || typeof x === 'number';
 const isPlain = (x) => x !== null && typeof x === 'object' && !Array.isArray(x);
 /** [re, im] (either may be null: not finite in the contract's JSON) under the field `name`. */
@@ -59,11 +64,14 @@ export function entryTables(key, entry) {
   const unique = (n) => { let m = n, k = 2; while (used.has(m)) m = `${n}.${k++}`; used.add(m); return m; };
   const walk = (obj, path) => {
     const series = [];
+    const sampleLen = SAMPLE_KEYS.map((k) => (Array.isArray(obj[k]) ? obj[k].length : -1));
     for (const [k, v] of Object.entries(obj)) {
       const p = path ? `${path}.${k}` : k;
+      if (!path && INPUT_FIELDS.has(k)) continue; // what it was computed for: in the JSON, not a table
       if (!Array.isArray(v) && !isPlain(v)) { summary.push([p, v]); continue; }
       if (isPlain(v)) { walk(v, p); continue; }
-      if (isComplex(v, k) || v.length === 0) { summary.push([p, cellOf(v, k)]); continue; }
+      const sampled = sampleLen.includes(v.length) && v.every(isNumOrNull);
+      if ((isComplex(v, k) && !sampled) || v.length === 0) { summary.push([p, cellOf(v, k)]); continue; }
       if (v.every(isPlain)) { tables.push(rowsTable(unique(`${key}.${p}`), v)); continue; }
       if (v.every(isNumOrNull) || v.every((x) => isComplex(x, ''))) { series.push([k, v]); continue; }
       summary.push([p, JSON.stringify(v)]);
@@ -269,7 +277,7 @@ function compose(fr, ctx, opts, drawPicture) {
   ctx.rect(MARGIN.left, MARGIN.top, p.pw, p.ph);
   ctx.clip();
   drawPicture();
-  if (opts.overlay) drawOverlays(p);
+  if (opts.overlay) p.drawOverlays(p); // plot.js drawOverlays
   ctx.restore();
   if (opts.axes) drawAxes(p);
 }

@@ -80,13 +80,14 @@ export function functionWords(base) {
 export const COMPLEX_FORMATS = ['columns', 'j', 'i'];
 
 /** A real as machine-readable text: the shortest decimal that reads back to the same double
- *  (at most 17 significant digits; ECMAScript Number::toString), ASCII minus, exponent as "e";
+ *  (at most 17 significant digits; ECMAScript Number::toString; −0 as "-0"), ASCII minus, exponent as "e";
  *  not finite: "inf", "-inf", "nan" (as Python's float() reads them); null: empty. */
 export function numText(x) {
   if (x === null || x === undefined) return '';
   if (typeof x !== 'number') return String(x);
   if (Number.isNaN(x)) return 'nan';
   if (!Number.isFinite(x)) return x > 0 ? 'inf' : '-inf';
+  if (Object.is(x, -0)) return '-0';
   return String(x).replace('e+', 'e');
 }
 

@@ -40,6 +40,8 @@ export function createPlot(canvas, hooks) {
   plot.render = () => renderPlot(plot, hooks);
   /** The phase_plot request without view and size (null while the core loads); export.js uses it. */
   plot.baseRequest = () => hooks.baseRequest();
+  /** drawOverlays (below), for export.js's stand-in plots (no import of this module there). */
+  plot.drawOverlays = drawOverlays;
   /** A quick coarse picture while dragging (resolves true when drawn). */
   plot.renderLive = () => renderLive(plot, hooks);
   /** The typed f is invalid: keep the last picture with a label naming its f (false: none). */

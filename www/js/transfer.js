@@ -266,6 +266,7 @@ function showTime(parts, which, d) {
     heads: d.isZ ? ['n', 't = nT (s)', `${name}[n]`] : ['t (s)', `${name}(t)`],
     count: d.t.length,
     row: (i) => (d.isZ ? [String(d.x[i]), cell(d.t[i]), cell(d.y[i])] : [cell(d.t[i]), cell(d.y[i])]),
+    values: (i) => (d.isZ ? [d.x[i], d.t[i], d.y[i]] : [d.t[i], d.y[i]]),
   });
 }
 
@@ -309,6 +310,7 @@ export function showTransfer(parts, request, resp) {
     heads: [freqHead(fr.unit), '|F| (dB)', 'phase (°)'],
     count: fr.omega.length,
     row: (i) => [cell(fr.omega[i]), cell(fr.magnitude_db[i]), cell(fr.phase_deg[i])],
+    values: (i) => [fr.omega[i], fr.magnitude_db[i], fr.phase_deg[i]],
   });
 
   for (const w of Array.isArray(resp.warnings) ? resp.warnings : []) parts.warnings.append(el('li', { text: cap(String(w)) }));
@@ -342,6 +344,7 @@ export function showTransfer(parts, request, resp) {
     heads: [freqHead(fr.unit), 'piece', 'Re F', 'Im F'],
     count: ps.length,
     row: (i) => [ps[i].w === null ? '—' : cell(ps[i].w), pieceName[ps[i].kind] || ps[i].kind, cell(ps[i].re), cell(ps[i].im)],
+    values: (i) => [ps[i].w, ps[i].kind, ps[i].re, ps[i].im],
   });
 
   // the poles and zeros
