@@ -2600,6 +2600,49 @@ describe('export and copy', () => {
     const sc = py('csv', stepPath);
     assert.equal(sc.rows.length, step.t.length);
     sc.rows.forEach((row, i) => { assert.equal(row[0], step.t[i]); assert.equal(row[1], step.y[i]); });
+    // Ctrl+C over the shown rows: the full-precision values, not the ten digits shown
+    const sel = await b.page.evaluate(() => {
+      const body = document.querySelector('#tf-step-data tbody');
+      const range = document.createRange();
+      range.setStartBefore(body.rows[0]);
+      range.setEndAfter(body.rows[9]);
+      const s = document.getSelection();
+      s.removeAllRanges();
+      s.addRange(range);
+      const dt = new DataTransfer();
+      body.dispatchEvent(new ClipboardEvent('copy', { clipboardData: dt, bubbles: true, cancelable: true }));
+      return dt.getData('text/plain');
+    });
+    const lines = sel.trim().split('\n').map((l) => l.split('\t').map(Number));
+    assert.equal(lines.length, 10);
+    lines.forEach(([t, y], i) => { assert.equal(t, step.t[i]); assert.equal(y, step.y[i]); });
+  });
+
+  test('the Laurent coefficients, the real integral with its ways and the contour integral export with results()\'s numbers', { skip: !python && 'no python3' }, async () => {
+    const r = await scriptSet(b.page, { f: '1/(z^4 + 1)', var: 'z', params: {}, view: [-2, 2, -2, 2], region: 'view', kind: 'line',
+      laurent: { center: [0, 0], inner: 0, outer: 1, from: -2, to: 6 }, panels: { laurent: true, integral: true, transfer: false } });
+    assert.ok(r.ok, JSON.stringify(r.error));
+    const res = await scriptResults(b.page);
+    const lc = py('csv', file('laurent.csv', await b.page.evaluate(() => window.residuary.export.table('laurent.coefficients', 'csv', 'j'))));
+    const n = lc.header.indexOf('n'), c = lc.header.indexOf('c');
+    assert.equal(lc.rows.length, res.laurent.coefficients.length);
+    res.laurent.coefficients.forEach((k, i) => { assert.equal(lc.rows[i][n], k.n); assert.deepEqual(lc.rows[i][c], { re: k.c[0], im: k.c[1] }); });
+    // by construction: 1/(1 + z⁴) = 1 − z⁴ + … on |z| < 1, so c0 = 1 and c4 = −1
+    assert.ok(Math.abs(lc.rows[lc.rows.findIndex((row) => row[n] === 4)][c].re + 1) < 1e-9);
+    // the real integral: one table of its values and ways, one of the residues used
+    const ri = py('csv', file('ri.csv', await b.page.evaluate(() => window.residuary.export.table('real_integral', 'csv', 'columns'))));
+    const rowOf = (t, field) => t.rows.find((row) => row[0] === field);
+    assert.equal(rowOf(ri, 'value')[1], res.real_integral.value[0]);
+    assert.equal(rowOf(ri, 'value')[2], res.real_integral.value[1]);
+    assert.ok(Math.abs(res.real_integral.value[0] - Math.PI / Math.SQRT2) < 1e-9); // from memory: ∫ dx/(1+x⁴) = π/√2
+    for (const way of ['by_quadrature', 'by_residues']) assert.equal(rowOf(ri, way)[1], res.real_integral[way][0], way);
+    const used = py('csv', file('used.csv', await b.page.evaluate(() => window.residuary.export.table('real_integral.residues_used', 'csv', 'j'))));
+    assert.equal(used.rows.length, res.real_integral.residues_used.length);
+    const rz = used.header.indexOf('residue');
+    res.real_integral.residues_used.forEach((u, i) => assert.deepEqual(used.rows[i][rz], { re: u.residue[0], im: u.residue[1] }));
+    // the contour integral's value and its ways
+    const ci = py('csv', file('ci.csv', await b.page.evaluate(() => window.residuary.export.table('contour_integral', 'csv', 'j'))));
+    assert.deepEqual(rowOf(ci, 'value')[1], { re: res.contour_integral.value[0], im: res.contour_integral.value[1] });
   });
 
   test('copying rows of the singularities table gives tab-separated full-precision values with an ASCII minus', async () => {
@@ -2658,6 +2701,13 @@ describe('export and copy', () => {
     const zeros = (await scriptResults(b.page)).singularities.zeros.map((p) => p.at);
     const at = z.header.indexOf('at');
     assert.deepEqual(z.rows.map((row) => [row[at].re, row[at].im]), zeros);
+    // the Copy button: tab-separated text on the clipboard, the same as table(name, 'tsv')
+    await b.context.grantPermissions(['clipboard-read', 'clipboard-write']);
+    await b.page.locator('#export-tables li[data-table="singularities.poles"] button[data-as=copy]').click();
+    await b.page.waitForFunction(() => /copied/.test(document.getElementById('export-status').textContent), null, { timeout: 5000 });
+    const clip = await b.page.evaluate(() => navigator.clipboard.readText());
+    assert.equal(clip, await b.page.evaluate(() => window.residuary.export.table('singularities.poles', 'tsv')));
+    assert.match(clip.split('\n')[1], /^-?[0-9.e-]+[+-][0-9.e-]+i\t/);
     await b.page.screenshot({ path: join(artifacts, 'export.png'), fullPage: false });
     assert.deepEqual(b.log.errors, []);
   });

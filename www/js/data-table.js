@@ -39,12 +39,14 @@ function build(box, caption) {
   return t;
 }
 
+const cellText = (v) => (typeof v === 'number' ? numText(v) : v === null || v === undefined ? '' : String(v));
+
 /** Every row of `spec` as machine-readable text (format.js numText): its values(i) when the
  *  chart gives them (full precision), else the cells shown made machine-readable. */
 export function dataMatrix(spec) {
   const rows = [spec.heads.slice()];
   for (let i = 0; i < spec.count; i++) {
-    rows.push(spec.values ? spec.values(i).map((v) => (typeof v === 'number' ? numText(v) : v === null || v === undefined ? '' : String(v)))
+    rows.push(spec.values ? spec.values(i).map(cellText)
       : spec.row(i).map((c) => cleanNumberText(c)));
   }
   return rows;
@@ -60,7 +62,11 @@ function render(t) {
   t.head.append(el('tr', {}, ...s.heads.map((h) => el('th', { scope: 'col', text: h }))));
   const from = t.page * ROWS_PER_PAGE, to = Math.min(s.count, from + ROWS_PER_PAGE);
   const rows = [];
-  for (let i = from; i < to; i++) rows.push(el('tr', { 'data-index': String(i) }, ...s.row(i).map((c) => el('td', { text: c }))));
+  for (let i = from; i < to; i++) {
+    // data-copy: the full-precision value a copy of the selection takes (export.js selectionTSV)
+    const vs = s.values ? s.values(i) : null;
+    rows.push(el('tr', { 'data-index': String(i) }, ...s.row(i).map((c, j) => el('td', { text: c, 'data-copy': vs ? cellText(vs[j]) : null }))));
+  }
   t.body.replaceChildren(...rows);
   t.prev.disabled = t.page === 0;
   t.next.disabled = t.page >= pages - 1;

@@ -192,8 +192,14 @@ export function selectionTSV(selection, fmt) {
   const start = range.startContainer.nodeType === 1 ? range.startContainer : range.startContainer.parentElement;
   const table = start && start.closest ? start.closest('table') : null;
   if (!table || !table.contains(range.endContainer)) return null;
-  const rows = Array.from(table.rows).filter((tr) => selection.containsNode(tr, true));
-  const cellsOf = (tr) => Array.from(tr.cells).filter((c) => selection.containsNode(c, true));
+  // a node is taken when the selection covers some of its contents (not when it only touches its edge)
+  const overlaps = (node) => {
+    const r = document.createRange();
+    r.selectNodeContents(node);
+    return range.compareBoundaryPoints(Range.START_TO_END, r) > 0 && range.compareBoundaryPoints(Range.END_TO_START, r) < 0;
+  };
+  const rows = Array.from(table.rows).filter(overlaps);
+  const cellsOf = (tr) => Array.from(tr.cells).filter(overlaps);
   const picked = rows.map(cellsOf).filter((cs) => cs.length);
   if (picked.length < 2 && (!picked.length || picked[0].length < 2)) return null; // inside one cell: the browser's own copy
   const unit = fmt === 'i' ? 'i' : 'j';
@@ -518,12 +524,13 @@ export function installExport(page, hooks) {
   });
   ui.json.addEventListener('click', () => { download(api.json(), fileBase(page.state.f) + '-results.json', 'application/json'); say('Results saved as JSON.'); });
 
-  // The list of tables: rebuilt when the section opens and while it is open, when results change.
+  // The list of tables: rebuilt when the section opens and, while it is open, when the tables
+  // change (a button reads the results again when pressed, so it never saves an older table).
   let signature = '';
   function refresh() {
     if (!box.open) return;
     const tables = api.tables();
-    const sig = JSON.stringify(tables.map((t) => [t.name, t.rows.length, t.columns.length])) + JSON.stringify(hooks.results()).length;
+    const sig = JSON.stringify(tables.map((t) => [t.name, t.rows.length, t.columns.length]));
     if (sig === signature) return;
     signature = sig;
     ui.list.replaceChildren(...(tables.length ? tables.map((t) => el('li', { 'data-table': t.name },
@@ -546,6 +553,6 @@ export function installExport(page, hooks) {
     say(`${name} saved as ${as.toUpperCase()}.`);
   });
   box.addEventListener('toggle', () => { signature = ''; refresh(); });
-  setInterval(refresh, 1500);
+  setInterval(refresh, 2000); // while open: the list follows new results (no rebuild when it is the same)
   return api;
 }

@@ -110,10 +110,12 @@ export function parseExact(text) {
   return Number.isNaN(re) || Number.isNaN(im) ? null : [re, im];
 }
 
-/** A displayed number's text made machine-readable: U+2212 to ASCII minus, "∞" to "inf",
+/** A displayed number's text made machine-readable: U+2212 to ASCII minus, "∞" to "inf", "—" empty,
  *  line breaks and the spaces around a complex sign removed, "i" as the chosen unit. */
 export function cleanNumberText(text, unit = 'j') {
   let t = String(text || '').replace(/\u2212/g, '-').replace(/∞/g, 'inf').replace(/\s+/g, ' ').trim();
+  if (t === '—') return ''; // the tables' dash for "none"
+  t = t.replace(/^≈ /, ''); // "≈ 0": below the error level
   const m = /^(-?[0-9.]+(?:e-?[0-9]+)?) ([+-]) ([0-9.]*(?:e-?[0-9]+)?)i$/.exec(t);
   if (m) return `${m[1]}${m[2]}${m[3] === '' ? '1' : m[3]}${unit}`;
   const p = /^(-?)([0-9.]*(?:e-?[0-9]+)?)i$/.exec(t);
