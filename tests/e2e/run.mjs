@@ -2474,7 +2474,7 @@ describe('export and copy', () => {
     const t = { name: 't', columns: ['words', 'z'], rows: [['a, "b"\nc', { c: [-0.5, 2] }], ['plain', 3]] };
     const rt = py('csv', file('quoted.csv', ex.toCSV(ex.tableMatrix(t, 'columns'))));
     assert.deepEqual(rt.header, ['words', 'z.re', 'z.im']);
-    assert.deepEqual(rt.rows, [['a, "b"\nc', -0.5, 2], ['plain', 3, 0]]);
+    assert.deepEqual(rt.rows, [['a, "b"\nc', -0.5, 2], ['plain', 3, '']]);
     assert.equal(fmt.cleanNumberText('\u22121.5 \u2212 2i'), '-1.5-2j');
     assert.equal(fmt.cleanNumberText('\u2212i', 'i'), '0-1i');
   });

@@ -104,7 +104,8 @@ export function resultTables(results) {
 // ---- writing a table: machine-readable cells ---------------------------------------------------
 
 /** The table as rows of text cells (with its heading row first) in complex format `fmt`:
- *  'columns' splits each column holding a complex number into "name.re" and "name.im". */
+ *  'columns' splits each column holding a complex number into "name.re" and "name.im" (a cell
+ *  there that is not a complex number, e.g. a field's whole number, leaves "name.im" empty). */
 export function tableMatrix(table, fmt = 'columns') {
   const complexCol = table.columns.map((_, j) => table.rows.some((r) => r[j] && typeof r[j] === 'object' && r[j].c));
   const split = fmt === 'columns';
@@ -117,7 +118,7 @@ export function tableMatrix(table, fmt = 'columns') {
       const isC = v && typeof v === 'object' && v.c;
       if (split && complexCol[j]) {
         if (isC) out.push(text(v.c[0]), text(v.c[1]));
-        else out.push(text(v), typeof v === 'number' ? '0' : '');
+        else out.push(text(v), ''); // not a complex number: no imaginary part written
       } else out.push(isC ? complexText(v.c, fmt === 'i' ? 'i' : 'j') : text(v));
     });
     return out;
@@ -147,7 +148,7 @@ export function toTableJSON(table, fmt = 'columns') {
     const out = [];
     r.forEach((v, j) => {
       const isC = v && typeof v === 'object' && v.c;
-      if (split && complexCol[j]) { if (isC) out.push(v.c[0], v.c[1]); else out.push(v, typeof v === 'number' ? 0 : null); }
+      if (split && complexCol[j]) { if (isC) out.push(v.c[0], v.c[1]); else out.push(v === undefined ? null : v, null); }
       else out.push(isC ? complexText(v.c, fmt === 'i' ? 'i' : 'j') : v === undefined ? null : v);
     });
     return out;

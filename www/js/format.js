@@ -110,10 +110,10 @@ export function parseExact(text) {
   return Number.isNaN(re) || Number.isNaN(im) ? null : [re, im];
 }
 
-/** A displayed number's text made machine-readable: U+2212 to ASCII minus, "∞" to "inf", "—" empty,
+/** A displayed number's text made machine-readable: soft hyphens dropped, U+2212 to ASCII minus, "∞" to "inf", "—" empty,
  *  line breaks and the spaces around a complex sign removed, "i" as the chosen unit. */
 export function cleanNumberText(text, unit = 'j') {
-  let t = String(text || '').replace(/\u2212/g, '-').replace(/∞/g, 'inf').replace(/\s+/g, ' ').trim();
+  let t = String(text || '').replace(/\u00ad/g, '').replace(/\u2212/g, '-').replace(/∞/g, 'inf').replace(/\s+/g, ' ').trim();
   if (t === '—') return ''; // the tables' dash for "none"
   t = t.replace(/^≈ /, ''); // "≈ 0": below the error level
   const m = /^(-?[0-9.]+(?:e-?[0-9]+)?) ([+-]) ([0-9.]*(?:e-?[0-9]+)?)i$/.exec(t);
