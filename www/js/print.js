@@ -13,7 +13,7 @@ import { fmtReal } from './format.js';
 /** The plot is drawn at this many image pixels per CSS pixel of the screen's plot (2–3×)... */
 export const PRINT_SCALE = 3;
 /** ... within this many pixels in all (the core renders it on the main thread). */
-const PRINT_PIXELS = 8e6;
+const PRINT_PIXELS = 6e6;
 // Sections not opened for print: the raw sample tables (hundreds of rows) and the entry forms.
 const KEEP_FOLDED = 'details.tf-data, #entry-box';
 
