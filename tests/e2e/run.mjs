@@ -13,6 +13,7 @@ import { createRequire } from 'node:module';
 import './entry-forms.test.mjs'; // the entry forms' parsing and writing, in node
 import './contour-path.test.mjs'; // the contour shapes' polylines and the image curve's winding, in node
 import './contour-geom.test.mjs'; // winding numbers and drags of the contour editor, in node
+import { longSum } from './share.test.mjs'; // the link codec against node's zlib, in node
 
 const here = dirname(fileURLToPath(import.meta.url));
 const require = createRequire(join(here, 'package.json'));
@@ -2709,6 +2710,241 @@ describe('export and copy', () => {
     assert.equal(clip, await b.page.evaluate(() => window.residuary.export.table('singularities.poles', 'tsv')));
     assert.match(clip.split('\n')[1], /^-?[0-9.e-]+[+-][0-9.e-]+i\t/);
     await b.page.screenshot({ path: join(artifacts, 'export.png'), fullPage: false });
+describe('links that keep everything, print and the dark scheme', () => {
+  let b;
+  before(async () => { b = await openBrowser({ width: 1280, height: 1000 }); });
+  after(async () => { if (b) await b.close(); });
+
+  /** Type f into the function box (as a user would) and wait until the address carries it. */
+  async function typeF(page, f) {
+    await page.fill('#expr', f);
+    await page.waitForFunction((n) => window.residuary.state().f.length === n, f.length);
+    await page.waitForTimeout(400); // the state is kept 250 ms after typing stops
+  }
+  const hashNow = (page) => page.evaluate(() => location.hash);
+
+  test('a 10 000-character function survives a packed link, a reload and a fresh browser exactly', async () => {
+    const f = longSum(10000);
+    assert.equal(f.length, 10000);
+    await load(b.page, withState({ f: 'z', autoFind: false }));
+    await typeF(b.page, f);
+    const hash = await hashNow(b.page);
+    assert.ok(hash.startsWith('#d='), `the long state is packed (${hash.slice(0, 12)}…, ${hash.length} characters)`);
+    // node's own zlib reads the link (RFC 1950 deflate, base64url RFC 4648 §5): the whole f is in it
+    const { inflateSync } = await import('node:zlib');
+    assert.equal(JSON.parse(inflateSync(Buffer.from(hash.slice(3), 'base64url')).toString('utf8')).f, f);
+    assert.match(await b.page.textContent('#expr-message'), /understood/);
+    await b.page.reload();
+    await b.page.waitForSelector('body[data-ready=true]', { timeout: 30000 });
+    assert.equal((await scriptState(b.page)).f, f, 'the reload gives back the same f');
+    assert.equal(await b.page.inputValue('#expr'), f);
+    // a fresh browser (nothing kept) opening the link
+    const other = await openBrowser();
+    try {
+      await other.page.goto(pageUrl + hash);
+      await other.page.waitForSelector('body[data-ready=true]', { timeout: 30000 });
+      assert.equal((await scriptState(other.page)).f, f, 'the link alone gives back the same f');
+      assert.equal(await other.page.isHidden('#link-bar'), true, 'nothing was replaced: no bar');
+      assert.deepEqual(other.log.errors, []);
+    } finally { await other.close(); }
+    // the kept state is the same, whole
+    const kept = await b.page.evaluate(() => JSON.parse(localStorage.getItem('residuary.page.v1')).f);
+    assert.equal(kept, f);
+    assert.deepEqual(b.log.errors, []);
+  });
+
+  test('a link that replaces other work keeps it one click away, and the link one click back', async () => {
+    await load(b.page, withState({ f: 'z', autoFind: false }));
+    await typeF(b.page, '(z^2 - 2)/(z + 3)');
+    const linked = { f: 'sin(z)/(z^2 + 1)', var: 'z', autoFind: false, view: [-2, 2, -2, 2] };
+    await b.page.goto('about:blank');
+    await load(b.page, withState(linked));
+    assert.equal((await scriptState(b.page)).f, linked.f);
+    assert.equal(await b.page.isVisible('#link-bar'), true);
+    assert.match(await b.page.textContent('#link-bar-text'), /Opened from a link/);
+    assert.equal(await b.page.textContent('#link-bar-swap'), 'Restore what you had');
+    await b.page.click('#link-bar-swap');
+    assert.equal((await scriptState(b.page)).f, '(z^2 - 2)/(z + 3)', 'what this browser had is back');
+    assert.match(await b.page.textContent('#link-bar-text'), /Restored what you had/);
+    await b.page.click('#link-bar-swap');
+    assert.equal((await scriptState(b.page)).f, linked.f, "and the link's version again");
+    assert.deepEqual((await scriptState(b.page)).view, linked.view);
+    await b.page.waitForTimeout(400);
+    // the link's state is now what this browser keeps: opening it again replaces nothing
+    await b.page.goto('about:blank');
+    await load(b.page, withState(linked));
+    assert.equal(await b.page.isHidden('#link-bar'), true);
+    // a link followed while the page is open (only the hash changes) keeps the work too
+    await b.page.evaluate((h) => { location.hash = h; }, withState({ f: 'exp(z)', var: 'z', autoFind: false }));
+    await b.page.waitForFunction(() => window.residuary.state().f === 'exp(z)');
+    assert.equal(await b.page.isVisible('#link-bar'), true);
+    await b.page.click('#link-bar-swap');
+    assert.equal((await scriptState(b.page)).f, linked.f);
+    assert.deepEqual(b.log.errors, []);
+  });
+
+  test('a cut or garbled link says so and keeps the current work', async () => {
+    await load(b.page, withState({ f: 'z', autoFind: false }));
+    await typeF(b.page, longSum(4300));
+    const good = await hashNow(b.page);
+    assert.ok(good.startsWith('#d='));
+    for (const bad of [good.slice(0, Math.floor(good.length / 2)), '#d=not*base64', '#s=' + encodeURIComponent('{"f": "1/(z-1)", "var"')]) {
+      await b.page.goto('about:blank');
+      await load(b.page, bad);
+      assert.equal(await b.page.isVisible('#link-bar'), true, bad.slice(0, 20));
+      assert.equal(await b.page.getAttribute('#link-bar', 'data-state'), 'bad');
+      assert.match(await b.page.textContent('#link-bar-text'), /could not be read: .*Your current work is kept/);
+      assert.equal((await scriptState(b.page)).f, longSum(4300), 'the kept work, not some other function');
+    }
+    assert.deepEqual(b.log.errors, []);
+  });
+
+  test('when this browser cannot keep the state (storage full) the page says so', async () => {
+    await load(b.page, withState({ f: 'z', autoFind: false }));
+    const filled = await b.page.evaluate(() => {
+      localStorage.clear(); // what earlier tests kept (a longer state would make room when replaced)
+      let n = 0;
+      for (let size = 1 << 20; size >= 64; size >>= 1) {
+        for (;;) { try { localStorage.setItem('fill-' + n, 'x'.repeat(size)); n++; } catch (e) { break; } }
+      }
+      return n;
+    });
+    try {
+      await typeF(b.page, longSum(3000));
+      assert.equal(await b.page.isVisible('#storage-note'), true);
+      assert.match(await b.page.textContent('#storage-note'), /storage for the page is full/);
+      assert.ok((await hashNow(b.page)).startsWith('#d='), 'the address still carries the state');
+    } finally {
+      await b.page.evaluate((n) => { for (let i = 0; i < n; i++) localStorage.removeItem('fill-' + i); }, filled);
+    }
+    await typeF(b.page, 'z + 1');
+    assert.equal(await b.page.isHidden('#storage-note'), true, 'the note goes once the state is kept again');
+  });
+
+  test('print: controls hidden, every section open, a header with f, variable, parameters and date, the plot at print resolution', async () => {
+    await load(b.page, withState({ f: 'a/(z^2 + 1) + exp(1/z)', var: 'z', params: [{ name: 'a', value: '2', lo: null, hi: null }], view: [-3, 3, -3, 3] }));
+    await plotDone(b.page);
+    await searchDone(b.page);
+    const cssW = await b.page.evaluate(() => document.getElementById('plot').clientWidth);
+    await b.page.emulateMedia({ media: 'print' });
+    await b.page.waitForSelector('#print-plot', { state: 'attached' });
+    const head = await b.page.evaluate(() => Object.fromEntries([...document.querySelectorAll('#print-head [data-line]')].map((p) => [p.dataset.line, p.textContent])));
+    assert.equal(head.function, 'Function: f(z) = a/(z^2 + 1) + exp(1/z)');
+    assert.equal(head.variable, 'Variable: z');
+    assert.equal(head.parameters, 'Parameters: a = 2');
+    const today = await b.page.evaluate(() => { const d = new Date(), p = (n) => String(n).padStart(2, '0'); return `${d.getFullYear()}-${p(d.getMonth() + 1)}-${p(d.getDate())}`; });
+    assert.ok(head.printed.startsWith('Printed: ' + today), head.printed);
+    const look = await b.page.evaluate(() => ({
+      head: getComputedStyle(document.getElementById('print-head')).display,
+      buttons: [...document.querySelectorAll('button')].filter((x) => getComputedStyle(x).display !== 'none').map((x) => x.id || x.textContent),
+      inputs: getComputedStyle(document.querySelector('.inputs')).display,
+      tools: getComputedStyle(document.querySelector('.plot-tools')).display,
+      folded: [...document.querySelectorAll('details')].filter((d) => !d.open && !d.matches('details.tf-data, #entry-box')).map((d) => d.id),
+      canvas: getComputedStyle(document.getElementById('plot')).display,
+      img: (() => { const i = document.getElementById('print-plot'); return { w: i.naturalWidth, shown: getComputedStyle(i).display, core: i.dataset.fromCore }; })(),
+      scheme: document.documentElement.dataset.scheme,
+    }));
+    assert.notEqual(look.head, 'none');
+    assert.deepEqual(look.buttons, [], 'no button prints');
+    assert.equal(look.inputs, 'none');
+    assert.equal(look.tools, 'none');
+    assert.deepEqual(look.folded, [], 'every section is open');
+    assert.equal(look.canvas, 'none');
+    assert.equal(look.img.shown, 'block');
+    assert.equal(look.img.core, 'true', 'the picture was rendered by the core at print resolution');
+    assert.ok(look.img.w >= 2 * cssW, `the printed plot is ${look.img.w} pixels wide for ${cssW} on screen`);
+    assert.equal(look.scheme, 'light');
+    await b.page.screenshot({ path: join(artifacts, 'print-media.png'), fullPage: true });
+    await b.page.emulateMedia({ media: 'screen' });
+    await b.page.waitForFunction(() => !document.getElementById('print-plot'));
+    assert.equal(await b.page.isHidden('#print-head'), true);
+    assert.equal(await b.page.evaluate(() => document.getElementById('ri-box').open), false, 'sections fold back as they were');
+    // a real print to PDF (beforeprint/afterprint): the page gets ready for it and comes back
+    const before = Number(await b.page.evaluate(() => document.body.dataset.prints));
+    const pdf = await b.page.pdf({ format: 'A4' });
+    assert.equal(pdf.subarray(0, 5).toString('latin1'), '%PDF-');
+    assert.ok(pdf.length > 100000, `a ${pdf.length}-byte PDF (the plot image is in it)`);
+    assert.equal(Number(await b.page.evaluate(() => document.body.dataset.prints)), before + 1);
+    assert.equal(await b.page.isHidden('#print-head'), true);
+    writeFileSync(join(artifacts, 'print.pdf'), pdf);
+    assert.deepEqual(b.log.errors, []);
+  });
+
+  /** WCAG 2.2 contrast ratio (W3C WCAG 2.2, SC 1.4.3 and its "relative luminance" definition) of
+   *  two CSS colours rgb(a) given as [r, g, b] 0–255. */
+  const luminance = ([r, g, bl]) => {
+    const lin = (c) => { c /= 255; return c <= 0.04045 ? c / 12.92 : Math.pow((c + 0.055) / 1.055, 2.4); };
+    return 0.2126 * lin(r) + 0.7152 * lin(g) + 0.0722 * lin(bl);
+  };
+  const contrast = (a, c) => { const [x, y] = [luminance(a), luminance(c)].sort((p, q) => q - p); return (x + 0.05) / (y + 0.05); };
+
+  /** [text colour, the background behind it] of each selector's first visible element. */
+  function colours(page, selectors) {
+    return page.evaluate((selectors) => {
+      const rgb = (s) => { const m = s.match(/[\d.]+/g).map(Number); return { c: m.slice(0, 3), a: m.length > 3 ? m[3] : 1 }; };
+      const css = (name) => { const d = document.createElement('div'); d.style.color = getComputedStyle(document.documentElement).getPropertyValue(name); document.body.append(d); const c = getComputedStyle(d).color; d.remove(); return rgb(c).c; };
+      const out = {};
+      for (const sel of selectors) {
+        const el = [...document.querySelectorAll(sel)].find((e) => e.getClientRects().length);
+        if (!el) { out[sel] = null; continue; }
+        let bg = null;
+        for (let n = el; n && !bg; n = n.parentElement) { const b = rgb(getComputedStyle(n).backgroundColor); if (b.a > 0.5) bg = b.c; }
+        out[sel] = [rgb(getComputedStyle(el).color).c, bg || [255, 255, 255]];
+      }
+      // the canvas drawings' text colours (scheme.js ink) on the backgrounds they are drawn on
+      out['canvas: chart tick labels'] = [css('--chart-text'), css('--panel')];
+      out['canvas: chart labels'] = [css('--chart-text-strong'), css('--panel')];
+      out['canvas: plot axis labels'] = [css('--plot-ink'), css('--plot-bg')];
+      out['canvas: chart marks'] = [css('--chart-mark'), css('--panel')];
+      return out;
+    }, selectors);
+  }
+
+  test('light and dark schemes: text contrast at least 4.5:1 (WCAG 2.2 SC 1.4.3), the system setting followed, the choice kept', async () => {
+    const checked = ['#h-function', '.tagline', '#expr', '#expr-message', 'label[for=var-name]', '#var-name', '#find', '#zoom-reset',
+      '.sing-table th', '.sing-table td.num', '.hint', '#find-status', '.warnings li', '.foot', '#link-bar-text', '#link-bar-close', '#ci-contour', '.marker-key li'];
+    const seen = {};
+    for (const scheme of ['light', 'dark']) {
+      await b.page.emulateMedia({ media: 'screen', colorScheme: scheme });
+      await b.page.goto('about:blank');
+      // a garbled link shows the bar; exp(1/z) brings a warning
+      await load(b.page, '#d=garbled*');
+      await scriptSet(b.page, { f: 'a/(z^2 + 1) + exp(1/z)', var: 'z', params: { a: 2 }, scheme: 'system' });
+      await plotDone(b.page);
+      assert.equal(await b.page.evaluate(() => document.documentElement.dataset.scheme), scheme, 'the system setting is followed');
+      const got = await colours(b.page, checked);
+      for (const [sel, pair] of Object.entries(got)) {
+        assert.ok(pair, `${sel} is on the page`);
+        const r = contrast(pair[0], pair[1]);
+        assert.ok(r >= 4.5, `${scheme}: ${sel} has contrast ${r.toFixed(2)}:1 (${pair[0]} on ${pair[1]})`);
+      }
+      seen[scheme] = got['#h-function'];
+      // the plot canvas is drawn in the scheme's colours (read from the CSS variables)
+      const corner = await b.page.evaluate(() => Array.from(document.getElementById('plot').getContext('2d').getImageData(1, 1, 1, 1).data.slice(0, 3)));
+      assert.deepEqual(corner, scheme === 'dark' ? [26, 31, 37] : [255, 255, 255], `${scheme}: the plot's margin`);
+      await b.page.screenshot({ path: join(artifacts, `scheme-${scheme}.png`), fullPage: true });
+      await scriptSet(b.page, { f: LOWPASS, var: 's', params: { wn: 2, zeta: 0.3 }, mode: 'transfer_function' });
+      await b.page.locator('#tf-chart').scrollIntoViewIfNeeded();
+      await b.page.locator('.results').screenshot({ path: join(artifacts, `scheme-${scheme}-transfer.png`) });
+    }
+    assert.notDeepEqual(seen.light, seen.dark);
+    // the Display choice wins over the system setting, and is kept with the state (and in the link)
+    await b.page.emulateMedia({ colorScheme: 'light' });
+    await b.page.selectOption('#opt-scheme', 'dark');
+    assert.equal(await b.page.evaluate(() => document.documentElement.dataset.scheme), 'dark');
+    assert.equal((await scriptState(b.page)).scheme, 'dark');
+    await b.page.waitForTimeout(400);
+    await b.page.reload();
+    await b.page.waitForSelector('body[data-ready=true]', { timeout: 30000 });
+    assert.equal(await b.page.evaluate(() => document.documentElement.dataset.scheme), 'dark');
+    assert.equal(await b.page.inputValue('#opt-scheme'), 'dark');
+    // printing is light whatever the screen shows
+    await b.page.emulateMedia({ media: 'print' });
+    await b.page.waitForSelector('#print-plot', { state: 'attached' });
+    assert.equal(await b.page.evaluate(() => document.documentElement.dataset.scheme), 'light');
+    await b.page.emulateMedia({ media: 'screen' });
+    await b.page.waitForFunction(() => document.documentElement.dataset.scheme === 'dark');
+    await scriptSet(b.page, { scheme: 'system' });
     assert.deepEqual(b.log.errors, []);
   });
 });

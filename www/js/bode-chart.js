@@ -4,6 +4,7 @@
 // redraw without asking the core again; `cursor` is the index the pointer is nearest.
 import { fmtReal } from './format.js';
 import { sizedCanvas, niceTicks, tickText } from './chart-kit.js';
+import { ink } from './scheme.js';
 
 /** Phase ticks: multiples of 45° or 90° (more for a wide span). */
 function phaseTicks(lo, hi) {
@@ -65,7 +66,7 @@ export function drawBodeChart(canvas, cursor = -1) {
     p.py = py;
     // the minor grid (2 … 9 in each decade), the decades, the value ticks
     g.lineWidth = 1;
-    g.strokeStyle = '#f0f3f5';
+    g.strokeStyle = ink('chart-grid-minor');
     for (let k = Math.floor(lx0); k <= Math.ceil(lx1); k++) {
       for (let m = 2; m <= 9; m++) {
         const l = k + Math.log10(m);
@@ -74,21 +75,21 @@ export function drawBodeChart(canvas, cursor = -1) {
         g.beginPath(); g.moveTo(xx, p.y0); g.lineTo(xx, p.y0 + paneH); g.stroke();
       }
     }
-    g.strokeStyle = '#d5dce2';
+    g.strokeStyle = ink('chart-grid');
     for (const k of decades) {
       const xx = Math.round(px(Math.pow(10, k))) + 0.5;
       g.beginPath(); g.moveTo(xx, p.y0); g.lineTo(xx, p.y0 + paneH); g.stroke();
     }
-    g.fillStyle = '#5b6670';
+    g.fillStyle = ink('chart-text');
     g.textAlign = 'right';
     g.textBaseline = 'middle';
     for (const v of p.ticks) {
       const yy = Math.round(py(v)) + 0.5;
-      g.strokeStyle = v === 0 ? '#9aa5ae' : '#e3e8ec';
+      g.strokeStyle = v === 0 ? ink('chart-axis') : ink('chart-grid');
       g.beginPath(); g.moveTo(left, yy); g.lineTo(cssW - right, yy); g.stroke();
       g.fillText(tickText(v), left - 4, yy);
     }
-    g.strokeStyle = '#7d8891';
+    g.strokeStyle = ink('chart-frame');
     g.strokeRect(left + 0.5, p.y0 + 0.5, cssW - left - right - 1, paneH - 1);
     // the pane's name, turned along its left edge
     g.save();
@@ -96,13 +97,13 @@ export function drawBodeChart(canvas, cursor = -1) {
     g.rotate(-Math.PI / 2);
     g.textAlign = 'center';
     g.textBaseline = 'middle';
-    g.fillStyle = '#3b4650';
+    g.fillStyle = ink('chart-text-strong');
     g.fillText(p.name, 0, 0);
     g.restore();
     // the curve; a null (a frequency at a pole) lifts the pen
     g.save();
     g.beginPath(); g.rect(left, p.y0, cssW - left - right, paneH); g.clip();
-    g.strokeStyle = '#1f5f8b';
+    g.strokeStyle = ink('chart-curve');
     g.lineWidth = 1.8;
     g.beginPath();
     let pen = false;
@@ -116,22 +117,22 @@ export function drawBodeChart(canvas, cursor = -1) {
     g.restore();
   }
   // decade labels under the lower pane, the axis name, the Nyquist frequency (z)
-  g.fillStyle = '#5b6670';
+  g.fillStyle = ink('chart-text');
   g.textAlign = 'center';
   g.textBaseline = 'top';
   const axisY = panes[1].y0 + paneH + 4;
   for (const k of decades) g.fillText(decadeText(k), px(Math.pow(10, k)), axisY);
   for (const k of decades) g.fillText(decadeText(k), px(Math.pow(10, k)), panes[0].y0 + paneH + 4);
   g.textAlign = 'right';
-  g.fillStyle = '#3b4650';
+  g.fillStyle = ink('chart-text-strong');
   g.fillText(unit === 'Hz' ? 'frequency f (Hz)' : 'frequency ω (rad/s)', cssW - right, axisY + 15);
   if (Number.isFinite(nyquist) && nyquist > 0) {
     const xx = Math.round(px(nyquist)) - 0.5;
-    g.strokeStyle = '#b35c00';
+    g.strokeStyle = ink('chart-warn');
     g.setLineDash([4, 3]);
     for (const p of panes) { g.beginPath(); g.moveTo(xx, p.y0); g.lineTo(xx, p.y0 + paneH); g.stroke(); }
     g.setLineDash([]);
-    g.fillStyle = '#b35c00';
+    g.fillStyle = ink('chart-warn');
     g.textAlign = 'right';
     g.textBaseline = 'top';
     g.fillText('Nyquist', xx - 3, panes[0].y0 + 2);
@@ -139,13 +140,13 @@ export function drawBodeChart(canvas, cursor = -1) {
   // the pointer's cursor
   if (cursor >= 0 && cursor < omega.length) {
     const xx = Math.round(px(omega[cursor])) + 0.5;
-    g.strokeStyle = '#444';
+    g.strokeStyle = ink('chart-cursor');
     g.lineWidth = 1;
     for (const p of panes) {
       g.beginPath(); g.moveTo(xx, p.y0); g.lineTo(xx, p.y0 + paneH); g.stroke();
       const v = p.vals[cursor];
       if (v !== null && Number.isFinite(v) && v >= p.lo && v <= p.hi) {
-        g.fillStyle = '#c0392b';
+        g.fillStyle = ink('chart-mark');
         g.beginPath(); g.arc(xx, p.py(v), 3.5, 0, 2 * Math.PI); g.fill();
       }
     }

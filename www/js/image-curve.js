@@ -124,6 +124,8 @@ export function createImageCurve(page, hooks) {
 
   const api = {
     compute,
+    /** Draw again (the page's colours changed). */
+    redraw: () => draw(),
     open: () => box.open,
     setOpen(v) { box.open = !!v; if (box.open) compute(); },
     /** results().image_curve */

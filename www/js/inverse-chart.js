@@ -5,6 +5,7 @@
 // name with its unit), `extraY` (values the y range must include), `decorate(g, map)` (drawn
 // under the data: the step metrics); returns the map {px, py, left, right, top, bottom, toX}.
 import { sizedCanvas, niceTicks, tickText } from './chart-kit.js';
+import { ink } from './scheme.js';
 
 /** Draw (or redraw, after a resize) the chart from its data attribute. */
 export function drawInverseChart(canvas, opts = {}) {
@@ -26,9 +27,9 @@ export function drawInverseChart(canvas, opts = {}) {
   const px = (v) => left + ((v - x0) / (x1 - x0)) * (cssW - left - right);
   const py = (v) => top + ((hi - v) / (hi - lo)) * (cssH - top - bottom);
   // grid and tick labels
-  g.strokeStyle = '#e3e8ec';
+  g.strokeStyle = ink('chart-grid');
   g.lineWidth = 1;
-  g.fillStyle = '#5b6670';
+  g.fillStyle = ink('chart-text');
   g.textAlign = 'right';
   g.textBaseline = 'middle';
   for (const v of yt) {
@@ -44,7 +45,7 @@ export function drawInverseChart(canvas, opts = {}) {
     g.fillText(tickText(v), xx, cssH - bottom + 4);
   }
   // the axes: the zero line and the left edge
-  g.strokeStyle = '#7d8891';
+  g.strokeStyle = ink('chart-frame');
   g.beginPath();
   g.moveTo(left, Math.round(py(0)) + 0.5); g.lineTo(cssW - right, Math.round(py(0)) + 0.5);
   g.moveTo(left + 0.5, top); g.lineTo(left + 0.5, cssH - bottom);
@@ -58,8 +59,8 @@ export function drawInverseChart(canvas, opts = {}) {
   if (opts.decorate) { g.save(); opts.decorate(g, map); g.restore(); }
   if (Array.isArray(err) && !stems) errorBand(g, map, x, y, err);
   // the data
-  g.strokeStyle = '#1f5f8b';
-  g.fillStyle = '#1f5f8b';
+  g.strokeStyle = ink('chart-curve');
+  g.fillStyle = ink('chart-curve');
   g.lineWidth = stems ? 1.2 : 1.8;
   if (stems) {
     const r = Math.max(1.5, Math.min(3.5, (cssW - left - right) / x.length / 3));
@@ -81,10 +82,10 @@ export function drawInverseChart(canvas, opts = {}) {
   const c = opts.cursor;
   if (Number.isInteger(c) && c >= 0 && c < x.length && y[c] !== null) {
     const xx = Math.round(px(x[c])) + 0.5;
-    g.strokeStyle = '#444';
+    g.strokeStyle = ink('chart-cursor');
     g.lineWidth = 1;
     g.beginPath(); g.moveTo(xx, top); g.lineTo(xx, cssH - bottom); g.stroke();
-    g.fillStyle = '#c0392b';
+    g.fillStyle = ink('chart-mark');
     g.beginPath(); g.arc(px(x[c]), py(y[c]), 3.5, 0, 2 * Math.PI); g.fill();
   }
   return map;
@@ -97,7 +98,7 @@ function errorBand(g, map, x, y, err) {
   g.beginPath();
   g.rect(map.left, map.top, map.right - map.left, map.bottom - map.top);
   g.clip();
-  g.fillStyle = 'rgba(31, 95, 139, 0.22)';
+  g.fillStyle = ink('chart-band');
   let run = [];
   const flush = () => {
     if (run.length > 1) {

@@ -215,8 +215,7 @@ export function attachLaurentPanel(page, hooks) {
         else if (my.explicit || typed) { ui.center.value = 'point'; ui.x.value = String(c[0]); ui.y.value = String(c[1]); }
         else { ui.center.value = ui.center.options[0].value; choice = null; } // a point of an earlier f: start afresh
       }
-      ui.from.value = String(choice.from);
-      ui.to.value = String(choice.to);
+      if (choice) { ui.from.value = String(choice.from); ui.to.value = String(choice.to); }
     } else if (!ui.center.value || my.explicit) ui.center.value = ui.center.options[0].value;
     ui.pointRow.hidden = ui.center.value !== 'point';
     fillAnnuli(choice);

@@ -3,6 +3,7 @@
 import { plotOnce } from './engine.js';
 import { el } from './dom.js';
 import { markerIcon, KIND_WORDS } from './markers.js';
+import { ink } from './scheme.js';
 
 /** Draw the colour ring for `wheel` ("oklch" or "hsv") into `canvas` (150 × 150 drawing units). */
 export function drawWheelKey(canvas, wheel) {
@@ -17,7 +18,7 @@ export function drawWheelKey(canvas, wheel) {
   ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
   const result = plotOnce({ task: 'phase_plot', f: 'z', var: 'z', params: {}, view: [-1, 1, -1, 1], size: [size, size], options: { wheel }, format: 'rgba' });
   if (result.error || !result.rgba || result.rgba.length !== size * size * 4) {
-    ctx.fillStyle = '#666';
+    ctx.fillStyle = ink('chart-text');
     ctx.font = '11px system-ui, sans-serif';
     ctx.textAlign = 'center';
     ctx.fillText('key appears when', css / 2, css / 2 - 7);
@@ -33,7 +34,7 @@ export function drawWheelKey(canvas, wheel) {
     }
   }
   ctx.putImageData(new ImageData(data, size, size), off, off);
-  ctx.fillStyle = '#222';
+  ctx.fillStyle = ink('plot-ink');
   ctx.font = '11px system-ui, sans-serif';
   ctx.textAlign = 'center';
   ctx.textBaseline = 'middle';

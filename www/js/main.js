@@ -2,7 +2,10 @@
 // region editor and the search pipeline. Everything the user types is kept (see state.js).
 import { $, debounce } from './dom.js';
 import { Engine, startEngine, runHeavy, runNow, responseError, cancelHeavy } from './engine.js';
-import { loadState, saveState, fromHash, toHash, hashGivesView, hasStoredState } from './state.js';
+import { openState, saveState, stateFromLink, sameState, lastWrittenHash, onStorage } from './state.js';
+import { attachLinkBar } from './link-bar.js';
+import { setScheme } from './scheme.js';
+import { attachPrint } from './print.js';
 import { showUnderline, syncMirror, checkExpression } from './expr-input.js';
 import { renderParams, functionInput } from './params.js';
 import { createPlot, plotDescription } from './plot.js';
@@ -30,11 +33,14 @@ import { attachLaurentPanel } from './laurent-panel.js';
 import { createImageCurve } from './image-curve.js';
 import { installExport } from './export.js';
 
-const state = loadState();
+// The link's state (a packed one is unpacked asynchronously), else what this browser kept.
+const opening = await openState(window.location.hash);
+const state = opening.state;
+setScheme(state.scheme); // the page's colours before anything is drawn
 const ui = {
   expr: $('expr'), mirror: $('expr-mirror'), message: $('expr-message'), varName: $('var-name'), varDomain: $('var-domain'),
   params: $('params'), modulus: $('opt-modulus'), phase: $('opt-phase'), infinity: $('opt-infinity'),
-  wheel: $('opt-wheel'), symbols: $('opt-symbols'), canvas: $('plot'), readout: $('readout'), plotStatus: $('plot-status'),
+  wheel: $('opt-wheel'), symbols: $('opt-symbols'), scheme: $('opt-scheme'), canvas: $('plot'), readout: $('readout'), plotStatus: $('plot-status'),
   fit: $('zoom-fit'), fitNote: $('fit-note'), fitNoteText: $('fit-note-text'), zoomSmall: $('zoom-small'), regionNote: $('region-note'),
   find: $('find'), cancel: $('cancel-find'), autoFind: $('auto-find'), findStatus: $('find-status'),
   resInf: $('res-inf'), sumCheck: $('sum-check'), stability: $('stability'), stabilityBox: $('stability-box'),
@@ -285,6 +291,8 @@ function applyStateToControls() {
   ui.symbols.value = state.symbols;
   applySymbols();
   if ($('export-complex')) $('export-complex').value = state.complex_format;
+  ui.scheme.value = state.scheme;
+  setScheme(state.scheme);
   ui.autoFind.checked = state.autoFind;
   applyTransferState(page);
   renderParams(ui.params, state.params, inputsChanged);
@@ -326,6 +334,7 @@ function applySymbols() {
   plot.draw();
 }
 ui.symbols.addEventListener('change', () => { state.symbols = ui.symbols.value; persist(); applySymbols(); });
+ui.scheme.addEventListener('change', () => { state.scheme = ui.scheme.value; persist(); setScheme(state.scheme); });
 ui.infinity.addEventListener('change', () => {
   state.infinity = ui.infinity.checked;
   if (state.infinity) { page.lastZView = plot.getView(); plot.homeView = [-1, 1, -1, 1]; plot.setView([-1, 1, -1, 1]); }
@@ -404,10 +413,24 @@ attachEntryForms({
   write: writeFunction,
 });
 
+// The link bar (link-bar.js): a link that replaced other work keeps it one click away; an
+// unreadable link says so and keeps the work; a full storage says so.
+const linkBar = attachLinkBar((s) => adopt(s));
+onStorage((outcome) => linkBar.storage(outcome));
+if (opening.problem) linkBar.bad(opening.problem);
+else if (opening.previous) linkBar.opened(opening.previous, state);
+
 // A link followed while the page is open (only the address hash changes).
-window.addEventListener('hashchange', () => {
-  const next = fromHash(window.location.hash);
-  if (next && toHash(state) !== window.location.hash) adopt(next);
+window.addEventListener('hashchange', async () => {
+  const hash = window.location.hash;
+  if (hash === lastWrittenHash()) return;
+  const link = await stateFromLink(hash);
+  if (hash !== window.location.hash) return; // another change came in meanwhile
+  if (link.kind === 'bad') { linkBar.bad(link.reason); return; }
+  if (link.kind !== 'ok' || sameState(link.state, state)) return;
+  const had = JSON.parse(JSON.stringify(state));
+  adopt(link.state);
+  linkBar.opened(had, link.state);
 });
 
 // Layout follows the container (also inside an iframe).
@@ -429,7 +452,7 @@ applyStateToControls();
 ui.message.textContent = 'Loading the computing core…';
 
 // A page opened with no view of its own (no link's view, nothing kept) fits a rational f.
-const fitOnOpen = fromHash(window.location.hash) ? !hashGivesView(window.location.hash) : !hasStoredState();
+const fitOnOpen = opening.fromLink ? !opening.linkGivesView : !opening.hadStored;
 const started = startEngine().then(async () => {
   $('version').textContent = Engine.ready ? `Core version ${Engine.version}.` : '';
   drawWheelKey($('wheel'), state.wheel);
@@ -450,6 +473,22 @@ const imageCurve = createImageCurve(page, {
     if (!res || !res.argument_count || res.serial !== page.searchSerial) return null;
     return JSON.stringify(res.contour) === JSON.stringify(region.contour()) ? res.argument_count : null;
   },
+});
+
+// The page's colours (scheme.js) and printing (print.js): every drawing on a canvas follows them.
+function redrawDrawings() {
+  plot.draw();
+  if (Engine.ready) drawWheelKey($('wheel'), state.wheel);
+  if (!ui.inv.result.hidden) drawInverseChart(ui.inv.chart);
+  redrawTransfer(page);
+  imageCurve.redraw();
+}
+setScheme(state.scheme, redrawDrawings);
+page.print = attachPrint(page, {
+  request: () => (page.exprOk && Engine.ready ? Object.assign(functionInput(state), {
+    options: { wheel: state.wheel, modulus_lines: state.modulus, phase_lines: state.phase, infinity: state.infinity },
+  }) : null),
+  redraw: redrawDrawings,
 });
 
 installScripting(page, {

@@ -69,11 +69,11 @@ export function markerIcon(kind) {
   svg.classList.add('marker-icon');
   svg.dataset.kind = kind;
   const shape = (tag, attrs) => { const s = document.createElementNS(ns, tag); for (const [k, v] of Object.entries(attrs)) s.setAttribute(k, v); svg.append(s); };
-  const line = { fill: 'none', stroke: '#111', 'stroke-width': '1.6', 'stroke-linejoin': 'round' };
+  const line = { fill: 'none', stroke: 'currentColor', 'stroke-width': '1.6', 'stroke-linejoin': 'round' };
   if (symbols === 'diagram' && kind === 'pole') shape('path', Object.assign({ d: 'M-5 -5L5 5M5 -5L-5 5' }, line));
   else if (symbols === 'diagram' && kind === 'zero') shape('circle', Object.assign({ r: 5 }, line));
   else if (kind === 'pole') shape('polygon', Object.assign({ points: '0,-6 6,0 0,6 -6,0' }, line));
-  else if (kind === 'zero') { shape('circle', Object.assign({ r: 5 }, line)); shape('circle', { r: 2, fill: '#111' }); }
+  else if (kind === 'zero') { shape('circle', Object.assign({ r: 5 }, line)); shape('circle', { r: 2, fill: 'currentColor' }); }
   else if (kind === 'essential') {
     let d = '';
     for (let k = 0; k < 8; k++) { const a = (k * Math.PI) / 4, r = k % 2 ? 3.5 : 6.5; d += `M0 0L${(r * Math.cos(a)).toFixed(2)} ${(r * Math.sin(a)).toFixed(2)}`; }

@@ -11,6 +11,7 @@ import { attachInput } from './plot/input.js';
 import { KIND_WORDS } from './markers.js';
 import { regionWords } from './region.js';
 import { drawIntegralContour } from './real-integral.js';
+import { ink } from './scheme.js';
 
 /** The plot on `canvas`. Hooks: baseRequest() (the request without view and size, or null while
  *  the core loads), onViewChange(view), onPointer(point | null), onMarkerClick(index), onStatus(what, error). */
@@ -64,16 +65,16 @@ export function createPlot(canvas, hooks) {
 
 function drawPlot(plot) {
   const ctx = plot.ctx;
-  const dpr = window.devicePixelRatio || 1;
+  const dpr = plot.pixelRatio || window.devicePixelRatio || 1; // print.js draws at print resolution
   ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
   ctx.clearRect(0, 0, plot.cssW, plot.cssH);
-  ctx.fillStyle = '#fff';
+  ctx.fillStyle = ink('plot-bg');
   ctx.fillRect(0, 0, plot.cssW, plot.cssH);
   ctx.save();
   ctx.beginPath();
   ctx.rect(MARGIN.left, MARGIN.top, plot.pw, plot.ph);
   ctx.clip();
-  ctx.fillStyle = '#e9ebee';
+  ctx.fillStyle = ink('plot-empty');
   ctx.fillRect(MARGIN.left, MARGIN.top, plot.pw, plot.ph);
   ctx.imageSmoothingEnabled = true;
   drawLayer(plot, plot.coarse);

@@ -6,6 +6,7 @@
 // map keeps the directions and the order of the radii, so the turns about the point are the same).
 import { sizedCanvas, niceTicks, tickText, nearestPixel } from './chart-kit.js';
 import { fmtReal, fmtComplex } from './format.js';
+import { ink } from './scheme.js';
 
 /** The compression radius: R = 2 max(1, c), c the 75th percentile of |F| over the frequency grid
  *  (`fit.cap`), so that the curve's finite part keeps most of the disc; it does not depend on the
@@ -84,12 +85,12 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
 
   // the grid: linear ticks, or rings at |F| = 0.5, 1, 2, 5, 10, … and the rim (|F| infinite)
   g.lineWidth = 1;
-  g.fillStyle = '#5b6670';
+  g.fillStyle = ink('chart-text');
   g.save();
   g.beginPath(); g.rect(left, top, W, H); g.clip();
   if (!squeezed) {
     const xt = niceTicks(x0, x1, Math.max(3, Math.round(W / 70))), yt = niceTicks(y0, y1, Math.max(3, Math.round(H / 50)));
-    g.strokeStyle = '#e3e8ec';
+    g.strokeStyle = ink('chart-grid');
     for (const v of xt) { const xx = Math.round(px(v)) + 0.5; g.beginPath(); g.moveTo(xx, top); g.lineTo(xx, top + H); g.stroke(); }
     for (const v of yt) { const yy = Math.round(py(v)) + 0.5; g.beginPath(); g.moveTo(left, yy); g.lineTo(left + W, yy); g.stroke(); }
     g.restore();
@@ -98,32 +99,32 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
     g.textAlign = 'right'; g.textBaseline = 'middle';
     for (const v of yt) g.fillText(tickText(v), left - 4, py(v));
   } else {
-    g.strokeStyle = '#e3e8ec';
+    g.strokeStyle = ink('chart-grid');
     g.textAlign = 'left'; g.textBaseline = 'bottom';
     for (const r of [0.5, 1, 2, 5, 10, 100, 1000]) {
       const rr = (r / (1 + r / R)) * scale;
       g.beginPath(); g.arc(px(0), py(0), rr, 0, 2 * Math.PI); g.stroke();
       if (rr > 14 && R * scale - rr > 10) g.fillText(fmtReal(r, 3), px(0) + rr * 0.7071 + 2, py(0) - rr * 0.7071);
     }
-    g.strokeStyle = '#9aa5ae';
+    g.strokeStyle = ink('chart-axis');
     g.setLineDash([2, 3]);
     g.beginPath(); g.arc(px(0), py(0), R * scale, 0, 2 * Math.PI); g.stroke();
     g.setLineDash([]);
-    g.fillStyle = '#5b6670'; g.textAlign = 'left'; g.textBaseline = 'bottom';
+    g.fillStyle = ink('chart-text'); g.textAlign = 'left'; g.textBaseline = 'bottom';
     g.fillText('dotted rim: |F| infinite', left + 3, top + H - 3);
     g.restore();
   }
   // the axes Re F = 0, Im F = 0
   g.save();
   g.beginPath(); g.rect(left, top, W, H); g.clip();
-  g.strokeStyle = '#9aa5ae';
+  g.strokeStyle = ink('chart-axis');
   g.beginPath();
   g.moveTo(left, Math.round(py(0)) + 0.5); g.lineTo(left + W, Math.round(py(0)) + 0.5);
   g.moveTo(Math.round(px(0)) + 0.5, top); g.lineTo(Math.round(px(0)) + 0.5, top + H);
   g.stroke();
 
   // the curve, piece by piece: ω > 0 solid, ω < 0 dashed, the detours and the closing arc brown
-  const look = (s) => (s.kind !== 'axis' ? ['#8a5a2b', [5, 3], 1.4] : s.w !== null && s.w < 0 ? ['#5f8fb4', [6, 3], 1.4] : ['#1f5f8b', [], 1.8]);
+  const look = (s) => (s.kind !== 'axis' ? [ink('chart-curve-3'), [5, 3], 1.4] : s.w !== null && s.w < 0 ? [ink('chart-curve-2'), [6, 3], 1.4] : [ink('chart-curve'), [], 1.8]);
   let i = 0;
   while (i < samples.length) {
     const [colour, dash, width] = look(samples[i]);
@@ -144,7 +145,7 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
   }
   g.setLineDash([]);
   // arrows along the curve (every ~90 px of drawn length) pointing the way ω increases
-  g.fillStyle = '#1f5f8b';
+  g.fillStyle = ink('chart-curve');
   let run = 45;
   for (let k = 1; k < pts.length; k++) {
     const a = pts[k - 1], b = pts[k];
@@ -165,26 +166,26 @@ export function drawPolarChart(canvas, data, mode = 'linear', cursor = -1) {
   }
   // the point counted about: a red cross in a ring
   const [ax, ay] = place(about[0], about[1]);
-  g.strokeStyle = '#c0392b'; g.lineWidth = 2;
+  g.strokeStyle = ink('chart-mark'); g.lineWidth = 2;
   g.beginPath(); g.moveTo(ax - 6, ay - 6); g.lineTo(ax + 6, ay + 6); g.moveTo(ax - 6, ay + 6); g.lineTo(ax + 6, ay - 6); g.stroke();
   g.lineWidth = 1.2;
   g.beginPath(); g.arc(ax, ay, 8, 0, 2 * Math.PI); g.stroke();
-  g.fillStyle = '#c0392b'; g.textAlign = 'left'; g.textBaseline = 'bottom';
+  g.fillStyle = ink('chart-mark'); g.textAlign = 'left'; g.textBaseline = 'bottom';
   g.fillText('about ' + fmtComplex(about, 4), ax + 9, ay - 6);
   // the cursor
   if (cursor >= 0 && pts[cursor]) {
     const [cxp, cyp] = pts[cursor];
-    g.strokeStyle = '#444'; g.lineWidth = 1;
+    g.strokeStyle = ink('chart-cursor'); g.lineWidth = 1;
     g.beginPath(); g.moveTo(cxp - 10, cyp); g.lineTo(cxp + 10, cyp); g.moveTo(cxp, cyp - 10); g.lineTo(cxp, cyp + 10); g.stroke();
-    g.fillStyle = '#c0392b';
+    g.fillStyle = ink('chart-mark');
     g.beginPath(); g.arc(cxp, cyp, 3.5, 0, 2 * Math.PI); g.fill();
   }
   g.restore();
-  g.strokeStyle = '#7d8891'; g.lineWidth = 1;
+  g.strokeStyle = ink('chart-frame'); g.lineWidth = 1;
   g.strokeRect(left + 0.5, top + 0.5, W - 1, H - 1);
   // the lines above the plot and the axes' names
   g.textAlign = 'left'; g.textBaseline = 'top';
-  lines.forEach((t, k) => { g.fillStyle = k ? '#5b6670' : '#3b4650'; g.fillText(t, left, 2 + 13 * k); });
+  lines.forEach((t, k) => { g.fillStyle = k ? ink('chart-text') : ink('chart-text-strong'); g.fillText(t, left, 2 + 13 * k); });
   g.textAlign = 'right'; g.textBaseline = 'bottom';
   g.fillText(labels ? labels.x : 'Re F', left + W, cssH - 2);
   g.save(); g.translate(10, top + H / 2); g.rotate(-Math.PI / 2); g.textAlign = 'center'; g.textBaseline = 'middle'; g.fillText(labels ? labels.y : 'Im F', 0, 0); g.restore();

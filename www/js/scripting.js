@@ -59,7 +59,7 @@ function regionFrom(value, region) {
 }
 
 const KNOWN = ['f', 'var', 'params', 'view', 'region', 'contour', 'reversed', 't', 'n', 'panels', 'modulus', 'phase', 'infinity', 'wheel', 'symbols', 'autoFind',
-  'hz', 'sample_period', 'point', 'trails', 'domain', 'mode', 'kind', 'omega', 'alpha', 'laurent', 'image_point', 'complex_format'];
+  'hz', 'sample_period', 'point', 'trails', 'domain', 'mode', 'kind', 'omega', 'alpha', 'laurent', 'image_point', 'complex_format', 'scheme'];
 
 /** The Laurent section's choice (contract names: center, inner, outer, from, to) checked, or null. */
 function laurentChoice(x) {
@@ -124,6 +124,7 @@ function nextPageState(current, partial) {
     if (!['columns', 'j', 'i'].includes(partial.complex_format)) throw scriptError('invalid_field', 'complex_format must be "columns", "j" or "i"');
     next.complex_format = partial.complex_format;
   }
+  if ('scheme' in partial) { if (!['light', 'dark', 'system'].includes(partial.scheme)) throw scriptError('invalid_field', 'scheme must be "light", "dark" or "system"'); next.scheme = partial.scheme; }
   if ('symbols' in partial) { if (!['own', 'diagram'].includes(partial.symbols)) throw scriptError('invalid_field', 'symbols must be "own" or "diagram"'); next.symbols = partial.symbols; }
   if ('hz' in partial) { if (typeof partial.hz !== 'boolean') throw scriptError('bad_request', 'hz must be true or false'); next.hz = partial.hz; }
   if ('sample_period' in partial) {
@@ -215,6 +216,7 @@ export function installScripting(page, hooks) {
       laurent: state.laurent ? JSON.parse(JSON.stringify(state.laurent)) : null,
       image_point: hooks.imageCurve.point(),
       modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, symbols: state.symbols, autoFind: state.autoFind,
+      modulus: state.modulus, phase: state.phase, infinity: state.infinity, wheel: state.wheel, symbols: state.symbols, scheme: state.scheme, autoFind: state.autoFind,
       complex_format: state.complex_format,
       hz: state.hz, point: transferPoint(state),
       domain: state.domain === 'none' ? null : state.domain,

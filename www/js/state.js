@@ -1,9 +1,13 @@
 // The page state, and keeping it: localStorage (when the browser allows it on
-// this page) and the URL hash, so a link can carry a whole setup.
+// this page) and the URL hash, so a link can carry a whole setup. Both keep it whole
+// (share.js packs a long state into the link); nothing is cut.
 
 import { defaultIntegral, sanitizeIntegral } from './real-integral.js';
+import { encodeLink, decodeLink } from './share.js';
 
 const STORAGE_KEY = 'residuary.page.v1';
+// What this browser had when a link replaced it ("Restore what you had").
+const PREVIOUS_KEY = 'residuary.page.before-link.v1';
 
 /** localStorage that never throws (file:// pages may refuse it). */
 export const safeStorage = {
@@ -11,7 +15,14 @@ export const safeStorage = {
     try { return window.localStorage.getItem(key); } catch (e) { return null; }
   },
   set(key, value) {
-    try { window.localStorage.setItem(key, value); return true; } catch (e) { return false; }
+    return safeStorage.put(key, value) === 'ok';
+  },
+  /** 'ok', 'full' (the browser's quota is used up) or 'refused' (no storage on this page). */
+  put(key, value) {
+    try { window.localStorage.setItem(key, value); return 'ok'; } catch (e) {
+      const full = e && (e.name === 'QuotaExceededError' || e.name === 'NS_ERROR_DOM_QUOTA_REACHED' || e.code === 22);
+      return full ? 'full' : 'refused';
+    }
   },
 };
 
@@ -43,6 +54,7 @@ export function defaultState() {
     integral: defaultIntegral(), // the real-integral block: {kind, omega, alpha, open} (real-integral.js)
     laurent: null, // the Laurent section's choice: {center: [x, y] | "infinity", inner, outer, from, to} (laurent-panel.js)
     trails: null, // pole trails for one parameter: {name, from, to, steps, shown} (trails.js)
+    scheme: 'system', // the page's colours: 'light', 'dark' or 'system' (follows prefers-color-scheme)
   };
 }
 
@@ -51,15 +63,16 @@ export function sanitize(raw) {
   const s = defaultState();
   if (!raw || typeof raw !== 'object') return s;
   const num4 = (v) => Array.isArray(v) && v.length === 4 && v.every(Number.isFinite);
-  if (typeof raw.f === 'string') s.f = raw.f.slice(0, 4000);
-  if (typeof raw.var === 'string') s.var = raw.var.slice(0, 40);
+  // strings are kept whole: a cut f would be another function (the core refuses one too long)
+  if (typeof raw.f === 'string') s.f = raw.f;
+  if (typeof raw.var === 'string') s.var = raw.var;
   if (Array.isArray(raw.params)) {
     s.params = raw.params
       .filter((p) => p && typeof p.name === 'string')
       .slice(0, 40)
       .map((p) => ({
-        name: p.name.slice(0, 40),
-        value: String(p.value ?? '0').slice(0, 80),
+        name: p.name,
+        value: String(p.value ?? '0'),
         lo: Number.isFinite(p.lo) ? p.lo : null,
         hi: Number.isFinite(p.hi) ? p.hi : null,
       }));
@@ -72,6 +85,7 @@ export function sanitize(raw) {
   if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
   if (raw.symbols === 'own' || raw.symbols === 'diagram') s.symbols = raw.symbols;
   if (['columns', 'j', 'i'].includes(raw.complex_format)) s.complex_format = raw.complex_format;
+  if (['light', 'dark', 'system'].includes(raw.scheme)) s.scheme = raw.scheme;
   s.integral = sanitizeIntegral(raw.integral);
   const t = raw.trails;
   if (t && typeof t === 'object' && typeof t.name === 'string' && Number.isFinite(t.from) && Number.isFinite(t.to) && t.from !== t.to &&
@@ -101,53 +115,64 @@ export function sanitize(raw) {
   return s;
 }
 
-/** Encode for the URL hash. */
-export function toHash(state) {
-  return '#s=' + encodeURIComponent(JSON.stringify(state));
+/** Two states the same once each is brought into the current shape? */
+export function sameState(a, b) {
+  return JSON.stringify(sanitize(a)) === JSON.stringify(sanitize(b));
 }
 
-/** The state carried by a hash, or null. */
-export function fromHash(hash) {
-  const m = /^#s=(.*)$/.exec(hash || '');
-  if (!m) return null;
-  try {
-    return sanitize(JSON.parse(decodeURIComponent(m[1])));
-  } catch (e) {
-    return null;
+/** What this browser kept (brought into the current shape), or null. */
+export function storedState(key = STORAGE_KEY) {
+  const text = safeStorage.get(key);
+  if (!text) return null;
+  try { return sanitize(JSON.parse(text)); } catch (e) { return null; }
+}
+
+/** Where the page starts (async: a packed link is unpacked by the browser's decompression).
+ *  The link's state first, then what this browser kept, then the defaults. Resolves with
+ *  {state, fromLink, linkGivesView, hadStored, previous (the kept state a link replaced, or null),
+ *  problem (why a link that claims a state could not be read, or null)}. */
+export async function openState(hash) {
+  const stored = storedState();
+  const link = await decodeLink(hash || '');
+  if (link.kind === 'ok') {
+    const state = sanitize(link.raw);
+    const previous = stored && !sameState(stored, state) ? stored : null;
+    if (previous) safeStorage.put(PREVIOUS_KEY, JSON.stringify(previous));
+    return { state, fromLink: true, linkGivesView: Array.isArray(link.raw.view), hadStored: Boolean(stored), previous, problem: null };
   }
+  return { state: stored || defaultState(), fromLink: false, linkGivesView: false, hadStored: Boolean(stored), previous: null,
+    problem: link.kind === 'bad' ? link.reason : null };
 }
 
-/** Does the hash carry a state with a view of its own? */
-export function hashGivesView(hash) {
-  const m = /^#s=(.*)$/.exec(hash || '');
-  if (!m) return false;
-  try { const raw = JSON.parse(decodeURIComponent(m[1])); return Boolean(raw && Array.isArray(raw.view)); } catch (e) { return false; }
+/** The state a link carries: {kind: 'ok', state} | {kind: 'bad', reason} | {kind: 'none'}. */
+export async function stateFromLink(hash) {
+  const link = await decodeLink(hash || '');
+  return link.kind === 'ok' ? { kind: 'ok', state: sanitize(link.raw) } : link;
 }
 
-/** Has this browser kept a state of the page? */
-export function hasStoredState() {
-  return Boolean(safeStorage.get(STORAGE_KEY));
-}
+let stateWrites = 0;
+let lastStateHash = '';
+let storageListener = null;
+/** The hash the page wrote last (a hashchange to it is the page's own). */
+export const lastWrittenHash = () => lastStateHash;
+/** `fn(outcome)` hears each storage write: 'ok', 'full' or 'refused'. */
+export function onStorage(fn) { storageListener = fn; }
 
-/** Where the page starts: the link's hash first, then what this browser kept, then the defaults. */
-export function loadState() {
-  const fromLink = fromHash(window.location.hash);
-  if (fromLink) return fromLink;
-  const stored = safeStorage.get(STORAGE_KEY);
-  if (stored) {
-    try { return sanitize(JSON.parse(stored)); } catch (e) { /* fall through */ }
-  }
-  return defaultState();
-}
-
-/** Keep the state in both places; failures are ignored (the page still works). */
-export function saveState(state) {
-  safeStorage.set(STORAGE_KEY, JSON.stringify(state));
-  const hash = toHash(state);
-  if (window.location.hash === hash) return;
+/** Keep the state in both places, whole: this browser's storage (its outcome goes to the
+ *  onStorage listener) and the address (packed when long; the newest call wins). */
+export async function saveState(state) {
+  const serial = ++stateWrites;
+  const json = JSON.stringify(state);
+  const outcome = safeStorage.put(STORAGE_KEY, json);
+  if (storageListener) storageListener(outcome);
+  let hash;
+  try { hash = await encodeLink(JSON.parse(json)); } catch (e) { return outcome; }
+  if (serial !== stateWrites || window.location.hash === hash) return outcome;
+  lastStateHash = hash;
   try {
     window.history.replaceState(null, '', hash);
   } catch (e) {
     try { window.location.replace(hash); } catch (e2) { /* keep going */ }
   }
+  return outcome;
 }

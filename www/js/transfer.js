@@ -16,6 +16,7 @@ import { drawInverseChart } from './inverse-chart.js';
 import { drawPolarChart } from './polar-chart.js';
 import { attachCursor } from './chart-kit.js';
 import { setDataTable } from './data-table.js';
+import { ink } from './scheme.js';
 
 /** How f is read as a transfer function: 'auto' (by the variable's name: s continuous, z
  *  discrete, any other not at all), 's', 'z', or 'none' (never). The page state's `domain`. */
@@ -191,30 +192,30 @@ function stepDecoration(d) {
   const t10 = k10 >= 0 ? d.t[k10] : null;
   return (g, m) => {
     const x0 = m.left, x1 = m.right;
-    g.fillStyle = 'rgba(46, 139, 87, 0.12)';
+    g.fillStyle = ink('chart-good-band');
     g.fillRect(x0, m.py(yinf + band), x1 - x0, m.py(yinf - band) - m.py(yinf + band));
-    g.strokeStyle = '#2e8b57'; g.lineWidth = 1; g.setLineDash([5, 3]);
+    g.strokeStyle = ink('chart-good'); g.lineWidth = 1; g.setLineDash([5, 3]);
     g.beginPath(); g.moveTo(x0, m.py(yinf)); g.lineTo(x1, m.py(yinf)); g.stroke();
     g.setLineDash([]);
-    g.font = '10px system-ui, sans-serif'; g.fillStyle = '#2e8b57'; g.textAlign = 'right'; g.textBaseline = 'bottom';
+    g.font = '10px system-ui, sans-serif'; g.fillStyle = ink('chart-good'); g.textAlign = 'right'; g.textBaseline = 'bottom';
     g.fillText('steady state ± 2 %', x1 - 2, m.py(yinf + band) - 1);
     if (t10 !== null && Number.isFinite(st.rise_time)) {
       const a = m.px(toX(t10)), b = m.px(toX(t10 + st.rise_time)), yy = m.py(0.5 * yinf);
-      g.strokeStyle = '#7a4fa0'; g.fillStyle = '#7a4fa0';
+      g.strokeStyle = ink('chart-purple'); g.fillStyle = ink('chart-purple');
       g.beginPath(); g.moveTo(a, yy); g.lineTo(b, yy); g.moveTo(a, yy - 4); g.lineTo(a, yy + 4); g.moveTo(b, yy - 4); g.lineTo(b, yy + 4); g.stroke();
       g.textAlign = 'left'; g.textBaseline = 'bottom';
       g.fillText('rise 10–90 %', b + 3, yy);
     }
     if (Number.isFinite(st.settling_time)) {
       const xx = m.px(toX(st.settling_time));
-      g.strokeStyle = '#2e8b57'; g.setLineDash([2, 3]);
+      g.strokeStyle = ink('chart-good'); g.setLineDash([2, 3]);
       g.beginPath(); g.moveTo(xx, m.top); g.lineTo(xx, m.bottom); g.stroke(); g.setLineDash([]);
-      g.fillStyle = '#2e8b57'; g.textAlign = 'left'; g.textBaseline = 'top';
+      g.fillStyle = ink('chart-good'); g.textAlign = 'left'; g.textBaseline = 'top';
       g.fillText('settled', xx + 2, m.top + 1);
     }
     if (Number.isFinite(st.peak_time) && Number.isFinite(st.overshoot_percent)) {
       const xx = m.px(toX(st.peak_time)), yy = m.py(yinf + (st.overshoot_percent / 100) * Math.abs(yinf));
-      g.fillStyle = '#c0392b';
+      g.fillStyle = ink('chart-mark');
       g.beginPath(); g.moveTo(xx, yy - 6); g.lineTo(xx + 5, yy); g.lineTo(xx, yy + 6); g.lineTo(xx - 5, yy); g.closePath(); g.fill();
       g.textAlign = 'left'; g.textBaseline = 'bottom';
       g.fillText('peak', xx + 6, yy - 2);

@@ -2,6 +2,7 @@
 // labels, and the axis names (Re z, Im z, or w in the view around infinity).
 import { fmtReal } from '../format.js';
 import { MARGIN, viewBox, toScreen } from './view.js';
+import { ink } from '../scheme.js';
 
 /** Nice tick spacing for a span shown across `pixels`. */
 function tickStep(span, pixels) {
@@ -32,10 +33,10 @@ export function drawAxes(plot) {
   if (y0 < 0 && y1 > 0) { const [, sy] = toScreen(plot, 0, 0); ctx.moveTo(L, sy); ctx.lineTo(L + W, sy); }
   ctx.stroke();
   // Frame.
-  ctx.strokeStyle = '#333';
+  ctx.strokeStyle = ink('plot-frame');
   ctx.strokeRect(L + 0.5, T + 0.5, W - 1, H - 1);
   // Ticks and labels.
-  ctx.fillStyle = '#222';
+  ctx.fillStyle = ink('plot-ink');
   ctx.font = '12px system-ui, -apple-system, "Segoe UI", sans-serif';
   const sx = tickStep(x1 - x0, W);
   ctx.textAlign = 'center';
