@@ -2710,6 +2710,10 @@ describe('export and copy', () => {
     assert.equal(clip, await b.page.evaluate(() => window.residuary.export.table('singularities.poles', 'tsv')));
     assert.match(clip.split('\n')[1], /^-?[0-9.e-]+[+-][0-9.e-]+i\t/);
     await b.page.screenshot({ path: join(artifacts, 'export.png'), fullPage: false });
+    assert.deepEqual(b.log.errors, []);
+  });
+});
+
 describe('links that keep everything, print and the dark scheme', () => {
   let b;
   before(async () => { b = await openBrowser({ width: 1280, height: 1000 }); });
