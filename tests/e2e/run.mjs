@@ -13,6 +13,7 @@ import { createRequire } from 'node:module';
 import './entry-forms.test.mjs'; // the entry forms' parsing and writing, in node
 import './contour-path.test.mjs'; // the contour shapes' polylines and the image curve's winding, in node
 import './contour-geom.test.mjs'; // winding numbers and drags of the contour editor, in node
+import './search-pieces.test.mjs'; // the split of a long search into pieces and their merge, in node
 
 const here = dirname(fileURLToPath(import.meta.url));
 const require = createRequire(join(here, 'package.json'));
@@ -2426,5 +2427,95 @@ describe('state that never lies, readable progress, layout', () => {
     assert.ok(r.ok, JSON.stringify(r.error));
     assert.equal(await b.page.isHidden('#inv-box'), false);
     r.results.inverse_z.x.forEach((x, n) => assert.ok(Math.abs(x - Math.pow(0.5, n)) < 1e-12, `x[${n}] = ${x}`));
+  });
+});
+
+describe('a long search in pieces: what it has found so far', () => {
+  let b;
+  before(async () => {
+    assert.ok(existsSync(pagePath), `build the page first (make build): ${pagePath}`);
+    b = await openBrowser({ width: 1280, height: 1000 });
+    await load(b.page);
+  });
+  after(async () => { if (b) { await b.page.evaluate(() => window.residuary.options({ search_split_after_ms: 1000 })); await b.close(); } });
+
+  /** The search of `st` once whole (never split) and once in pieces (split at once). */
+  async function bothWays(st) {
+    const run = (split) => b.page.evaluate(async ([st, split]) => {
+      window.residuary.options({ search_split_after_ms: split });
+      const r = await window.residuary.set(st);
+      return r.singularities;
+    }, [st, split]);
+    const whole = await run(null);
+    const pieces = await run(0);
+    return { whole, pieces };
+  }
+  /** Every point of `a` has one of `b` of the same kind and order within `tol` (and residues close), and the counts agree. */
+  function samePoints(a, b, tol, what) {
+    for (const key of ['poles', 'zeros', 'essential', 'branch_points', 'removable']) {
+      const A = a[key] || [], B = b[key] || [];
+      assert.equal(B.length, A.length, `${what}: ${key}: ${A.length} whole, ${B.length} in pieces`);
+      const used = new Set();
+      for (const p of A) {
+        let best = -1, d = Infinity;
+        B.forEach((q, i) => { const e = Math.hypot(q.at[0] - p.at[0], q.at[1] - p.at[1]); if (!used.has(i) && e < d) { d = e; best = i; } });
+        assert.ok(d <= tol, `${what}: ${key} at ${p.at} has no twin within ${tol} (nearest ${d})`);
+        used.add(best);
+        const q = B[best];
+        assert.equal(q.order, p.order, `${what}: order at ${p.at}`);
+        if (p.residue && q.residue) {
+          const scale = Math.max(1, Math.hypot(...p.residue));
+          assert.ok(Math.hypot(q.residue[0] - p.residue[0], q.residue[1] - p.residue[1]) <= 1e-6 * scale, `${what}: residue at ${p.at}: ${p.residue} vs ${q.residue}`);
+        }
+      }
+    }
+  }
+
+  test('tan(z^4), a degree-40 rational f and gamma(z): the merged pieces give the points of the whole search', async () => {
+    // tan(z⁴): poles where z⁴ = π/2 + kπ, zeros where z⁴ = kπ (from memory); the whole search answers in a few s
+    const t = await bothWays({ f: 'tan(z^4)', var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-1.5, -1.5], [1.5, 1.5]] } });
+    assert.equal(t.whole.pieces, undefined);
+    assert.deepEqual(t.pieces.pieces.grid, [4, 4]);
+    // numpy 2.4 roots of z⁴ = π/2 + kπ and z⁴ = kπ (k ∈ ℤ) inside the square: 32 poles, 29 distinct zeros (z = 0 of order 4)
+    assert.equal(t.whole.poles.length, 32);
+    assert.equal(t.whole.zeros.length, 29);
+    samePoints(t.whole, t.pieces, 1e-7, 'tan(z^4)');
+    // a degree-40 denominator: poles = numpy.roots of z^40 + z^7 − 2 (all near |z| = 1), by the rational method both ways
+    const r = await bothWays({ f: '(z^2 + 3)/(z^40 + z^7 - 2)', var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-1.6, -1.6], [1.6, 1.6]] } });
+    assert.equal(r.whole.poles.length, 40);
+    assert.equal(r.pieces.method, 'rational');
+    samePoints(r.whole, r.pieces, 1e-9, 'degree 40');
+    // gamma: simple poles at 0, −1, …, −6 with residues (−1)ⁿ/n! (DLMF 5.2.1), some near the pieces' cuts
+    const g = await bothWays({ f: 'gamma(z)', var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-6.3, -2.1], [3.7, 1.9]] } });
+    samePoints(g.whole, g.pieces, 1e-7, 'gamma');
+    const fact = (n) => (n <= 1 ? 1 : n * fact(n - 1));
+    const poles = g.pieces.poles.slice().sort((p, q) => q.at[0] - p.at[0]);
+    assert.equal(poles.length, 7);
+    poles.forEach((p, n) => {
+      assert.ok(Math.abs(p.at[0] + n) < 1e-8 && Math.abs(p.at[1]) < 1e-8, JSON.stringify(p.at));
+      assert.ok(Math.abs(p.residue[0] - (-1) ** n / fact(n)) < 1e-7, `Res(Γ, −${n}) = ${p.residue}`);
+    });
+  });
+
+  test('while the pieces are searched the line counts what they found so far, with the time; the end agrees', async () => {
+    await b.page.evaluate(() => window.residuary.options({ search_split_after_ms: 0 }));
+    const pending = b.page.evaluate(() => window.residuary.set({ f: 'tan(z^4)', var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-1.45, -1.5], [1.5, 1.45]] } }).then((r) => r.singularities, (e) => ({ error: e })));
+    await b.page.waitForFunction(() => /^([1-9]|1[0-5])\/16$/.test(document.getElementById('find-progress').dataset.pieces || ''), null, { timeout: 20000, polling: 20 });
+    const line = await b.page.evaluate(() => { const l = document.getElementById('find-progress'); return { text: l.textContent, found: Number(l.dataset.found), pieces: l.dataset.pieces }; });
+    assert.match(line.text, /^Searching for zeros and poles: \d+\.\d s · \d+ points? \(zeros, poles and others\) so far, \d+ of 16 pieces of the region searched\. Stop abandons it\.$/);
+    assert.ok(line.text.includes(`${line.found} point`), JSON.stringify(line));
+    const s = await pending;
+    assert.ok(!s.error, JSON.stringify(s.error));
+    const total = ['poles', 'zeros', 'essential', 'branch_points', 'removable'].reduce((n, k) => n + s[k].length, 0);
+    assert.ok(line.found <= total, JSON.stringify(line));
+    assert.match(await b.page.textContent('#find-status'), new RegExp(`^Found ${total} points in the region \\(searched in 16 overlapping pieces, merged\\)`));
+    assert.equal(await b.page.evaluate(() => document.getElementById('plot').dataset.markers), String(total));
+    // a quick search (well under the default second) is never split: the core's own answer
+    await b.page.evaluate(() => window.residuary.options({ search_split_after_ms: 1000 }));
+    const quick = await scriptSet(b.page, { f: '1/(z^2 + 4)', var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-3, -3], [3, 3]] } });
+    assert.ok(quick.ok);
+    assert.equal(quick.results.singularities.pieces, undefined);
+    assert.deepEqual(await b.page.evaluate(() => window.residuary.options()), { search_split_after_ms: 1000 });
+    assert.equal(await b.page.evaluate(() => { try { window.residuary.options({ search_split_after_ms: -1 }); return null; } catch (e) { return e.code; } }), 'invalid_field');
   });
 });

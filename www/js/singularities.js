@@ -81,9 +81,9 @@ export function stabilityReading(variable, items, contour, method = 'rational') 
   return null;
 }
 
-/** Send the search; resolves with the response or an error object. */
-export function searchSingularities(base, contour) {
-  return runHeavy(Object.assign({}, base, { task: 'singularities', region: contour }));
+/** Send the search; resolves with the response or an error object (`ticket`: see runHeavy). */
+export function searchSingularities(base, contour, ticket = null) {
+  return runHeavy(Object.assign({}, base, { task: 'singularities', region: contour }), ticket);
 }
 
 /** Residue at infinity and the residue-sum check, in one short line each (`parts`: resInf, sumCheck). */
