@@ -2519,3 +2519,40 @@ describe('a long search in pieces: what it has found so far', () => {
     assert.equal(await b.page.evaluate(() => { try { window.residuary.options({ search_split_after_ms: -1 }); return null; } catch (e) { return e.code; } }), 'invalid_field');
   });
 });
+
+describe('the singularities table on a phone', () => {
+  let b;
+  before(async () => {
+    assert.ok(existsSync(pagePath), `build the page first (make build): ${pagePath}`);
+    b = await openBrowser({ width: 390, height: 844 });
+    await load(b.page);
+  });
+  after(async () => { if (b) await b.close(); });
+
+  test('at 390 × 844 the rows stack their columns, named, and nothing scrolls sideways', async () => {
+    // poles −1 ± 2i (roots of z² + 2z + 5, by the quadratic formula), a double pole at 1.25, a zero at 0.5
+    const out = await scriptSet(b.page, { f: '(z - 0.5)/((z^2 + 2*z + 5)*(z - 1.25)^2)', var: 'z', params: {} });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    assert.equal(out.results.singularities.poles.length, 3);
+    const m = await b.page.evaluate(() => {
+      const t = document.getElementById('sing-table');
+      const wrap = t.closest('.table-wrap');
+      const row = document.querySelector('#sing-body tr[data-index]');
+      const cells = [...row.children].map((td) => ({ label: td.dataset.label, before: getComputedStyle(td, '::before').content, r: td.getBoundingClientRect() }));
+      return { table: t.scrollWidth, wrap: wrap.clientWidth, wrapScroll: wrap.scrollWidth, doc: document.documentElement.scrollWidth, win: window.innerWidth,
+        rows: document.querySelectorAll('#sing-body tr[data-index]').length, cells, rowRight: row.getBoundingClientRect().right, wrapRight: wrap.getBoundingClientRect().right };
+    });
+    assert.ok(m.wrapScroll <= m.wrap + 1, `the table is ${m.wrapScroll} px wide in ${m.wrap} px`);
+    assert.ok(m.doc <= m.win, `the page is ${m.doc} px wide at ${m.win}`);
+    assert.ok(m.rowRight <= m.wrapRight + 1);
+    assert.equal(m.rows, 4);
+    assert.deepEqual(m.cells.map((c) => c.label), ['Location', 'Kind', 'Order', 'Residue', 'Error estimate', 'Winding']);
+    assert.equal(m.cells[0].before, '"Location"');
+    assert.ok(m.cells[3].r.top > m.cells[0].r.top + 5, 'the residue sits below the location (stacked)');
+    await b.page.locator('#sing-table').scrollIntoViewIfNeeded();
+    await b.page.screenshot({ path: join(artifacts, 'phone-table-390.png') });
+    // a row is still chosen by a tap
+    await b.page.click('#sing-body tr[data-index="0"]');
+    await b.page.waitForFunction(() => !document.getElementById('detail').hidden, null, { timeout: 10000 });
+  });
+});

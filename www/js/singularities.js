@@ -138,16 +138,23 @@ export function showWindings(tbody, w) {
   for (const tr of tbody.querySelectorAll('tr[data-index]')) windingCell(tr, w[Number(tr.dataset.index)]);
 }
 
+/** The cell with its column's name (shown above the value where a phone's narrow screen stacks
+ *  the columns, style.css). */
+function labelled(td, label) {
+  td.dataset.label = label;
+  return td;
+}
+
 /** One row of the table for item `it` at index `i` (its winding from `windings`, when known). */
 function tableRow(it, i, onPick, windings) {
   const tr = el('tr', { tabindex: 0, 'data-index': i, 'data-kind': it.kind, 'data-at': JSON.stringify(it.at),
     'data-residue': isFinitePair(it.residue) ? JSON.stringify(it.residue) : null, title: 'Show the principal part and Laurent coefficients' },
-    complexCell(it.at, it.floor),
-    el('td', { class: 'kind' }, markerIcon(it.kind), ' ' + KIND_WORDS[it.kind]),
-    el('td', { class: 'num', text: it.order === undefined || it.order === null ? '—' : String(it.order) }),
-    complexCell(it.residue),
-    el('td', { class: 'num', text: Number.isFinite(it.error) ? fmtReal(it.error, 2) : '—' }),
-    el('td', { class: 'num winding', text: '—' }));
+    labelled(complexCell(it.at, it.floor), 'Location'),
+    el('td', { class: 'kind', 'data-label': 'Kind' }, markerIcon(it.kind), ' ' + KIND_WORDS[it.kind]),
+    el('td', { class: 'num', 'data-label': 'Order', text: it.order === undefined || it.order === null ? '—' : String(it.order) }),
+    labelled(complexCell(it.residue), 'Residue'),
+    el('td', { class: 'num', 'data-label': 'Error estimate', text: Number.isFinite(it.error) ? fmtReal(it.error, 2) : '—' }),
+    el('td', { class: 'num winding', 'data-label': 'Winding', text: '—' }));
   if (windings) windingCell(tr, windings[i]);
   tr.addEventListener('click', () => onPick(i));
   tr.addEventListener('keydown', (e) => { if (e.key === 'Enter' || e.key === ' ') { e.preventDefault(); onPick(i); } });
