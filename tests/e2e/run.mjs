@@ -14,6 +14,7 @@ import './entry-forms.test.mjs'; // the entry forms' parsing and writing, in nod
 import './contour-path.test.mjs'; // the contour shapes' polylines and the image curve's winding, in node
 import './contour-geom.test.mjs'; // winding numbers and drags of the contour editor, in node
 import './search-pieces.test.mjs'; // the split of a long search into pieces and their merge, in node
+import './latex.test.mjs'; // the LaTeX writer of the page's MathML, in node
 
 const here = dirname(fileURLToPath(import.meta.url));
 const require = createRequire(join(here, 'package.json'));

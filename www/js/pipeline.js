@@ -21,6 +21,8 @@ import { contourSize } from './contour-geom.js';
 import { fmtReal, fmtSig, functionWords } from './format.js';
 import { KIND_WORDS } from './markers.js';
 import { isFinitePair } from './complex.js';
+import { partialFractionsMathML } from './mathml.js';
+import { latexButton } from './latex.js';
 
 /** Seconds as shown by the progress line: one decimal. */
 function secondsText(ms) {
@@ -340,7 +342,11 @@ export function createPipeline(page, hooks) {
     ui.partial.hidden = Boolean(pfErr) || typeof pf.text !== 'string';
     ui.pfWarnings.textContent = '';
     if (!ui.partial.hidden) {
-      ui.partial.textContent = 'Partial fractions: ' + pf.text;
+      // typeset from the response's terms (mathml.js), with its LaTeX (latex.js) and the core's text kept
+      ui.partial.textContent = '';
+      const math = partialFractionsMathML(base.var, pf);
+      ui.partial.append(el('span', { class: 'pf-label', text: 'Partial fractions:' }), math,
+        el('code', { class: 'pf-plain', text: pf.text }), latexButton(math, 'the partial fractions'));
       for (const w of Array.isArray(pf.warnings) ? pf.warnings : []) ui.pfWarnings.append(el('li', { text: 'Partial fractions: ' + String(w) }));
     }
     // Then the Laurent section and the kind of infinity (laurent-panel.js).

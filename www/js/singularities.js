@@ -6,6 +6,7 @@ import { el } from './dom.js';
 import { cAbs, cSub, isFinitePair } from './complex.js';
 import { fmtComplex, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, trimComplex } from './format.js';
 import { mathEl, mathMagnitude, mathCoefficient } from './mathml.js';
+import { latexButton } from './latex.js';
 import { runHeavy, responseError } from './engine.js';
 import { KIND_WORDS, markerIcon } from './markers.js';
 import { regionWords } from './region.js';
@@ -326,13 +327,16 @@ export function showDetail(parts, variable, item, response, annulus) {
     // coefficients on circles around the point for any other f.
     const ppLevel = Math.max(10 * (Number.isFinite(item.error) ? item.error : 0), 1e-15 * Math.max(...item.principal.map(cAbs)));
     const pp = item.principal.map((c, k) => ({ n: -(k + 1), c }));
+    const math = principalPartMathML(variable, item.at, pp, ppLevel, false, item.floor);
     parts.math.append(el('p', { class: 'detail-label', 'data-method': item.method || '', text: principalPartSource(item.method) }),
-      principalPartMathML(variable, item.at, pp, ppLevel, false, item.floor));
+      math, latexButton(math, 'the principal part'));
   } else if (!err) {
     parts.math.append(el('p', { class: 'detail-label', text: item.kind === 'essential'
       ? 'Principal part (infinitely many terms; the first ones, from the Laurent coefficients below):'
       : 'Principal part (from the Laurent coefficients below):' }),
     principalPartMathML(variable, item.at, coeffs, level, item.kind === 'essential', item.floor, item.kind === 'essential' ? 4 : 12));
+    const math = parts.math.querySelector('math');
+    if (math) parts.math.append(latexButton(math, 'the principal part'));
   }
   if (err) {
     notes.push(err.code === 'cancelled' ? 'Stopped.' : 'Laurent series not available: ' + err.message + '.');
