@@ -10,6 +10,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createRequire } from 'node:module';
+import { spawnSync } from 'node:child_process';
 import './entry-forms.test.mjs'; // the entry forms' parsing and writing, in node
 import './contour-path.test.mjs'; // the contour shapes' polylines and the image curve's winding, in node
 import './contour-geom.test.mjs'; // winding numbers and drags of the contour editor, in node
@@ -2555,5 +2556,103 @@ describe('the singularities table on a phone', () => {
     // a row is still chosen by a tap
     await b.page.click('#sing-body tr[data-index="0"]');
     await b.page.waitForFunction(() => !document.getElementById('detail').hidden, null, { timeout: 10000 });
+  });
+});
+
+describe('typeset results with their LaTeX', () => {
+  let b, core;
+  before(async () => {
+    assert.ok(existsSync(pagePath), `build the page first (make build): ${pagePath}`);
+    b = await openBrowser({ width: 1280, height: 1000 });
+    await load(b.page);
+    core = await nodeCore();
+  });
+  after(async () => { if (b) await b.close(); });
+
+  const PF = [
+    { name: 'pf: a real and a complex pair', f: '(s + 3)/((s + 2)*(s^2 + 2*s + 5))', var: 's' },
+    { name: 'pf: a polynomial part', f: '(z^3 + 1)/(z^2 - 0.25)', var: 'z' },
+    { name: 'pf: a double pole', f: '1/((z - 1)^2*(z + 2))', var: 'z' },
+  ];
+  const CF = [
+    { name: 'closed form: Laplace, a real pole and a pair', f: '(s + 3)/((s + 2)*(s^2 + 2*s + 5))', var: 's', key: 'inverse_laplace' },
+    { name: 'closed form: Laplace, a double pole', f: '1/(s + 1)^2', var: 's', key: 'inverse_laplace' },
+    { name: 'closed form: z, a pair inside the unit circle', f: '0.5*z/(z^2 - z + 0.5)', var: 'z', key: 'inverse_z' },
+  ];
+  const ONE_LINE = (m) => m.replace(/\s+/g, ' ');
+
+  test('partial fractions and closed forms in MathML, the core\'s text kept, Copy LaTeX; sympy reads the LaTeX back', async () => {
+    const dump = [];
+    for (const c of PF) {
+      const out = await scriptSet(b.page, { f: c.f, var: c.var, params: {} });
+      assert.ok(out.ok, JSON.stringify(out.error));
+      const dom = await b.page.evaluate(() => {
+        const p = document.getElementById('partial-fractions');
+        const m = p.querySelector('math');
+        return { hidden: p.hidden, latex: m && m.getAttribute('data-latex'), button: p.querySelector('button.copy-latex')?.dataset.latex, plain: p.querySelector('code.pf-plain')?.textContent, fracs: p.querySelectorAll('mfrac').length };
+      });
+      assert.equal(dom.hidden, false);
+      assert.ok(dom.latex && dom.latex.startsWith(`f(${c.var}) = `), JSON.stringify(dom));
+      assert.equal(dom.button, dom.latex);
+      assert.equal(dom.plain, out.results.partial_fractions.text, 'the core\'s text is kept beside the formula');
+      assert.equal(dom.fracs, out.results.partial_fractions.terms.length);
+      // the core's own f at a few points away from the poles
+      const at = [[0.37, 0.21], [-1.3, 0.8], [2.2, -0.45], [0.1, -1.7]];
+      const values = core.run({ task: 'evaluate', f: c.f, var: c.var, at }).values;
+      dump.push({ name: c.name, latex: dom.latex, var: c.var, points: at.map((x, i) => [x, values[i][0], values[i][1]]), tol: 1e-8 });
+    }
+    for (const c of CF) {
+      const out = await scriptSet(b.page, { f: c.f, var: c.var, params: {}, panels: { inverse: true } });
+      assert.ok(out.ok, JSON.stringify(out.error));
+      const r = out.results[c.key];
+      assert.ok(typeof r.closed_form === 'string', JSON.stringify(r).slice(0, 300));
+      const dom = await b.page.evaluate(() => {
+        const p = document.getElementById('inv-closed');
+        const m = p.querySelector('math');
+        return { latex: m && m.getAttribute('data-latex'), button: p.querySelector('button.copy-latex')?.dataset.latex, plain: p.querySelector('code.inv-formula')?.textContent };
+      });
+      assert.ok(dom.latex, JSON.stringify(dom));
+      assert.equal(dom.button, dom.latex);
+      assert.equal(dom.plain, (c.var === 's' ? 'f(t) = ' : 'x[n] = ') + r.closed_form);
+      const xs = c.var === 's' ? r.t : r.n;
+      const ys = c.var === 's' ? r.f : r.x;
+      const picks = [1, 7, 23, Math.floor(xs.length / 2), xs.length - 1].filter((i) => i < xs.length);
+      dump.push({ name: c.name, latex: dom.latex, var: c.var === 's' ? 't' : 'n', points: picks.map((i) => [xs[i], ys[i], 0]), tol: 1e-8 });
+    }
+    // Copy LaTeX: the button copies (the page's own fallback when the clipboard API is not offered) and says so
+    await b.page.click('#inv-closed button.copy-latex');
+    await b.page.waitForFunction(() => /^Cop/.test(document.querySelector('#inv-closed button.copy-latex').textContent) && document.querySelector('#inv-closed button.copy-latex').textContent !== 'Copy LaTeX', null, { timeout: 3000 });
+    assert.equal(await b.page.textContent('#inv-closed button.copy-latex'), 'Copied');
+    writeFileSync(join(artifacts, 'latex-dump.json'), JSON.stringify(dump, null, 1));
+    // the formulas sympy has read back (tests/fixtures/check_latex.py --write): the page still writes them so
+    const fixture = JSON.parse(readFileSync(join(root, 'tests', 'fixtures', 'latex_sympy.json'), 'utf8'));
+    for (const d of dump) {
+      const f = fixture.cases.find((x) => x.name === d.name);
+      assert.ok(f, `no sympy check recorded for ${d.name}: run tests/fixtures/check_latex.py on ${join(artifacts, 'latex-dump.json')} --write`);
+      assert.equal(ONE_LINE(d.latex), ONE_LINE(f.latex), `${d.name}: the LaTeX changed since sympy checked it`);
+      assert.ok(f.ok && f.max_relative_difference <= f.tol, JSON.stringify(f));
+    }
+    // and where sympy's LaTeX reader is installed, read the page's LaTeX back now
+    const py = spawnSync('python3', ['-c', 'import sympy, antlr4'], { encoding: 'utf8' });
+    if (py.status === 0) {
+      const run = spawnSync('python3', [join(root, 'tests', 'fixtures', 'check_latex.py'), join(artifacts, 'latex-dump.json')], { encoding: 'utf8' });
+      assert.equal(run.status, 0, run.stdout + run.stderr);
+    }
+  });
+
+  test('the real-integral derivation and the principal parts carry their LaTeX too', async () => {
+    // ∫ dx/(x² + 1) = π (from memory)
+    const out = await scriptSet(b.page, { f: '1/(z^2 + 1)', var: 'z', params: {}, kind: 'line' });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    assert.ok(Math.abs(out.results.real_integral.value[0] - Math.PI) < 1e-10);
+    const ri = await b.page.evaluate(() => [...document.querySelectorAll('.ri-math math[data-latex]')].map((m) => m.getAttribute('data-latex')));
+    assert.ok(ri.length >= 2, JSON.stringify(ri));
+    assert.ok(ri[0].startsWith('\\int_{-\\infty}^{\\infty}f(x)dx = '), ri[0]);
+    assert.ok(ri.some((l) => l.includes('\\operatorname{Res}')), JSON.stringify(ri));
+    await b.page.click('#sing-body tr[data-index="0"]');
+    await b.page.waitForFunction(() => document.querySelector('#detail-math math[data-latex]'), null, { timeout: 10000 });
+    const pp = await b.page.evaluate(() => document.querySelector('#detail-math math').getAttribute('data-latex'));
+    // Res(1/(z² + 1), ±i) = ∓i/2 (from memory): the principal part (∓0.5 i)/(z ∓ i)
+    assert.match(pp, /^-?\\frac\{0\.5 i\}\{z [-+] i\}$/, pp);
   });
 });
