@@ -2648,7 +2648,7 @@ describe('typeset results with their LaTeX', () => {
     const ri = await b.page.evaluate(() => [...document.querySelectorAll('.ri-math math[data-latex]')].map((m) => m.getAttribute('data-latex')));
     assert.ok(ri.length >= 2, JSON.stringify(ri));
     assert.ok(ri[0].startsWith('\\int_{-\\infty}^{\\infty}f(x)dx = '), ri[0]);
-    assert.ok(ri.some((l) => l.includes('\\operatorname{Res}')), JSON.stringify(ri));
+    assert.ok(ri.some((l) => l.includes('\\operatorname{Res}') && l.includes('\\operatorname{Im}')), JSON.stringify(ri));
     await b.page.click('#sing-body tr[data-index="0"]');
     await b.page.waitForFunction(() => document.querySelector('#detail-math math[data-latex]'), null, { timeout: 10000 });
     const pp = await b.page.evaluate(() => document.querySelector('#detail-math math').getAttribute('data-latex'));

@@ -19,8 +19,8 @@ const LATEX_SYMBOLS = {
   '′': "'", '″': "''",
 };
 /** Names set upright: the standard ones have a command, the others go through \operatorname. */
-const LATEX_NAMED = new Set(['sin', 'cos', 'tan', 'exp', 'log', 'ln', 'sinh', 'cosh', 'tanh', 'arg', 'det', 'max', 'min', 'lim', 'Re', 'Im']);
-const LATEX_OPERATORS = new Set(['Res', 'PV', 'sgn', 'erf', 'erfc']);
+const LATEX_NAMED = new Set(['sin', 'cos', 'tan', 'exp', 'log', 'ln', 'sinh', 'cosh', 'tanh', 'arg', 'det', 'max', 'min', 'lim']);
+const LATEX_OPERATORS = new Set(['Res', 'Re', 'Im', 'PV', 'sgn', 'erf', 'erfc']);
 
 function latexSymbols(text) {
   let out = '';
