@@ -2504,13 +2504,15 @@ describe('a long search in pieces: what it has found so far', () => {
     const pending = b.page.evaluate(() => window.residuary.set({ f: 'tan(z^4)', var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-1.45, -1.5], [1.5, 1.45]] } }).then((r) => r.singularities, (e) => ({ error: e })));
     await b.page.waitForFunction(() => /^([1-9]|1[0-5])\/16$/.test(document.getElementById('find-progress').dataset.pieces || ''), null, { timeout: 20000, polling: 20 });
     const line = await b.page.evaluate(() => { const l = document.getElementById('find-progress'); return { text: l.textContent, found: Number(l.dataset.found), pieces: l.dataset.pieces }; });
-    assert.match(line.text, /^Searching for zeros and poles: \d+\.\d s · \d+ points? \(zeros, poles and others\) so far, \d+ of 16 pieces of the region searched\. Stop abandons it\.$/);
-    assert.ok(line.text.includes(`${line.found} point`), JSON.stringify(line));
+    const said = /^Searching for zeros and poles: \d+\.\d s · (\d+) zeros? and (\d+) poles? so far, (\d+) of 16 pieces of the region searched\. Stop abandons it\.$/.exec(line.text);
+    assert.ok(said, line.text);
+    assert.equal(Number(said[1]) + Number(said[2]), line.found, JSON.stringify(line));
+    assert.equal(`${said[3]}/16`, line.pieces);
     const s = await pending;
     assert.ok(!s.error, JSON.stringify(s.error));
     const total = ['poles', 'zeros', 'essential', 'branch_points', 'removable'].reduce((n, k) => n + s[k].length, 0);
     assert.ok(line.found <= total, JSON.stringify(line));
-    assert.match(await b.page.textContent('#find-status'), new RegExp(`^Found ${total} points in the region \\(searched in 16 overlapping pieces, merged\\)`));
+    assert.match(await b.page.textContent('#find-status'), new RegExp(`^Found ${total} points in the region \\(numerical search\\); searched in 16 overlapping pieces, merged\\. Choose`));
     assert.equal(await b.page.evaluate(() => document.getElementById('plot').dataset.markers), String(total));
     // a quick search (well under the default second) is never split: the core's own answer
     await b.page.evaluate(() => window.residuary.options({ search_split_after_ms: 1000 }));

@@ -65,6 +65,7 @@ describe('search in pieces (node)', () => {
     assert.deepEqual(seen.map((s) => s.done), [0, 1, 2, 3, 4]);
     assert.ok(seen.every((s, i) => i === 0 || s.found >= seen[i - 1].found));
     assert.equal(seen[4].found, pts.length);
+    assert.deepEqual(seen[4].kinds, { poles: pts.length, zeros: 0, other: 0 });
     let calls = 0;
     const failing = (contour) => (++calls === 3 ? Promise.resolve({ error: { code: 'budget_exhausted', message: 'the budget ran out' } }) : core(contour));
     const f = await searchInPieces(region, failing, { grid: [2, 2] });

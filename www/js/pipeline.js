@@ -139,14 +139,15 @@ export function createPipeline(page, hooks) {
     }
     if (!(await abandonHeavy(ticket.id))) return first; // it answered meanwhile
     if (serial !== page.searchSerial) return { error: { code: 'cancelled', message: 'cancelled', span: null } };
-    const plural = (n) => `${n} point${n === 1 ? '' : 's'}`;
+    const plural = (n, word) => `${n} ${word}${n === 1 ? '' : 's'}`;
     return searchInPieces(contour, (c) => searchSingularities(base, c), {
       stopped: () => serial !== page.searchSerial,
       fmt: (x) => fmtReal(x, 6),
-      onPiece: ({ done, total, found }) => {
+      onPiece: ({ done, total, found, kinds }) => {
         progress.count = found;
         progress.pieces = `${done}/${total}`;
-        progress.found = `${plural(found)} (zeros, poles and others) so far, ${done} of ${total} pieces of the region searched`;
+        progress.found = `${plural(kinds.zeros, 'zero')} and ${plural(kinds.poles, 'pole')}` + (kinds.other ? ` and ${plural(kinds.other, 'other point')}` : '') +
+          ` so far, ${done} of ${total} pieces of the region searched`;
         showProgress();
       },
     });
@@ -270,10 +271,10 @@ export function createPipeline(page, hooks) {
     const n = found.items.length;
     progress.found = `${n} point${n === 1 ? '' : 's'} found`;
     progress.count = n;
-    const inPieces = resp.pieces ? ` (searched in ${resp.pieces.total} overlapping pieces, merged)` : '';
-    ui.findStatus.textContent = n ? `Found ${n} point${n === 1 ? '' : 's'} in the region${inPieces}` +
+    const inPieces = resp.pieces ? `; searched in ${resp.pieces.total} overlapping pieces, merged` : '';
+    ui.findStatus.textContent = n ? `Found ${n} point${n === 1 ? '' : 's'} in the region` +
       (resp.method === 'rational' ? ' (f is rational: partial fractions, poles as polynomial roots)' : resp.method === 'numerical' ? ' (numerical search)' : '') +
-      '. Choose a row or marker for its principal part.' : 'Search finished: nothing in the region.';
+      inPieces + '. Choose a row or marker for its principal part.' : `Search finished: nothing in the region${inPieces}.`;
     await fillTable(ui.tbody, found.items, pick);
     if (hooks.tableFilled) hooks.tableFilled();
     if (await breathe()) return superseded;

@@ -64,6 +64,12 @@ export function widenPiece(piece, region, factor) {
 
 const LISTS = ['poles', 'zeros', 'essential', 'branch_points', 'removable'];
 
+/** The points of a singularities response by kind: {poles, zeros, other}. */
+export function kindCounts(resp) {
+  const n = (k) => (resp && Array.isArray(resp[k]) ? resp[k].length : 0);
+  return { poles: n('poles'), zeros: n('zeros'), other: n('essential') + n('branch_points') + n('removable') };
+}
+
 /** The number of points in a singularities response (every list). */
 export function pointCount(resp) {
   if (!resp || typeof resp !== 'object') return 0;
@@ -120,7 +126,8 @@ export function pieceWords(piece, total, fmt = (x) => String(x)) {
 }
 
 /** Search `region` (a rectangle) in pieces: `search(contour)` resolves with the core's response for
- *  one piece; `onPiece({done, total, found})` after each piece (found: the merged count so far);
+ *  one piece; `onPiece({done, total, found, kinds})` after each piece (found: the merged count so far, kinds:
+ *  {poles, zeros, other});
  *  `stopped()` true drops the rest. Resolves with the merged response plus `pieces` ({grid, total,
  *  overlap}); or, when a piece fails (after two wider overlaps if it met a point on an inner edge),
  *  with that piece's error, its message naming the piece and what the other pieces had found. */
@@ -131,7 +138,7 @@ export async function searchInPieces(region, search, { onPiece = () => {}, stopp
   const tol = twinTolerance(region);
   const answers = [];
   const info = { grid: [nx, ny], total: pieces.length, overlap: OVERLAP };
-  onPiece({ done: 0, total: pieces.length, found: 0 });
+  onPiece({ done: 0, total: pieces.length, found: 0, kinds: { poles: 0, zeros: 0, other: 0 } });
   for (const piece of pieces) {
     let resp = await search(piece.contour);
     if (stopped()) return { error: { code: 'cancelled', message: 'cancelled', span: null }, pieces: info };
@@ -151,7 +158,8 @@ export async function searchInPieces(region, search, { onPiece = () => {}, stopp
       };
     }
     answers.push(resp);
-    onPiece({ done: answers.length, total: pieces.length, found: pointCount(mergeAnswers(answers, tol)) });
+    const merged = mergeAnswers(answers, tol);
+    onPiece({ done: answers.length, total: pieces.length, found: pointCount(merged), kinds: kindCounts(merged) });
   }
   return Object.assign(mergeAnswers(answers, tol), { pieces: info });
 }
