@@ -52,6 +52,9 @@ describe('search in pieces (node)', () => {
     assert.equal(m.zeros.length, 2, 'a zero where a pole is (another kind) is not a twin');
     assert.deepEqual(m.warnings, ['w1', 'w2']);
     assert.equal(m.zeros_minus_poles, null);
+    // a double zero found 1e-7 apart by two pieces is one point (its location is less sharp); simple zeros that far apart stay two
+    const d = mergeAnswers([{ zeros: [{ at: [0, 0], order: 2 }, { at: [5, 0], order: 1 }] }, { zeros: [{ at: [1e-7, 0], order: 2 }, { at: [5 + 1e-7, 0], order: 1 }] }], 1e-9);
+    assert.deepEqual(d.zeros.map((z) => z.order), [2, 1, 1]);
   });
 
   test('a fake core: every point found once, on a cut too; a failed piece is named, with what the others found', async () => {

@@ -80,7 +80,7 @@ function atOf(p) { return Array.isArray(p) ? p : p && p.at; }
 
 /** Merge the responses of the pieces (`answers`, one per piece, none an error) into one response
  *  of the contract's shape: every list the union of the pieces' lists, a point found twice (same
- *  kind, within `tol` of each other) kept once, the one with the smaller error estimate; the
+ *  kind and order, within `tol` of each other, 1000·tol for a multiple point) kept once, the one with the smaller error estimate; the
  *  residue at infinity and the residue-sum defect (properties of f, not of the region) from the
  *  first piece; `method` "numerical" if any piece's is; the warnings once each. `zeros_minus_poles`
  *  is null: each piece's count is for its own piece (the page counts the whole contour after). */
@@ -92,7 +92,10 @@ export function mergeAnswers(answers, tol) {
       for (const p of Array.isArray(resp[key]) ? resp[key] : []) {
         const at = atOf(p);
         if (!Array.isArray(at)) continue;
-        const twin = kept.findIndex((q) => Math.hypot(atOf(q)[0] - at[0], atOf(q)[1] - at[1]) <= tol);
+        // a multiple point is located less sharply (about ε^(1/m)): its copies may differ more
+        const order = (x) => (x && Number.isInteger(x.order) ? x.order : 1);
+        const twin = kept.findIndex((q) => order(q) === order(p) &&
+          Math.hypot(atOf(q)[0] - at[0], atOf(q)[1] - at[1]) <= (order(p) > 1 ? 1e3 * tol : tol));
         if (twin < 0) kept.push(p);
         else {
           const e = (x) => (x && Number.isFinite(x.error_estimate) ? x.error_estimate : Infinity);
