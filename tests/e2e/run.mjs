@@ -10,10 +10,13 @@ import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createRequire } from 'node:module';
+import { spawnSync } from 'node:child_process';
 import './entry-forms.test.mjs'; // the entry forms' parsing and writing, in node
 import './contour-path.test.mjs'; // the contour shapes' polylines and the image curve's winding, in node
 import './contour-geom.test.mjs'; // winding numbers and drags of the contour editor, in node
 import { longSum } from './share.test.mjs'; // the link codec against node's zlib, in node
+import './search-pieces.test.mjs'; // the split of a long search into pieces and their merge, in node
+import './latex.test.mjs'; // the LaTeX writer of the page's MathML, in node
 
 const here = dirname(fileURLToPath(import.meta.url));
 const require = createRequire(join(here, 'package.json'));
@@ -2950,5 +2953,232 @@ describe('links that keep everything, print and the dark scheme', () => {
     await b.page.waitForFunction(() => document.documentElement.dataset.scheme === 'dark');
     await scriptSet(b.page, { scheme: 'system' });
     assert.deepEqual(b.log.errors, []);
+  });
+});
+
+describe('a long search in pieces: what it has found so far', () => {
+  let b;
+  before(async () => {
+    assert.ok(existsSync(pagePath), `build the page first (make build): ${pagePath}`);
+    b = await openBrowser({ width: 1280, height: 1000 });
+    await load(b.page);
+  });
+  after(async () => { if (b) { await b.page.evaluate(() => window.residuary.options({ search_split_after_ms: 1000 })); await b.close(); } });
+
+  /** The search of `st` once whole (never split) and once in pieces (split at once). */
+  async function bothWays(st) {
+    const run = (split) => b.page.evaluate(async ([st, split]) => {
+      window.residuary.options({ search_split_after_ms: split });
+      const r = await window.residuary.set(st);
+      return r.singularities;
+    }, [st, split]);
+    const whole = await run(null);
+    const pieces = await run(0);
+    return { whole, pieces };
+  }
+  /** Every point of `a` has one of `b` of the same kind and order within `tol` (and residues close), and the counts agree. */
+  function samePoints(a, b, tol, what) {
+    for (const key of ['poles', 'zeros', 'essential', 'branch_points', 'removable']) {
+      const A = a[key] || [], B = b[key] || [];
+      assert.equal(B.length, A.length, `${what}: ${key}: ${A.length} whole, ${B.length} in pieces`);
+      const used = new Set();
+      for (const p of A) {
+        let best = -1, d = Infinity;
+        B.forEach((q, i) => { const e = Math.hypot(q.at[0] - p.at[0], q.at[1] - p.at[1]); if (!used.has(i) && e < d) { d = e; best = i; } });
+        assert.ok(d <= tol, `${what}: ${key} at ${p.at} has no twin within ${tol} (nearest ${d})`);
+        used.add(best);
+        const q = B[best];
+        assert.equal(q.order, p.order, `${what}: order at ${p.at}`);
+        if (p.residue && q.residue) {
+          const scale = Math.max(1, Math.hypot(...p.residue));
+          assert.ok(Math.hypot(q.residue[0] - p.residue[0], q.residue[1] - p.residue[1]) <= 1e-6 * scale, `${what}: residue at ${p.at}: ${p.residue} vs ${q.residue}`);
+        }
+      }
+    }
+  }
+
+  test('tan(z^4), a degree-40 rational f and gamma(z): the merged pieces give the points of the whole search', async () => {
+    // tan(z⁴): poles where z⁴ = π/2 + kπ, zeros where z⁴ = kπ (from memory); the whole search answers in a few s
+    const t = await bothWays({ f: 'tan(z^4)', var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-1.5, -1.5], [1.5, 1.5]] } });
+    assert.equal(t.whole.pieces, undefined);
+    assert.deepEqual(t.pieces.pieces.grid, [4, 4]);
+    // numpy 2.4 roots of z⁴ = π/2 + kπ and z⁴ = kπ (k ∈ ℤ) inside the square: 32 poles, 29 distinct zeros (z = 0 of order 4)
+    assert.equal(t.whole.poles.length, 32);
+    assert.equal(t.whole.zeros.length, 29);
+    samePoints(t.whole, t.pieces, 1e-7, 'tan(z^4)');
+    // a degree-40 denominator: poles = numpy.roots of z^40 + z^7 − 2 (all near |z| = 1), by the rational method both ways
+    const r = await bothWays({ f: '(z^2 + 3)/(z^40 + z^7 - 2)', var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-1.6, -1.6], [1.6, 1.6]] } });
+    assert.equal(r.whole.poles.length, 40);
+    assert.equal(r.pieces.method, 'rational');
+    samePoints(r.whole, r.pieces, 1e-9, 'degree 40');
+    // gamma: simple poles at 0, −1, …, −6 with residues (−1)ⁿ/n! (DLMF 5.2.1), some near the pieces' cuts
+    const g = await bothWays({ f: 'gamma(z)', var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-6.3, -2.1], [3.7, 1.9]] } });
+    samePoints(g.whole, g.pieces, 1e-7, 'gamma');
+    const fact = (n) => (n <= 1 ? 1 : n * fact(n - 1));
+    const poles = g.pieces.poles.slice().sort((p, q) => q.at[0] - p.at[0]);
+    assert.equal(poles.length, 7);
+    poles.forEach((p, n) => {
+      assert.ok(Math.abs(p.at[0] + n) < 1e-8 && Math.abs(p.at[1]) < 1e-8, JSON.stringify(p.at));
+      assert.ok(Math.abs(p.residue[0] - (-1) ** n / fact(n)) < 1e-7, `Res(Γ, −${n}) = ${p.residue}`);
+    });
+  });
+
+  test('while the pieces are searched the line counts what they found so far, with the time; the end agrees', async () => {
+    await b.page.evaluate(() => window.residuary.options({ search_split_after_ms: 0 }));
+    const pending = b.page.evaluate(() => window.residuary.set({ f: 'tan(z^4)', var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-1.45, -1.5], [1.5, 1.45]] } }).then((r) => r.singularities, (e) => ({ error: e })));
+    await b.page.waitForFunction(() => /^([1-9]|1[0-5])\/16$/.test(document.getElementById('find-progress').dataset.pieces || ''), null, { timeout: 20000, polling: 20 });
+    const line = await b.page.evaluate(() => { const l = document.getElementById('find-progress'); return { text: l.textContent, found: Number(l.dataset.found), pieces: l.dataset.pieces }; });
+    const said = /^Searching for zeros and poles: \d+\.\d s · (\d+) zeros? and (\d+) poles? so far, (\d+) of 16 pieces of the region searched\. Stop abandons it\.$/.exec(line.text);
+    assert.ok(said, line.text);
+    assert.equal(Number(said[1]) + Number(said[2]), line.found, JSON.stringify(line));
+    assert.equal(`${said[3]}/16`, line.pieces);
+    const s = await pending;
+    assert.ok(!s.error, JSON.stringify(s.error));
+    const total = ['poles', 'zeros', 'essential', 'branch_points', 'removable'].reduce((n, k) => n + s[k].length, 0);
+    assert.ok(line.found <= total, JSON.stringify(line));
+    assert.match(await b.page.textContent('#find-status'), new RegExp(`^Found ${total} points in the region \\(numerical search\\); searched in 16 overlapping pieces, merged\\. Choose`));
+    assert.equal(await b.page.evaluate(() => document.getElementById('plot').dataset.markers), String(total));
+    // a quick search (well under the default second) is never split: the core's own answer
+    await b.page.evaluate(() => window.residuary.options({ search_split_after_ms: 1000 }));
+    const quick = await scriptSet(b.page, { f: '1/(z^2 + 4)', var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-3, -3], [3, 3]] } });
+    assert.ok(quick.ok);
+    assert.equal(quick.results.singularities.pieces, undefined);
+    assert.deepEqual(await b.page.evaluate(() => window.residuary.options()), { search_split_after_ms: 1000 });
+    assert.equal(await b.page.evaluate(() => { try { window.residuary.options({ search_split_after_ms: -1 }); return null; } catch (e) { return e.code; } }), 'invalid_field');
+  });
+});
+
+describe('the singularities table on a phone', () => {
+  let b;
+  before(async () => {
+    assert.ok(existsSync(pagePath), `build the page first (make build): ${pagePath}`);
+    b = await openBrowser({ width: 390, height: 844 });
+    await load(b.page);
+  });
+  after(async () => { if (b) await b.close(); });
+
+  test('at 390 × 844 the rows stack their columns, named, and nothing scrolls sideways', async () => {
+    // poles −1 ± 2i (roots of z² + 2z + 5, by the quadratic formula), a double pole at 1.25, a zero at 0.5
+    const out = await scriptSet(b.page, { f: '(z - 0.5)/((z^2 + 2*z + 5)*(z - 1.25)^2)', var: 'z', params: {} });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    assert.equal(out.results.singularities.poles.length, 3);
+    const m = await b.page.evaluate(() => {
+      const t = document.getElementById('sing-table');
+      const wrap = t.closest('.table-wrap');
+      const row = document.querySelector('#sing-body tr[data-index]');
+      const cells = [...row.children].map((td) => ({ label: td.dataset.label, before: getComputedStyle(td, '::before').content, r: td.getBoundingClientRect() }));
+      return { table: t.scrollWidth, wrap: wrap.clientWidth, wrapScroll: wrap.scrollWidth, doc: document.documentElement.scrollWidth, win: window.innerWidth,
+        rows: document.querySelectorAll('#sing-body tr[data-index]').length, cells, rowRight: row.getBoundingClientRect().right, wrapRight: wrap.getBoundingClientRect().right };
+    });
+    assert.ok(m.wrapScroll <= m.wrap + 1, `the table is ${m.wrapScroll} px wide in ${m.wrap} px`);
+    assert.ok(m.doc <= m.win, `the page is ${m.doc} px wide at ${m.win}`);
+    assert.ok(m.rowRight <= m.wrapRight + 1);
+    assert.equal(m.rows, 4);
+    assert.deepEqual(m.cells.map((c) => c.label), ['Location', 'Kind', 'Order', 'Residue', 'Error estimate', 'Winding']);
+    assert.equal(m.cells[0].before, '"Location"');
+    assert.ok(m.cells[3].r.top > m.cells[0].r.top + 5, 'the residue sits below the location (stacked)');
+    await b.page.locator('#sing-table').scrollIntoViewIfNeeded();
+    await b.page.screenshot({ path: join(artifacts, 'phone-table-390.png') });
+    // a row is still chosen by a tap
+    await b.page.click('#sing-body tr[data-index="0"]');
+    await b.page.waitForFunction(() => !document.getElementById('detail').hidden, null, { timeout: 10000 });
+  });
+});
+
+describe('typeset results with their LaTeX', () => {
+  let b, core;
+  before(async () => {
+    assert.ok(existsSync(pagePath), `build the page first (make build): ${pagePath}`);
+    b = await openBrowser({ width: 1280, height: 1000 });
+    await load(b.page);
+    core = await nodeCore();
+  });
+  after(async () => { if (b) await b.close(); });
+
+  const PF = [
+    { name: 'pf: a real and a complex pair', f: '(s + 3)/((s + 2)*(s^2 + 2*s + 5))', var: 's' },
+    { name: 'pf: a polynomial part', f: '(z^3 + 1)/(z^2 - 0.25)', var: 'z' },
+    { name: 'pf: a double pole', f: '1/((z - 1)^2*(z + 2))', var: 'z' },
+  ];
+  const CF = [
+    { name: 'closed form: Laplace, a real pole and a pair', f: '(s + 3)/((s + 2)*(s^2 + 2*s + 5))', var: 's', key: 'inverse_laplace' },
+    { name: 'closed form: Laplace, a double pole', f: '1/(s + 1)^2', var: 's', key: 'inverse_laplace' },
+    { name: 'closed form: z, a pair inside the unit circle', f: '0.5*z/(z^2 - z + 0.5)', var: 'z', key: 'inverse_z' },
+  ];
+  const ONE_LINE = (m) => m.replace(/\s+/g, ' ');
+
+  test('partial fractions and closed forms in MathML, the core\'s text kept, Copy LaTeX; sympy reads the LaTeX back', async () => {
+    const dump = [];
+    for (const c of PF) {
+      const out = await scriptSet(b.page, { f: c.f, var: c.var, params: {} });
+      assert.ok(out.ok, JSON.stringify(out.error));
+      const dom = await b.page.evaluate(() => {
+        const p = document.getElementById('partial-fractions');
+        const m = p.querySelector('math');
+        return { hidden: p.hidden, latex: m && m.getAttribute('data-latex'), button: p.querySelector('button.copy-latex')?.dataset.latex, plain: p.querySelector('code.pf-plain')?.textContent, fracs: p.querySelectorAll('mfrac').length };
+      });
+      assert.equal(dom.hidden, false);
+      assert.ok(dom.latex && dom.latex.startsWith(`f(${c.var}) = `), JSON.stringify(dom));
+      assert.equal(dom.button, dom.latex);
+      assert.equal(dom.plain, out.results.partial_fractions.text, 'the core\'s text is kept beside the formula');
+      assert.equal(dom.fracs, out.results.partial_fractions.terms.length);
+      // the core's own f at a few points away from the poles
+      const at = [[0.37, 0.21], [-1.3, 0.8], [2.2, -0.45], [0.1, -1.7]];
+      const values = core.run({ task: 'evaluate', f: c.f, var: c.var, at }).values;
+      dump.push({ name: c.name, latex: dom.latex, var: c.var, points: at.map((x, i) => [x, values[i][0], values[i][1]]), tol: 1e-8 });
+    }
+    for (const c of CF) {
+      const out = await scriptSet(b.page, { f: c.f, var: c.var, params: {}, panels: { inverse: true } });
+      assert.ok(out.ok, JSON.stringify(out.error));
+      const r = out.results[c.key];
+      assert.ok(typeof r.closed_form === 'string', JSON.stringify(r).slice(0, 300));
+      const dom = await b.page.evaluate(() => {
+        const p = document.getElementById('inv-closed');
+        const m = p.querySelector('math');
+        return { latex: m && m.getAttribute('data-latex'), button: p.querySelector('button.copy-latex')?.dataset.latex, plain: p.querySelector('code.inv-formula')?.textContent };
+      });
+      assert.ok(dom.latex, JSON.stringify(dom));
+      assert.equal(dom.button, dom.latex);
+      assert.equal(dom.plain, (c.var === 's' ? 'f(t) = ' : 'x[n] = ') + r.closed_form);
+      const xs = c.var === 's' ? r.t : r.n;
+      const ys = c.var === 's' ? r.f : r.x;
+      const picks = [1, 7, 23, Math.floor(xs.length / 2), xs.length - 1].filter((i) => i < xs.length);
+      dump.push({ name: c.name, latex: dom.latex, var: c.var === 's' ? 't' : 'n', points: picks.map((i) => [xs[i], ys[i], 0]), tol: 1e-8 });
+    }
+    // Copy LaTeX: the button copies (the page's own fallback when the clipboard API is not offered) and says so
+    await b.page.click('#inv-closed button.copy-latex');
+    await b.page.waitForFunction(() => /^Cop/.test(document.querySelector('#inv-closed button.copy-latex').textContent) && document.querySelector('#inv-closed button.copy-latex').textContent !== 'Copy LaTeX', null, { timeout: 3000 });
+    assert.equal(await b.page.textContent('#inv-closed button.copy-latex'), 'Copied');
+    writeFileSync(join(artifacts, 'latex-dump.json'), JSON.stringify(dump, null, 1));
+    // the formulas sympy has read back (tests/fixtures/check_latex.py --write): the page still writes them so
+    const fixture = JSON.parse(readFileSync(join(root, 'tests', 'fixtures', 'latex_sympy.json'), 'utf8'));
+    for (const d of dump) {
+      const f = fixture.cases.find((x) => x.name === d.name);
+      assert.ok(f, `no sympy check recorded for ${d.name}: run tests/fixtures/check_latex.py on ${join(artifacts, 'latex-dump.json')} --write`);
+      assert.equal(ONE_LINE(d.latex), ONE_LINE(f.latex), `${d.name}: the LaTeX changed since sympy checked it`);
+      assert.ok(f.ok && f.max_relative_difference <= f.tol, JSON.stringify(f));
+    }
+    // and where sympy's LaTeX reader is installed, read the page's LaTeX back now
+    const py = spawnSync('python3', ['-c', 'import sympy, antlr4'], { encoding: 'utf8' });
+    if (py.status === 0) {
+      const run = spawnSync('python3', [join(root, 'tests', 'fixtures', 'check_latex.py'), join(artifacts, 'latex-dump.json')], { encoding: 'utf8' });
+      assert.equal(run.status, 0, run.stdout + run.stderr);
+    }
+  });
+
+  test('the real-integral derivation and the principal parts carry their LaTeX too', async () => {
+    // ∫ dx/(x² + 1) = π (from memory)
+    const out = await scriptSet(b.page, { f: '1/(z^2 + 1)', var: 'z', params: {}, kind: 'line' });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    assert.ok(Math.abs(out.results.real_integral.value[0] - Math.PI) < 1e-10);
+    const ri = await b.page.evaluate(() => [...document.querySelectorAll('.ri-math math[data-latex]')].map((m) => m.getAttribute('data-latex')));
+    assert.ok(ri.length >= 2, JSON.stringify(ri));
+    assert.ok(ri[0].startsWith('\\int_{-\\infty}^{\\infty}f(x)dx = '), ri[0]);
+    assert.ok(ri.some((l) => l.includes('\\operatorname{Res}') && l.includes('\\operatorname{Im}')), JSON.stringify(ri));
+    await b.page.click('#sing-body tr[data-index="0"]');
+    await b.page.waitForFunction(() => document.querySelector('#detail-math math[data-latex]'), null, { timeout: 10000 });
+    const pp = await b.page.evaluate(() => document.querySelector('#detail-math math').getAttribute('data-latex'));
+    // Res(1/(z² + 1), ±i) = ∓i/2 (from memory): the principal part (∓0.5 i)/(z ∓ i)
+    assert.match(pp, /^-?\\frac\{0\.5 i\}\{z [-+] i\}$/, pp);
   });
 });

@@ -16,6 +16,8 @@ export const Engine = {
   plotWorker: null,
   heavyWorker: null,
   heavyPending: new Map(),
+  heavyRequests: new Map(),
+  respawning: null,
   nextId: 1,
   plotJob: null,
 };
@@ -116,6 +118,7 @@ function attachHeavy(worker) {
     const pending = Engine.heavyPending.get(msg.id);
     if (pending) {
       Engine.heavyPending.delete(msg.id);
+      Engine.heavyRequests.delete(msg.id);
       let response = msg.response;
       if (typeof msg.json === 'string') {
         try { response = JSON.parse(msg.json); } catch (e) { response = { error: { code: 'internal', message: 'the answer could not be read: ' + String(e && e.message), span: null } }; }
@@ -135,17 +138,46 @@ export function runNow(request) {
   }
 }
 
-/** A heavy call, off the main thread when possible. Resolves with the response (or error object). */
-export async function runHeavy(request) {
+/** A heavy call, off the main thread when possible. Resolves with the response (or error object).
+ *  `ticket` (optional, an object) gets the call's `id` for abandonHeavy. */
+export async function runHeavy(request, ticket = null) {
+  if (Engine.respawning) await Engine.respawning; // a worker being restarted (abandonHeavy)
   if (!Engine.heavyWorker) {
     await yieldToBrowser();
     return runNow(request);
   }
   const id = Engine.nextId++;
+  if (ticket) ticket.id = id;
   return new Promise((resolve) => {
     Engine.heavyPending.set(id, resolve);
+    Engine.heavyRequests.set(id, request);
     Engine.heavyWorker.postMessage({ type: 'run', id, request });
   });
+}
+
+/** Abandon one heavy call (its promise resolves with code "cancelled") and keep the others: the
+ *  worker is ended (a call cannot be interrupted inside the core), a new one started and the other
+ *  calls still waiting are sent to it again. Resolves true when the call was still running. */
+export async function abandonHeavy(id) {
+  if (!Engine.heavyWorker || !Engine.heavyPending.has(id)) return false;
+  Engine.heavyWorker.terminate();
+  Engine.heavyWorker = null;
+  Engine.heavyPending.get(id)({ error: { code: 'cancelled', message: 'cancelled', span: null } });
+  Engine.heavyPending.delete(id);
+  Engine.heavyRequests.delete(id);
+  Engine.respawning = spawnWorker();
+  const worker = await Engine.respawning;
+  Engine.respawning = null;
+  if (!worker) {
+    for (const resolve of Engine.heavyPending.values()) resolve({ error: { code: 'internal', message: 'the computing worker could not be restarted', span: null } });
+    Engine.heavyPending.clear();
+    Engine.heavyRequests.clear();
+    return true;
+  }
+  attachHeavy(worker);
+  Engine.heavyWorker = worker;
+  for (const [other, request] of Engine.heavyRequests) worker.postMessage({ type: 'run', id: other, request });
+  return true;
 }
 
 /** Stop every heavy call in flight (their promises resolve with an error of code "cancelled"). */
@@ -154,6 +186,7 @@ export async function cancelHeavy() {
   Engine.heavyWorker.terminate();
   for (const resolve of Engine.heavyPending.values()) resolve({ error: { code: 'cancelled', message: 'cancelled', span: null } });
   Engine.heavyPending.clear();
+  Engine.heavyRequests.clear();
   Engine.heavyWorker = null;
   const worker = await spawnWorker();
   if (worker) { attachHeavy(worker); Engine.heavyWorker = worker; }

@@ -4,6 +4,8 @@
 // numerical contour inversion (and, for z, long division); this block draws the
 // result on a small chart, gives the closed form when there is one, the largest
 // disagreement between the ways, and every warning the core gives.
+import { mathEl, closedFormMathML } from './mathml.js';
+import { latexButton } from './latex.js';
 import { el } from './dom.js';
 import { fmtReal } from './format.js';
 import { runHeavy, responseError } from './engine.js';
@@ -123,8 +125,14 @@ export function showInverse(parts, request, resp) {
   const lhs = isS ? 'f(t)' : 'x[n]';
   const where = isS ? 'for t > 0' : 'for n ≥ 0';
   if (typeof resp.closed_form === 'string' && resp.closed_form) {
-    parts.closed.append(el('span', { class: 'inv-label', text: 'Closed form' }), ' ',
-      el('code', { class: 'inv-formula', text: `${lhs} = ${resp.closed_form}` }), ` ${where}`);
+    // the core's text read once into MathML (mathml.js), its LaTeX written from that tree (latex.js)
+    const lhsMath = isS ? mathEl('mrow', mathEl('mi', 'f'), mathEl('mo', '('), mathEl('mi', 't'), mathEl('mo', ')'))
+      : mathEl('mrow', mathEl('mi', 'x'), mathEl('mo', '['), mathEl('mi', 'n'), mathEl('mo', ']'));
+    const math = closedFormMathML(lhsMath, resp.closed_form);
+    parts.closed.append(el('span', { class: 'inv-label', text: 'Closed form' }), ' ');
+    if (math) parts.closed.append(math);
+    parts.closed.append(el('code', { class: 'inv-formula', text: `${lhs} = ${resp.closed_form}` }), ` ${where}`);
+    if (math) parts.closed.append(' ', latexButton(math, 'the closed form'));
   } else {
     parts.closed.append(el('span', { class: 'inv-label', text: 'Closed form' }), ' none (the function is not rational); the values are numerical.');
   }

@@ -4,6 +4,7 @@
 // Also the kind of the point at infinity (the core's residue at "infinity"), shown here and marked
 // at w = 0 in the plot's view at infinity (plot/overlays.js drawInfinityMarker).
 import { mathEl, mathMagnitude, mathCoefficient } from './mathml.js';
+import { latexButton } from './latex.js';
 import { $, el } from './dom.js';
 import { cAbs, cSub, isFinitePair } from './complex.js';
 import { fmtReal, fmtSig, fmtComplex, fmtExact, trimBelow, trimComplex } from './format.js';
@@ -359,7 +360,7 @@ export function attachLaurentPanel(page, hooks) {
     ui.method.dataset.exact = exactPart ? 'true' : 'false';
     const scale = Array.isArray(c) ? Math.max(1, cAbs(c)) : 1;
     const { math, text } = seriesMath(w, atInf ? [0, 0] : trimComplex(c, 12, 1e-12 * scale), terms, more && !exactPart);
-    ui.math.append(math);
+    ui.math.append(math, latexButton(math, 'the principal part'));
     ui.text.textContent = (atInf ? 'Growing part: ' : 'Principal part: ') + text;
     for (const t of coeffs) {
       const shown = isFinitePair(t.c) ? trimBelow(t.c, level) : t.c;

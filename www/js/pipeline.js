@@ -6,7 +6,8 @@
 // step checks that no newer search or Stop has come in the meantime. Also the
 // Laurent detail for a chosen point.
 import { $, el, debounce } from './dom.js';
-import { Engine, runHeavy, cancelHeavy, responseError, yieldToBrowser } from './engine.js';
+import { Engine, runHeavy, cancelHeavy, abandonHeavy, responseError, yieldToBrowser } from './engine.js';
+import { searchInPieces, SPLIT_AFTER_MS } from './search-pieces.js';
 import { functionInput } from './params.js';
 import { regionProblem } from './region.js';
 import {
@@ -20,6 +21,8 @@ import { contourSize } from './contour-geom.js';
 import { fmtReal, fmtSig, functionWords } from './format.js';
 import { KIND_WORDS } from './markers.js';
 import { isFinitePair } from './complex.js';
+import { partialFractionsMathML } from './mathml.js';
+import { latexButton } from './latex.js';
 
 /** Seconds as shown by the progress line: one decimal. */
 function secondsText(ms) {
@@ -90,10 +93,11 @@ export function createPipeline(page, hooks) {
   }
 
   // ---- progress: the stage, the time since the run began and what it has found so far ----
-  // The core answers a search in one piece (it cannot report partial finds), so while the search
-  // runs the line says the stage and the elapsed time; once the search has answered, the later
-  // stages say how many points it found.
-  const progress = { timer: 0, t0: 0, stage: '', found: '' };
+  // The core answers one search in one piece. A search of a rectangle that has not answered
+  // within SPLIT_AFTER_MS is abandoned and run again in pieces (search-pieces.js): the line then
+  // counts the points the finished pieces found ("37 points so far, 9 of 16 pieces searched").
+  // Once the search has answered, the later stages say how many points it found.
+  const progress = { timer: 0, t0: 0, stage: '', found: '', count: null, pieces: '' };
   const progressLine = () => $('find-progress');
   function showProgress() {
     const line = progressLine();
@@ -101,12 +105,52 @@ export function createPipeline(page, hooks) {
     line.hidden = false;
     line.textContent = `${progress.stage} ${secondsText(performance.now() - progress.t0)}` + (progress.found ? ` · ${progress.found}` : '') + '. Stop abandons it.';
     line.dataset.stage = progress.key;
+    if (progress.count === null) delete line.dataset.found; else line.dataset.found = String(progress.count);
+    if (progress.pieces) line.dataset.pieces = progress.pieces; else delete line.dataset.pieces;
   }
   function startProgress() {
     clearInterval(progress.timer);
     progress.t0 = performance.now();
     progress.found = '';
+    progress.count = null;
+    progress.pieces = '';
     progress.timer = setInterval(showProgress, 200);
+  }
+
+  /** The search of `contour`, with a running count when it is long: a rectangle whose search has not
+   *  answered within page.searchSplitAfterMs (default SPLIT_AFTER_MS; Infinity never splits) is
+   *  abandoned and searched again in pieces, each finished piece adding to the count shown. A quick
+   *  search is never split, so its answer is the core's own. */
+  async function searchWithProgress(base, contour, serial) {
+    const ticket = {};
+    const first = searchSingularities(base, contour, ticket);
+    const after = typeof page.searchSplitAfterMs === 'number' ? page.searchSplitAfterMs : SPLIT_AFTER_MS;
+    if (!Engine.usesWorkers || !(after < Infinity)) return first;
+    const LATE = {};
+    let timer = 0;
+    const late = new Promise((resolve) => { timer = setTimeout(() => resolve(LATE), Math.max(0, after)); });
+    const winner = await Promise.race([first, late]);
+    clearTimeout(timer);
+    if (winner !== LATE || serial !== page.searchSerial) return first;
+    if (contour.shape !== 'rectangle') {
+      progress.found = 'this shape is searched whole: what it finds is counted when it answers';
+      showProgress();
+      return first;
+    }
+    if (!(await abandonHeavy(ticket.id))) return first; // it answered meanwhile
+    if (serial !== page.searchSerial) return { error: { code: 'cancelled', message: 'cancelled', span: null } };
+    const plural = (n, word) => `${n} ${word}${n === 1 ? '' : 's'}`;
+    return searchInPieces(contour, (c) => searchSingularities(base, c), {
+      stopped: () => serial !== page.searchSerial,
+      fmt: (x) => fmtReal(x, 6),
+      onPiece: ({ done, total, found, kinds }) => {
+        progress.count = found;
+        progress.pieces = `${done}/${total}`;
+        progress.found = `${plural(kinds.zeros, 'zero')} and ${plural(kinds.poles, 'pole')}` + (kinds.other ? ` and ${plural(kinds.other, 'other point')}` : '') +
+          ` so far, ${done} of ${total} pieces of the region searched`;
+        showProgress();
+      },
+    });
   }
   function stage(key, text) {
     progress.key = key;
@@ -181,7 +225,7 @@ export function createPipeline(page, hooks) {
         }
       }
     }
-    let resp = await searchSingularities(base, contour);
+    let resp = await searchWithProgress(base, contour, serial);
     if (serial !== page.searchSerial) return superseded;
     // The current view as the region, and the search met a zero or pole on its edge (f not
     // rational, e.g. gamma's poles at the integers): widen the region a little, by a step that is
@@ -194,7 +238,7 @@ export function createPipeline(page, hooks) {
         page.results.contour = contour;
         page.results.nudge = { widened_by: nudge.widenedBy, at: null, note: widenNote(base.var, nudge) };
         ui.regionNote.textContent = page.results.nudge.note;
-        resp = await searchSingularities(base, contour);
+        resp = await searchWithProgress(base, contour, serial);
         if (serial !== page.searchSerial) return superseded;
       }
     }
@@ -226,9 +270,11 @@ export function createPipeline(page, hooks) {
     page.found = found;
     const n = found.items.length;
     progress.found = `${n} point${n === 1 ? '' : 's'} found`;
+    progress.count = n;
+    const inPieces = resp.pieces ? `; searched in ${resp.pieces.total} overlapping pieces, merged` : '';
     ui.findStatus.textContent = n ? `Found ${n} point${n === 1 ? '' : 's'} in the region` +
       (resp.method === 'rational' ? ' (f is rational: partial fractions, poles as polynomial roots)' : resp.method === 'numerical' ? ' (numerical search)' : '') +
-      '. Choose a row or marker for its principal part.' : 'Search finished: nothing in the region.';
+      inPieces + '. Choose a row or marker for its principal part.' : `Search finished: nothing in the region${inPieces}.`;
     await fillTable(ui.tbody, found.items, pick);
     if (hooks.tableFilled) hooks.tableFilled();
     if (await breathe()) return superseded;
@@ -297,7 +343,11 @@ export function createPipeline(page, hooks) {
     ui.partial.hidden = Boolean(pfErr) || typeof pf.text !== 'string';
     ui.pfWarnings.textContent = '';
     if (!ui.partial.hidden) {
-      ui.partial.textContent = 'Partial fractions: ' + pf.text;
+      // typeset from the response's terms (mathml.js), with its LaTeX (latex.js) and the core's text kept
+      ui.partial.textContent = '';
+      const math = partialFractionsMathML(base.var, pf);
+      ui.partial.append(el('span', { class: 'pf-label', text: 'Partial fractions:' }), math,
+        el('code', { class: 'pf-plain', text: pf.text }), latexButton(math, 'the partial fractions'));
       for (const w of Array.isArray(pf.warnings) ? pf.warnings : []) ui.pfWarnings.append(el('li', { text: 'Partial fractions: ' + String(w) }));
     }
     // Then the Laurent section and the kind of infinity (laurent-panel.js).

@@ -6,6 +6,7 @@
 // core's refusal. The integrand is the page's f in the page's variable, that variable running
 // along the real axis (x) or over one period (θ).
 import { mathEl } from './mathml.js';
+import { latexButton } from './latex.js';
 import { el } from './dom.js';
 import { isFinitePair } from './complex.js';
 import { fmtReal, fmtSig, fmtExact, trimBelow } from './format.js';
@@ -72,7 +73,7 @@ function mathBlock(mathRow, plain, cls = 'ri-math') {
   const math = mathEl('math', mathRow);
   math.setAttribute('display', 'block');
   math.setAttribute('alttext', plain);
-  return el('div', { class: cls }, math, el('code', { class: 'ri-plain', text: plain }));
+  return el('div', { class: cls }, math, el('code', { class: 'ri-plain', text: plain }), latexButton(math));
 }
 
 /** The integral asked for, as MathML and text; `pv` prefixes the principal value. */

@@ -10,6 +10,7 @@ import { regionProblem } from './region.js';
 import { askInverse, currentInverseSpan } from './inverse.js';
 import { askTransfer, transferOpen, setTransferPoint, currentTransferPoint, setTransferDomain } from './transfer.js';
 import { INTEGRAL_KINDS } from './real-integral.js';
+import { SPLIT_AFTER_MS } from './search-pieces.js';
 
 /** A failure of set(): rejects with {code, message} (the contract's codes, plus the page's). */
 function scriptError(code, message) {
@@ -372,5 +373,16 @@ export function installScripting(page, hooks) {
     results: currentResults,
     /** Resolves when whatever is computing now has finished (with results()). */
     settled: async () => { await hooks.started; await hooks.pipeline.settled(); await hooks.integral.ensure(); return currentResultsInSteps(); },
+    /** The page's tuning: {search_split_after_ms} (ms before a long search of a rectangle is run
+     *  again in pieces with a running count; null: never). Sets the fields given, returns them all. */
+    options(o = {}) {
+      if (o && 'search_split_after_ms' in o) {
+        const v = o.search_split_after_ms;
+        if (v !== null && !(typeof v === 'number' && v >= 0)) throw scriptError('invalid_field', 'search_split_after_ms must be a number of milliseconds ≥ 0, or null (never split)');
+        page.searchSplitAfterMs = v === null ? Infinity : v;
+      }
+      const v = typeof page.searchSplitAfterMs === 'number' ? page.searchSplitAfterMs : SPLIT_AFTER_MS;
+      return { search_split_after_ms: v === Infinity ? null : v };
+    },
   };
 }

@@ -6,6 +6,7 @@ import { el } from './dom.js';
 import { cAbs, cSub, isFinitePair } from './complex.js';
 import { fmtComplex, fmtReal, fmtSig, fmtSigLines, fmtExact, trimBelow, trimComplex } from './format.js';
 import { mathEl, mathMagnitude, mathCoefficient } from './mathml.js';
+import { latexButton } from './latex.js';
 import { runHeavy, responseError } from './engine.js';
 import { KIND_WORDS, markerIcon } from './markers.js';
 import { regionWords } from './region.js';
@@ -81,9 +82,9 @@ export function stabilityReading(variable, items, contour, method = 'rational') 
   return null;
 }
 
-/** Send the search; resolves with the response or an error object. */
-export function searchSingularities(base, contour) {
-  return runHeavy(Object.assign({}, base, { task: 'singularities', region: contour }));
+/** Send the search; resolves with the response or an error object (`ticket`: see runHeavy). */
+export function searchSingularities(base, contour, ticket = null) {
+  return runHeavy(Object.assign({}, base, { task: 'singularities', region: contour }), ticket);
 }
 
 /** Residue at infinity and the residue-sum check, in one short line each (`parts`: resInf, sumCheck). */
@@ -138,16 +139,23 @@ export function showWindings(tbody, w) {
   for (const tr of tbody.querySelectorAll('tr[data-index]')) windingCell(tr, w[Number(tr.dataset.index)]);
 }
 
+/** The cell with its column's name (shown above the value where a phone's narrow screen stacks
+ *  the columns, style.css). */
+function labelled(td, label) {
+  td.dataset.label = label;
+  return td;
+}
+
 /** One row of the table for item `it` at index `i` (its winding from `windings`, when known). */
 function tableRow(it, i, onPick, windings) {
   const tr = el('tr', { tabindex: 0, 'data-index': i, 'data-kind': it.kind, 'data-at': JSON.stringify(it.at),
     'data-residue': isFinitePair(it.residue) ? JSON.stringify(it.residue) : null, title: 'Show the principal part and Laurent coefficients' },
-    complexCell(it.at, it.floor),
-    el('td', { class: 'kind' }, markerIcon(it.kind), ' ' + KIND_WORDS[it.kind]),
-    el('td', { class: 'num', text: it.order === undefined || it.order === null ? '—' : String(it.order) }),
-    complexCell(it.residue),
-    el('td', { class: 'num', text: Number.isFinite(it.error) ? fmtReal(it.error, 2) : '—' }),
-    el('td', { class: 'num winding', text: '—' }));
+    labelled(complexCell(it.at, it.floor), 'Location'),
+    el('td', { class: 'kind', 'data-label': 'Kind' }, markerIcon(it.kind), ' ' + KIND_WORDS[it.kind]),
+    el('td', { class: 'num', 'data-label': 'Order', text: it.order === undefined || it.order === null ? '—' : String(it.order) }),
+    labelled(complexCell(it.residue), 'Residue'),
+    el('td', { class: 'num', 'data-label': 'Error estimate', text: Number.isFinite(it.error) ? fmtReal(it.error, 2) : '—' }),
+    el('td', { class: 'num winding', 'data-label': 'Winding', text: '—' }));
   if (windings) windingCell(tr, windings[i]);
   tr.addEventListener('click', () => onPick(i));
   tr.addEventListener('keydown', (e) => { if (e.key === 'Enter' || e.key === ' ') { e.preventDefault(); onPick(i); } });
@@ -319,13 +327,16 @@ export function showDetail(parts, variable, item, response, annulus) {
     // coefficients on circles around the point for any other f.
     const ppLevel = Math.max(10 * (Number.isFinite(item.error) ? item.error : 0), 1e-15 * Math.max(...item.principal.map(cAbs)));
     const pp = item.principal.map((c, k) => ({ n: -(k + 1), c }));
+    const math = principalPartMathML(variable, item.at, pp, ppLevel, false, item.floor);
     parts.math.append(el('p', { class: 'detail-label', 'data-method': item.method || '', text: principalPartSource(item.method) }),
-      principalPartMathML(variable, item.at, pp, ppLevel, false, item.floor));
+      math, latexButton(math, 'the principal part'));
   } else if (!err) {
     parts.math.append(el('p', { class: 'detail-label', text: item.kind === 'essential'
       ? 'Principal part (infinitely many terms; the first ones, from the Laurent coefficients below):'
       : 'Principal part (from the Laurent coefficients below):' }),
     principalPartMathML(variable, item.at, coeffs, level, item.kind === 'essential', item.floor, item.kind === 'essential' ? 4 : 12));
+    const math = parts.math.querySelector('math');
+    if (math) parts.math.append(latexButton(math, 'the principal part'));
   }
   if (err) {
     notes.push(err.code === 'cancelled' ? 'Stopped.' : 'Laurent series not available: ' + err.message + '.');
