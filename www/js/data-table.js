@@ -1,9 +1,9 @@
 // A chart's samples as a table, folded under the chart: "Data (n samples)" in a <details>,
 // built only when opened and 200 rows at a time (previous / next), so that no single task
 // on the main thread grows with the number of samples.
-import { el } from './dom.js';
+import { el, copyText } from './dom.js';
 import { cleanNumberText, numText } from './format.js';
-import { toCSV, toTSV, copyText, download } from './export.js';
+import { toCSV, toTSV, download } from './export.js';
 
 export const ROWS_PER_PAGE = 200;
 

@@ -26,3 +26,22 @@ export function debounce(fn, ms) {
   wrapped.cancel = () => clearTimeout(timer);
   return wrapped;
 }
+
+/** Copy `text` to the clipboard: the asynchronous clipboard when the page may use it, else a
+ *  selected hidden text area (pages opened from disk). Resolves true when it was copied. */
+export async function copyText(text) {
+  try {
+    if (navigator.clipboard && window.isSecureContext) { await navigator.clipboard.writeText(text); return true; }
+  } catch (e) { /* fall through to the text area */ }
+  const area = document.createElement('textarea');
+  area.value = text;
+  area.setAttribute('readonly', '');
+  area.style.position = 'fixed';
+  area.style.opacity = '0';
+  document.body.append(area);
+  area.select();
+  let ok = false;
+  try { ok = document.execCommand('copy'); } catch (e) { ok = false; }
+  area.remove();
+  return ok;
+}

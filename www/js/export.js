@@ -6,7 +6,7 @@
 // a copy handler that makes a selection in any table of the page clean tab-separated values.
 // The tables are read from window.residuary.results() (docs/scripting.md), so what is exported
 // is what the API gives.
-import { el } from './dom.js';
+import { el, copyText } from './dom.js';
 import { numText, complexText, parseExact, cleanNumberText, COMPLEX_FORMATS } from './format.js';
 import { runHeavy, responseError } from './engine.js';
 import { MARGIN, viewBox } from './plot/view.js';
@@ -168,20 +168,6 @@ export function download(data, name, type) {
   setTimeout(() => URL.revokeObjectURL(url), 10000);
 }
 
-/** Put `text` on the clipboard; resolves true when it is there. */
-export async function copyText(text) {
-  try {
-    if (navigator.clipboard && navigator.clipboard.writeText) { await navigator.clipboard.writeText(text); return true; }
-  } catch (e) { /* fall through to the selection copy */ }
-  const ta = el('textarea', { class: 'visually-hidden', 'aria-hidden': 'true' });
-  ta.value = text;
-  document.body.append(ta);
-  ta.select();
-  let ok = false;
-  try { ok = document.execCommand('copy'); } catch (e) { ok = false; }
-  ta.remove();
-  return ok;
-}
 
 /** A selection inside a table as tab-separated values: each selected row, each cell's number in
  *  full precision (a cell's data-copy, else the full-precision title format.js fmtExact wrote,

@@ -3,6 +3,7 @@
 // is parsed from text here. Also the "Copy LaTeX" button every typeset formula carries.
 // The writer reads only localName, childNodes, nodeType and textContent (and getAttribute for
 // mspace), so node tests can hand it plain objects of that shape (tests/e2e/latex.test.mjs).
+import { copyText } from './dom.js';
 
 /** Characters with a LaTeX command of their own (operators, letters, symbols). */
 const LATEX_SYMBOLS = {
@@ -112,24 +113,6 @@ function latexWrite(node) {
   }
 }
 
-/** Copy `text` to the clipboard: the asynchronous clipboard when the page may use it, else a
- *  selected hidden text area (pages opened from disk). Resolves true when it was copied. */
-export async function copyText(text) {
-  try {
-    if (navigator.clipboard && window.isSecureContext) { await navigator.clipboard.writeText(text); return true; }
-  } catch (e) { /* fall through to the text area */ }
-  const area = document.createElement('textarea');
-  area.value = text;
-  area.setAttribute('readonly', '');
-  area.style.position = 'fixed';
-  area.style.opacity = '0';
-  document.body.append(area);
-  area.select();
-  let ok = false;
-  try { ok = document.execCommand('copy'); } catch (e) { ok = false; }
-  area.remove();
-  return ok;
-}
 
 /** Put the LaTeX of `math` on it (`data-latex`) and return a "Copy LaTeX" button for it
  *  (`label`: what the formula is, for screen readers). The button says "Copied" for a moment. */
