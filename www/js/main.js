@@ -28,8 +28,10 @@ import { attachEntryForms } from './entry-forms.js';
 import { attachRealIntegral } from './real-integral.js';
 import { attachLaurentPanel } from './laurent-panel.js';
 import { createImageCurve } from './image-curve.js';
+import { applyCompact, installEmbed } from './embed.js';
 
 const state = loadState();
+applyCompact(state); // a link's compact mode (embed.js), before the plot is sized
 const ui = {
   expr: $('expr'), mirror: $('expr-mirror'), message: $('expr-message'), varName: $('var-name'), varDomain: $('var-domain'),
   params: $('params'), modulus: $('opt-modulus'), phase: $('opt-phase'), infinity: $('opt-infinity'),
@@ -467,3 +469,6 @@ installScripting(page, {
   trails: () => trails.refresh(),
   integral: realIntegral,
 });
+
+// The Embed control and, in a frame, the message interface (embed.js).
+installEmbed(page, { started });

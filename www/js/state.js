@@ -42,6 +42,9 @@ export function defaultState() {
     integral: defaultIntegral(), // the real-integral block: {kind, omega, alpha, open} (real-integral.js)
     laurent: null, // the Laurent section's choice: {center: [x, y] | "infinity", inner, outer, from, to} (laurent-panel.js)
     trails: null, // pole trails for one parameter: {name, from, to, steps, shown} (trails.js)
+    // embedding (embed.js, docs/embedding.md): a link's compact mode, its panels (null: the default
+    // ones) and the one parent origin whose messages the framed page takes (null: its parent's, any)
+    compact: false, compact_panels: null, parent_origin: null,
   };
 }
 
@@ -71,6 +74,9 @@ export function sanitize(raw) {
   if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
   if (raw.symbols === 'own' || raw.symbols === 'diagram') s.symbols = raw.symbols;
   s.integral = sanitizeIntegral(raw.integral);
+  if (raw.compact === true) s.compact = true;
+  if (Array.isArray(raw.compact_panels)) s.compact_panels = raw.compact_panels.filter((p) => typeof p === 'string' && /^[a-z]{1,20}$/.test(p)).slice(0, 20);
+  if (typeof raw.parent_origin === 'string' && /^https?:\/\/[^\s/]+$/.test(raw.parent_origin)) s.parent_origin = raw.parent_origin;
   const t = raw.trails;
   if (t && typeof t === 'object' && typeof t.name === 'string' && Number.isFinite(t.from) && Number.isFinite(t.to) && t.from !== t.to &&
     Number.isInteger(t.steps) && t.steps >= 2 && t.steps <= 400) {
@@ -140,7 +146,7 @@ export function loadState() {
 
 /** Keep the state in both places; failures are ignored (the page still works). */
 export function saveState(state) {
-  safeStorage.set(STORAGE_KEY, JSON.stringify(state));
+  if (!state.compact) safeStorage.set(STORAGE_KEY, JSON.stringify(state)); // an embedded compact page keeps nothing in the browser
   const hash = toHash(state);
   if (window.location.hash === hash) return;
   try {
