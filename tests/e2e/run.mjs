@@ -2457,8 +2457,15 @@ ${body}
       window.__counts = { workers: 0, compiles: 0, events: {} };
       const W = window.Worker;
       window.Worker = class extends W { constructor(...a) { super(...a); window.__counts.workers++; } };
-      const compile = WebAssembly.compile;
-      WebAssembly.compile = (...a) => { window.__counts.compiles++; return compile.apply(WebAssembly, a); };
+      // every way a page can make a wasm module from bytes (the loader may change which one it uses)
+      for (const name of ['compile', 'compileStreaming', 'instantiate', 'instantiateStreaming']) {
+        const orig = WebAssembly[name];
+        if (typeof orig !== 'function') continue;
+        WebAssembly[name] = function (src, ...rest) {
+          if (!(src instanceof WebAssembly.Module)) window.__counts.compiles++;
+          return orig.call(WebAssembly, src, ...rest);
+        };
+      }
       document.addEventListener('residuary-results', (ev) => {
         const id = ev.target.id;
         window.__counts.events[id] = (window.__counts.events[id] || 0) + 1;
@@ -2509,7 +2516,8 @@ ${body}
     // one engine for both: one compile, two workers (plot and heavy), as for the page itself
     const counts = await b.page.evaluate(() => window.__counts);
     assert.equal(counts.compiles, 1, 'the wasm module is compiled once for both elements');
-    assert.equal(counts.workers, 2, 'one plot worker and one heavy worker for both elements');
+    // the engine starts at most a plot worker and a heavy worker for the whole page (an element each would make 4)
+    assert.ok(counts.workers >= 1 && counts.workers <= 2, `${counts.workers} workers for two elements`);
     assert.equal(counts.events.a, 1); assert.equal(counts.events.b, 1);
     await b.page.screenshot({ path: join(artifacts, 'embed-wiki.png'), fullPage: true });
 
@@ -2522,7 +2530,7 @@ ${body}
     close(again.contour_integral.value[1], 2 * Math.PI * Math.sin(1), 1e-9, 'Im ∮ B after b = 1');
     assert.deepEqual(again.singularities.poles.map((p) => Math.round(p.at[1])).sort(), [-1, 1]);
     const counts2 = await b.page.evaluate(() => window.__counts);
-    assert.equal(counts2.events.b, 2); assert.equal(counts2.workers, 2); assert.equal(counts2.compiles, 1);
+    assert.equal(counts2.events.b, 2); assert.equal(counts2.workers, counts.workers); assert.equal(counts2.compiles, 1);
 
     // el.residuary: set / state / results, and a refusal with the page's codes
     const s = await b.page.evaluate(async () => {

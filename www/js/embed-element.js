@@ -262,6 +262,7 @@ class ResiduaryView extends HTMLElement {
     } finally { this._quiet = false; }
     const outcome = await this._track(this._run());
     if (outcome.error) throw outcome.error;
+    if (outcome.superseded) throw embedError('cancelled', 'a newer change came in before the panels finished');
     return this.residuary.results();
   }
 
