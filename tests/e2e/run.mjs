@@ -2493,10 +2493,14 @@ ${body}
       const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
       const colours = new Set();
       for (let i = 0; i < d.length; i += 40) colours.add((d[i] << 16) | (d[i + 1] << 8) | d[i + 2]);
-      return { drawn: el.dataset.plot, colours: colours.size, rows: el.shadowRoot.querySelectorAll('.sing tbody tr').length };
+      return { drawn: el.dataset.plot, colours: colours.size, rows: el.shadowRoot.querySelectorAll('.sing tbody tr').length,
+        ciWarnings: el.shadowRoot.querySelectorAll('.ci-warnings li').length };
     }));
     for (const p of plots) { assert.equal(p.drawn, 'drawn'); assert.ok(p.colours > 200, `only ${p.colours} colours`); }
     assert.equal(plots[0].rows, 4, 'A: two poles and two zeros in the table');
+    // B is not rational: the core's warning that the outside-residue way does not apply is shown with the integral
+    assert.equal(plots[1].ciWarnings, got.b.contour_integral.warnings.length);
+    assert.ok(plots[1].ciWarnings >= 1);
     // A against the core called in node with the same request
     const ref = JSON.parse(JSON.stringify(core.run({ task: 'singularities', f: A.f, var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-3, -3], [3, 3]] } })));
     assert.deepEqual(got.a.singularities.poles, ref.poles);

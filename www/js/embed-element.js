@@ -165,6 +165,7 @@ th { font-weight: 600; }
 h3 { font-size: 1em; margin: 8px 0 2px; }
 :host([compact]) h3 { margin-top: 4px; }
 p { margin: 2px 0; }
+ul.note { margin: 2px 0; padding-left: 1.2em; font-size: 0.92em; }
 .note { color: #555; }
 .foot { margin-top: 6px; color: #666; font-size: 0.85em; }
 :host([compact]) .foot { display: none; }
@@ -180,16 +181,16 @@ class ResiduaryView extends HTMLElement {
       <p class="title" part="title"></p>
       <div class="figure" part="plot"><canvas role="img" aria-label="Phase plot"></canvas></div>
       <p class="status" role="status" aria-live="polite">Starting the computing core…</p>
-      <section class="sing" part="singularities" hidden><h3>Singular points and zeros</h3><table><thead></thead><tbody></tbody></table><p class="inf"></p></section>
-      <section class="ci" part="integral" hidden><h3>Contour integral</h3><p class="ci-value"></p><table><thead><tr><th>Way</th><th>Value</th><th>Error estimate</th></tr></thead><tbody></tbody></table><p class="ci-verdict note"></p></section>
+      <section class="sing" part="singularities" hidden><h3>Singular points and zeros</h3><table><thead></thead><tbody></tbody></table><p class="inf"></p><ul class="sing-warnings note"></ul></section>
+      <section class="ci" part="integral" hidden><h3>Contour integral</h3><p class="ci-value"></p><table><thead><tr><th>Way</th><th>Value</th><th>Error estimate</th></tr></thead><tbody></tbody></table><p class="ci-verdict note"></p><ul class="ci-warnings note"></ul></section>
       <section class="count" part="count" hidden><h3>Argument count</h3><p class="count-text"></p></section>
       <section class="pf" part="fractions" hidden><h3>Partial fractions</h3><p class="pf-text"></p></section>
       <p class="foot">Computed in this page by residuary; no network.</p>`;
     const q = (s) => root.querySelector(s);
     this._ui = {
       title: q('.title'), figure: q('.figure'), canvas: q('canvas'), status: q('.status'),
-      sing: q('.sing'), singHead: q('.sing thead'), singBody: q('.sing tbody'), inf: q('.inf'),
-      ci: q('.ci'), ciValue: q('.ci-value'), ciWays: q('.ci tbody'), ciVerdict: q('.ci-verdict'),
+      sing: q('.sing'), singHead: q('.sing thead'), singBody: q('.sing tbody'), inf: q('.inf'), singWarnings: q('.sing-warnings'),
+      ci: q('.ci'), ciValue: q('.ci-value'), ciWays: q('.ci tbody'), ciVerdict: q('.ci-verdict'), ciWarnings: q('.ci-warnings'),
       count: q('.count'), countText: q('.count-text'), pf: q('.pf'), pfText: q('.pf-text'),
     };
     this._results = {};
@@ -438,6 +439,8 @@ class ResiduaryView extends HTMLElement {
         const tr = document.createElement('tr'); const td = document.createElement('td');
         td.colSpan = cols.length; td.textContent = 'None in the region.'; tr.append(td); ui.singBody.append(tr);
       }
+      ui.singWarnings.textContent = '';
+      for (const w of Array.isArray(sing.warnings) ? sing.warnings : []) { const li = document.createElement('li'); li.textContent = String(w); ui.singWarnings.append(li); }
       ui.inf.textContent = shows('residues') && isPair(sing.residue_at_infinity) ? `Residue at infinity: ${fmtComplex(trimComplex(sing.residue_at_infinity))}` : '';
     }
     const ci = results.contour_integral;
@@ -457,6 +460,8 @@ class ResiduaryView extends HTMLElement {
         }
         ui.ciVerdict.textContent = ci.agreement || '';
       }
+      ui.ciWarnings.textContent = '';
+      for (const w of Array.isArray(ci.warnings) ? ci.warnings : []) { const li = document.createElement('li'); li.textContent = String(w); ui.ciWarnings.append(li); }
     }
     const count = results.argument_count;
     ui.count.hidden = !(count && shows('count'));
