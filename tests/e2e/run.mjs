@@ -2554,6 +2554,31 @@ ${body}
     assert.deepEqual(b.log.requests, [], 'nothing leaves the files');
   });
 
+  test('under a wiki policy: works with the documented CSP, explains itself without wasm-unsafe-eval', async () => {
+    // CSP Level 3 (W3C): 'wasm-unsafe-eval' in script-src allows WebAssembly compilation; worker-src governs the blob: workers
+    const body = (id) => `<residuary-view id="${id}" f="1/(z^2+4)" region='{"shape": "circle", "center": [0, 2], "radius": 1}' panels="plot integral"></residuary-view>`;
+    const meta = (policy) => `<meta http-equiv="Content-Security-Policy" content="${policy}">`;
+    const withCsp = (name, policy, id) => {
+      const url = wikiPage(name, body(id));
+      const path = fileURLToPath(url);
+      writeFileSync(path, readFileSync(path, 'utf8').replace('<meta charset="utf-8">', '<meta charset="utf-8">' + meta(policy)));
+      return url;
+    };
+    await b.page.goto(withCsp('wiki-csp.html', "default-src 'none'; script-src file: 'wasm-unsafe-eval'; worker-src blob:", 'ok'));
+    const ok = await b.page.evaluate(() => document.getElementById('ok').residuary.settled());
+    close(ok.contour_integral.value[0], Math.PI / 2, 1e-10, '∮ 1/(z²+4) about 2i under the policy'); // 2πi · 1/(4i), from memory
+    assert.equal(await b.page.evaluate(() => document.getElementById('ok').dataset.plot), 'drawn');
+    assert.deepEqual(b.log.errors, [], 'no violation under the documented policy');
+    await b.page.goto(withCsp('wiki-csp-strict.html', "default-src 'none'; script-src file:", 'no'));
+    await b.page.waitForFunction(() => document.getElementById('no').shadowRoot.querySelector('.status').dataset.state === 'error', null, { timeout: 20000 });
+    const said = await b.page.evaluate(() => document.getElementById('no').shadowRoot.querySelector('.status').textContent);
+    assert.match(said, /Content-Security-Policy does not allow WebAssembly/);
+    assert.match(said, /'wasm-unsafe-eval' to script-src/);
+    const refusal = await b.page.evaluate(() => document.getElementById('no').residuary.set({ f: '1/z' }).then(() => null, (e) => e));
+    assert.equal(refusal.code, 'not_ready');
+    b.log.errors.length = 0; // the browser's own report of the refused compile (console), expected here
+  });
+
   test('the Embed control writes a snippet that shows what the page shows, and a compact frame link', async () => {
     await load(b.page, withState({ f: 'exp(a*z)/(z^2+b)', var: 'z', params: [{ name: 'a', value: '1' }, { name: 'b', value: '4' }], view: [-3, 3, -3, 3],
       region: { mode: 'circle', circle: [0, 0, 3] } }));

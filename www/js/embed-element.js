@@ -33,6 +33,16 @@ export function sharedEngine() {
   return engineStart;
 }
 
+/** Did the host page's Content-Security-Policy refuse WebAssembly? The browser reports it as a
+ *  securitypolicyviolation whose blockedURI is "wasm-eval" (CSP Level 3, W3C): the element then says
+ *  so in its own words, with the line an administrator adds, instead of the browser's message. */
+let wasmRefused = false;
+if (typeof document !== 'undefined') {
+  document.addEventListener('securitypolicyviolation', (ev) => { if (ev.blockedURI === 'wasm-eval') wasmRefused = true; });
+}
+const CSP_WORDS = 'The computing core cannot start here: this page\'s Content-Security-Policy does not allow WebAssembly. ' +
+  'An administrator can allow it by adding \'wasm-unsafe-eval\' to script-src (and blob: to worker-src) in the policy of this page (docs/embedding.md).';
+
 /** One picture at a time through the shared plot worker: engine.js keeps a single plot job (a
  *  newer call drops the older), so the elements queue theirs. */
 let plotChain = Promise.resolve();
@@ -177,7 +187,11 @@ class ResiduaryView extends HTMLElement {
   constructor() {
     super();
     const root = this.attachShadow({ mode: 'open' });
-    root.innerHTML = `<style>${STYLE}</style>
+    // a constructed style sheet where the browser has one: a Content-Security-Policy without
+    // style-src 'unsafe-inline' does not apply to it (an inline <style> is the fallback)
+    let sheet = null;
+    try { sheet = new CSSStyleSheet(); sheet.replaceSync(STYLE); root.adoptedStyleSheets = [sheet]; } catch (e) { sheet = null; }
+    root.innerHTML = `${sheet ? '' : `<style>${STYLE}</style>`}
       <p class="title" part="title"></p>
       <div class="figure" part="plot"><canvas role="img" aria-label="Phase plot"></canvas></div>
       <p class="status" role="status" aria-live="polite">Starting the computing core…</p>
@@ -293,8 +307,10 @@ class ResiduaryView extends HTMLElement {
     const started = await sharedEngine();
     if (serial !== this._serial) return { superseded: true };
     if (!started.ok) {
-      const error = embedError('not_ready', started.message);
-      this._showStatus('error', started.message);
+      await new Promise((resolve) => setTimeout(resolve, 0)); // the violation report may come just after the refusal
+      const message = wasmRefused ? CSP_WORDS : started.message;
+      const error = embedError('not_ready', message);
+      this._showStatus('error', message);
       return { error };
     }
     if (s.f.trim() === '') { const error = embedError('expression', 'f is empty: give the element an f attribute'); this._showStatus('error', error.message); return { error }; }
