@@ -3,7 +3,7 @@
 // Every number the page shows comes from the real core; the pointer readout is checked
 // against the same core's `evaluate`, loaded here in node from dist/pkg.
 // Run: make test-e2e   (or, after make build: node --test tests/e2e/run.mjs)
-import { test, describe, before, after } from 'node:test';
+import { test, describe, before, after, beforeEach } from 'node:test';
 import assert from 'node:assert/strict';
 import { mkdtempSync, mkdirSync, readFileSync, writeFileSync, existsSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -2474,6 +2474,7 @@ ${body}
   }
 
   before(async () => { core = await nodeCore(); b = await openBrowser({ width: 900, height: 1000 }); await counting(b.page); });
+  beforeEach(() => { if (b) b.log.errors.length = 0; }); // each test checks the errors of its own pages
   after(async () => { if (b) await b.close(); });
 
   test('two elements on a wiki page opened from file: plot, answer as the core does, share one engine and re-run on a changed attribute', async () => {
@@ -2561,7 +2562,8 @@ ${body}
     const withCsp = (name, policy, id) => {
       const url = wikiPage(name, body(id));
       const path = fileURLToPath(url);
-      writeFileSync(path, readFileSync(path, 'utf8').replace('<meta charset="utf-8">', '<meta charset="utf-8">' + meta(policy)));
+      // the policy in a meta element; the fixture's own inline style attribute dropped (the policy forbids it)
+      writeFileSync(path, readFileSync(path, 'utf8').replace('<meta charset="utf-8">', '<meta charset="utf-8">' + meta(policy)).replace(/<body style="[^"]*">/, '<body>'));
       return url;
     };
     await b.page.goto(withCsp('wiki-csp.html', "default-src 'none'; script-src file: 'wasm-unsafe-eval'; worker-src blob:", 'ok'));
