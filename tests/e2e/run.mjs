@@ -3,7 +3,7 @@
 // Every number the page shows comes from the real core; the pointer readout is checked
 // against the same core's `evaluate`, loaded here in node from dist/pkg.
 // Run: make test-e2e   (or, after make build: node --test tests/e2e/run.mjs)
-import { test, describe, before, after } from 'node:test';
+import { test, describe, before, after, beforeEach } from 'node:test';
 import assert from 'node:assert/strict';
 import { mkdtempSync, mkdirSync, readFileSync, writeFileSync, existsSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -3180,5 +3180,228 @@ describe('typeset results with their LaTeX', () => {
     const pp = await b.page.evaluate(() => document.querySelector('#detail-math math').getAttribute('data-latex'));
     // Res(1/(z² + 1), ±i) = ∓i/2 (from memory): the principal part (∓0.5 i)/(z ∓ i)
     assert.match(pp, /^-?\\frac\{0\.5 i\}\{z [-+] i\}$/, pp);
+  });
+});
+
+describe('embedding: <residuary-view>, the Embed control, the compact frame and its messages', () => {
+  let b, core;
+  const fixtures = join(here, 'fixtures');
+  const viewScript = join(root, 'dist', 'residuary-view.js');
+  const rel = (p) => pathToFileURL(p).href;
+  // two functions of our own: A rational, B with parameters and exp
+  const A = { f: '(z^2+1)/((z-1)*(z+2)^2)', view: '-3 3 -3 3' };
+  const B = { f: 'exp(a*z)/(z^2+b)', params: 'a=1, b=4', region: { shape: 'circle', center: [0, 0], radius: 3 } };
+  const close = (x, y, tol, what) => assert.ok(Math.abs(x - y) <= tol, `${what}: ${x} vs ${y}`);
+
+  /** A wiki-like page with the element script and `body` (written under tests/e2e/fixtures). */
+  function wikiPage(name, body) {
+    mkdirSync(fixtures, { recursive: true });
+    const path = join(fixtures, name);
+    writeFileSync(path, `<!doctype html><html><head><meta charset="utf-8"><title>Team wiki</title></head>
+<body style="max-width: 760px; margin: 16px auto; font-family: serif"><h1>Notes on two functions</h1>
+<script src="${rel(viewScript)}"></script>
+${body}
+</body></html>`);
+    return rel(path);
+  }
+
+  /** Count the workers started and the wasm modules compiled on the page, and the element events. */
+  async function counting(page) {
+    await page.addInitScript(() => {
+      window.__counts = { workers: 0, compiles: 0, events: {} };
+      const W = window.Worker;
+      window.Worker = class extends W { constructor(...a) { super(...a); window.__counts.workers++; } };
+      // every way a page can make a wasm module from bytes (the loader may change which one it uses)
+      for (const name of ['compile', 'compileStreaming', 'instantiate', 'instantiateStreaming']) {
+        const orig = WebAssembly[name];
+        if (typeof orig !== 'function') continue;
+        WebAssembly[name] = function (src, ...rest) {
+          if (!(src instanceof WebAssembly.Module)) window.__counts.compiles++;
+          return orig.call(WebAssembly, src, ...rest);
+        };
+      }
+      document.addEventListener('residuary-results', (ev) => {
+        const id = ev.target.id;
+        window.__counts.events[id] = (window.__counts.events[id] || 0) + 1;
+      });
+    });
+  }
+
+  before(async () => { core = await nodeCore(); b = await openBrowser({ width: 900, height: 1000 }); await counting(b.page); });
+  beforeEach(() => { if (b) b.log.errors.length = 0; }); // each test checks the errors of its own pages
+  after(async () => { if (b) await b.close(); });
+
+  test('two elements on a wiki page opened from file: plot, answer as the core does, share one engine and re-run on a changed attribute', async () => {
+    const url = wikiPage('wiki.html', `
+<residuary-view id="a" f="${A.f}" view="${A.view}" panels="plot singularities residues integral count fractions"></residuary-view>
+<p>The second, compact:</p>
+<residuary-view id="b" compact f="${B.f}" params="${B.params}" region='${JSON.stringify(B.region)}'></residuary-view>`);
+    await b.page.goto(url);
+    const got = await b.page.evaluate(async () => {
+      const out = {};
+      for (const el of document.querySelectorAll('residuary-view')) out[el.id] = await el.residuary.settled();
+      return out;
+    });
+    // both plots drawn by the core: many colours on each element's own canvas
+    const plots = await b.page.evaluate(() => [...document.querySelectorAll('residuary-view')].map((el) => {
+      const c = el.shadowRoot.querySelector('canvas');
+      const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
+      const colours = new Set();
+      for (let i = 0; i < d.length; i += 40) colours.add((d[i] << 16) | (d[i + 1] << 8) | d[i + 2]);
+      return { drawn: el.dataset.plot, colours: colours.size, rows: el.shadowRoot.querySelectorAll('.sing tbody tr').length,
+        ciWarnings: el.shadowRoot.querySelectorAll('.ci-warnings li').length };
+    }));
+    for (const p of plots) { assert.equal(p.drawn, 'drawn'); assert.ok(p.colours > 200, `only ${p.colours} colours`); }
+    assert.equal(plots[0].rows, 4, 'A: two poles and two zeros in the table');
+    // B is not rational: the core's warning that the outside-residue way does not apply is shown with the integral
+    assert.equal(plots[1].ciWarnings, got.b.contour_integral.warnings.length);
+    assert.ok(plots[1].ciWarnings >= 1);
+    // A against the core called in node with the same request
+    const ref = JSON.parse(JSON.stringify(core.run({ task: 'singularities', f: A.f, var: 'z', params: {}, region: { shape: 'rectangle', corners: [[-3, -3], [3, 3]] } })));
+    assert.deepEqual(got.a.singularities.poles, ref.poles);
+    assert.deepEqual(got.a.singularities.zeros, ref.zeros);
+    // residues by hand (from memory: Res of g/(z−1) at 1 is g(1); of h/(z+2)^2 at −2 is h′(−2)): 2/9 at 1, 7/9 at −2
+    const res = Object.fromEntries(got.a.singularities.poles.map((p) => [p.at[0], p.residue[0]]));
+    close(res[1], 2 / 9, 1e-12, 'Res at 1'); close(res[-2], 7 / 9, 1e-12, 'Res at −2');
+    // residue theorem (from memory): ∮ = 2πi (2/9 + 7/9) = 2πi
+    close(got.a.contour_integral.value[0], 0, 1e-10, 'Re ∮ A'); close(got.a.contour_integral.value[1], 2 * Math.PI, 1e-10, 'Im ∮ A');
+    assert.equal(got.a.argument_count.zeros_minus_poles, 2 - 3);
+    assert.equal(got.a.partial_fractions.terms.length, 3);
+    assert.deepEqual(got.a.singularities.computed_for, { f: A.f, var: 'z', params: {} });
+    // B: e^{z}/(z²+4) around |z| = 3: 2πi (e^{2i} − e^{−2i})/(4i) = πi sin 2 (residue theorem, from memory)
+    close(got.b.contour_integral.value[1], Math.PI * Math.sin(2), 1e-9, 'Im ∮ B');
+    close(got.b.contour_integral.value[0], 0, 1e-9, 'Re ∮ B');
+    assert.deepEqual(got.b.singularities.computed_for.params, { a: 1, b: 4 });
+    // one engine for both: one compile, two workers (plot and heavy), as for the page itself
+    const counts = await b.page.evaluate(() => window.__counts);
+    assert.equal(counts.compiles, 1, 'the wasm module is compiled once for both elements');
+    // the engine starts at most a plot worker and a heavy worker for the whole page (an element each would make 4)
+    assert.ok(counts.workers >= 1 && counts.workers <= 2, `${counts.workers} workers for two elements`);
+    assert.equal(counts.events.a, 1); assert.equal(counts.events.b, 1);
+    await b.page.screenshot({ path: join(artifacts, 'embed-wiki.png'), fullPage: true });
+
+    // an attribute changed later runs again and fires the event: b = 1, poles ±i, ∮ = 2πi sin 1
+    const again = await b.page.evaluate(() => new Promise((resolve) => {
+      const el = document.getElementById('b');
+      el.addEventListener('residuary-results', (ev) => resolve(ev.detail), { once: true });
+      el.setAttribute('params', 'a=1, b=1');
+    }));
+    close(again.contour_integral.value[1], 2 * Math.PI * Math.sin(1), 1e-9, 'Im ∮ B after b = 1');
+    assert.deepEqual(again.singularities.poles.map((p) => Math.round(p.at[1])).sort(), [-1, 1]);
+    const counts2 = await b.page.evaluate(() => window.__counts);
+    assert.equal(counts2.events.b, 2); assert.equal(counts2.workers, counts.workers); assert.equal(counts2.compiles, 1);
+
+    // el.residuary: set / state / results, and a refusal with the page's codes
+    const s = await b.page.evaluate(async () => {
+      const el = document.getElementById('a');
+      const r = await el.residuary.set({ f: '1/(z^2+4)', region: { shape: 'circle', center: [0, 2], radius: 1 } });
+      const bad = await el.residuary.set({ f: '1/(z-' }).then(() => null, (e) => e);
+      const unknown = await el.residuary.set({ colour: 1 }).then(() => null, (e) => e);
+      return { r, state: el.residuary.state(), bad, unknown, attr: el.getAttribute('f') };
+    });
+    // Res of 1/(z²+4) at 2i is 1/(4i): ∮ = 2πi/(4i) = π/2 (from memory)
+    close(s.r.contour_integral.value[0], Math.PI / 2, 1e-10, '∮ 1/(z²+4) about 2i');
+    assert.equal(s.state.f, '1/(z-'); // set() applies the state even when it rejects, as the page does
+    assert.deepEqual(s.state.contour, { shape: 'circle', center: [0, 2], radius: 1 });
+    assert.equal(s.bad.code, 'expression');
+    assert.equal(s.unknown.code, 'bad_request');
+    assert.deepEqual(b.log.errors, []);
+    assert.deepEqual(b.log.requests, [], 'nothing leaves the files');
+  });
+
+  test('under a wiki policy: works with the documented CSP, explains itself without wasm-unsafe-eval', async () => {
+    // CSP Level 3 (W3C): 'wasm-unsafe-eval' in script-src allows WebAssembly compilation; worker-src governs the blob: workers
+    const body = (id) => `<residuary-view id="${id}" f="1/(z^2+4)" region='{"shape": "circle", "center": [0, 2], "radius": 1}' panels="plot integral"></residuary-view>`;
+    const meta = (policy) => `<meta http-equiv="Content-Security-Policy" content="${policy}">`;
+    const withCsp = (name, policy, id) => {
+      const url = wikiPage(name, body(id));
+      const path = fileURLToPath(url);
+      // the policy in a meta element; the fixture's own inline style attribute dropped (the policy forbids it)
+      writeFileSync(path, readFileSync(path, 'utf8').replace('<meta charset="utf-8">', '<meta charset="utf-8">' + meta(policy)).replace(/<body style="[^"]*">/, '<body>'));
+      return url;
+    };
+    await b.page.goto(withCsp('wiki-csp.html', "default-src 'none'; script-src file: 'wasm-unsafe-eval'; worker-src blob:", 'ok'));
+    const ok = await b.page.evaluate(() => document.getElementById('ok').residuary.settled());
+    close(ok.contour_integral.value[0], Math.PI / 2, 1e-10, '∮ 1/(z²+4) about 2i under the policy'); // 2πi · 1/(4i), from memory
+    assert.equal(await b.page.evaluate(() => document.getElementById('ok').dataset.plot), 'drawn');
+    assert.deepEqual(b.log.errors, [], 'no violation under the documented policy');
+    await b.page.goto(withCsp('wiki-csp-strict.html', "default-src 'none'; script-src file:", 'no'));
+    await b.page.waitForFunction(() => document.getElementById('no').shadowRoot.querySelector('.status').dataset.state === 'error', null, { timeout: 20000 });
+    const said = await b.page.evaluate(() => document.getElementById('no').shadowRoot.querySelector('.status').textContent);
+    assert.match(said, /Content-Security-Policy does not allow WebAssembly/);
+    assert.match(said, /'wasm-unsafe-eval' to script-src/);
+    const refusal = await b.page.evaluate(() => document.getElementById('no').residuary.set({ f: '1/z' }).then(() => null, (e) => e));
+    assert.equal(refusal.code, 'not_ready');
+    b.log.errors.length = 0; // the browser's own report of the refused compile (console), expected here
+  });
+
+  test('the Embed control writes a snippet that shows what the page shows, and a compact frame link', async () => {
+    await load(b.page, withState({ f: 'exp(a*z)/(z^2+b)', var: 'z', params: [{ name: 'a', value: '1' }, { name: 'b', value: '4' }], view: [-3, 3, -3, 3],
+      region: { mode: 'circle', circle: [0, 0, 3] } }));
+    const pageResults = await b.page.evaluate(() => window.residuary.settled());
+    await b.page.click('#embed-box summary');
+    const snippet = await b.page.inputValue('#embed-element');
+    const frame = await b.page.inputValue('#embed-iframe');
+    assert.match(snippet, /^<script src="residuary-view.js"><\/script>\n<residuary-view f="exp\(a\*z\)\/\(z\^2\+b\)" var="z" params="a=1, b=4" /);
+    assert.match(frame, /^<iframe src="residuary.html#s=/);
+    const link = decodeURIComponent(/src="residuary.html#s=([^"]*)"/.exec(frame)[1].replace(/&quot;/g, '"').replace(/&amp;/g, '&'));
+    const linked = JSON.parse(link);
+    assert.equal(linked.compact, true);
+    assert.deepEqual(linked.compact_panels, ['plot', 'singularities', 'residues', 'integral']);
+    // the snippet pasted into a wiki page, the script path made absolute: the element answers as the page did
+    const url = wikiPage('wiki-snippet.html', snippet.replace('src="residuary-view.js"', `src="${rel(viewScript)}"`).replace('<residuary-view ', '<residuary-view id="s" '));
+    await b.page.goto(url);
+    const el = await b.page.evaluate(() => document.getElementById('s').residuary.settled());
+    assert.deepEqual(el.singularities.poles, pageResults.singularities.poles);
+    assert.deepEqual(el.contour_integral.value, pageResults.contour_integral.value);
+    assert.deepEqual(b.log.errors, []);
+  });
+
+  test('a compact frame hides the header, examples and inputs, and answers residuary:set with residuary:results; a pinned origin is kept', async () => {
+    const state = { f: '(z^3 - 1)/(z^2 + 0.4*z + 4)', var: 'z', view: [-3, 3, -3, 3], compact: true, compact_panels: ['plot', 'singularities', 'integral'] };
+    const src = rel(pagePath) + withState(state);
+    const pinned = rel(pagePath) + withState(Object.assign({}, state, { parent_origin: 'https://wiki.example.org' }));
+    mkdirSync(fixtures, { recursive: true });
+    const parent = join(fixtures, 'frame.html');
+    writeFileSync(parent, `<!doctype html><html><head><meta charset="utf-8"><title>Wiki with a frame</title></head><body>
+<iframe id="open" src="${src}" width="760" height="640" sandbox="allow-scripts"></iframe>
+<iframe id="pinned" src="${pinned}" width="400" height="300" sandbox="allow-scripts"></iframe>
+<script>
+window.__messages = [];
+window.addEventListener('message', (ev) => window.__messages.push({ from: ev.source === document.getElementById('open').contentWindow ? 'open' : 'pinned', data: ev.data }));
+</script></body></html>`);
+    await b.page.goto(rel(parent));
+    // the open frame says it is ready (the pinned one says so only to its own origin, not to this file: page)
+    await b.page.waitForFunction(() => window.__messages.some((m) => m.data.type === 'residuary:ready'), null, { timeout: 30000 });
+    const f = b.page.frames().find((x) => x.url() === src);
+    const fPinned = b.page.frames().find((x) => x.url() === pinned);
+    await f.waitForSelector('body[data-ready=true]');
+    await fPinned.waitForSelector('body[data-ready=true]');
+    assert.deepEqual(await b.page.evaluate(() => window.__messages.map((m) => [m.from, m.data.type])), [['open', 'residuary:ready']]);
+    await f.evaluate(() => window.residuary.settled());
+    for (const sel of ['.topbar', '#demo-select', '.panel.inputs', '#embed-box', '.results fieldset.region', '#lp-box', '#ri-box']) {
+      assert.equal(await f.isHidden(sel), true, `${sel} hidden in the compact frame`);
+    }
+    for (const sel of ['#plot', '#sing-table', '#ci-box']) assert.equal(await f.isVisible(sel), true, `${sel} shown`);
+    assert.equal(await f.evaluate(() => document.body.dataset.compact), 'plot singularities integral');
+    // a compact page keeps nothing in the browser's storage
+    await b.page.screenshot({ path: join(artifacts, 'embed-frame.png') });
+    // parent → page: set; page → parent: the results (Res of 1/(z²+4) at ±2i: ±1/(4i); all inside: ∮ = 0)
+    await b.page.evaluate(() => {
+      for (const id of ['open', 'pinned']) document.getElementById(id).contentWindow.postMessage({ type: 'residuary:set', id: 7, state: { f: '1/(z^2+4)', region: { shape: 'circle', center: [0, 2], radius: 1 } } }, '*');
+    });
+    await b.page.waitForFunction(() => window.__messages.some((m) => m.data.type === 'residuary:results'), null, { timeout: 30000 });
+    await b.page.waitForTimeout(1500); // room for a (wrong) answer from the pinned frame
+    const msgs = await b.page.evaluate(() => window.__messages.filter((m) => m.data.type !== 'residuary:ready'));
+    assert.equal(msgs.length, 1, JSON.stringify(msgs.map((m) => [m.from, m.data.type])));
+    assert.equal(msgs[0].from, 'open');
+    assert.equal(msgs[0].data.id, 7);
+    close(msgs[0].data.results.contour_integral.value[0], Math.PI / 2, 1e-10, '∮ 1/(z²+4) about 2i, by message');
+    // an error comes back as residuary:error with the page's code
+    await b.page.evaluate(() => document.getElementById('open').contentWindow.postMessage({ type: 'residuary:set', id: 8, state: { f: '1/(z-' } }, '*'));
+    await b.page.waitForFunction(() => window.__messages.some((m) => m.data.type === 'residuary:error'), null, { timeout: 30000 });
+    const err = await b.page.evaluate(() => window.__messages.find((m) => m.data.type === 'residuary:error').data);
+    assert.equal(err.id, 8); assert.equal(err.error.code, 'expression');
+    assert.deepEqual(b.log.errors, []);
   });
 });

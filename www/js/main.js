@@ -32,11 +32,13 @@ import { attachRealIntegral } from './real-integral.js';
 import { attachLaurentPanel } from './laurent-panel.js';
 import { createImageCurve } from './image-curve.js';
 import { installExport } from './export.js';
+import { applyCompact, installEmbed } from './embed.js';
 
 // The link's state (a packed one is unpacked asynchronously), else what this browser kept.
 const opening = await openState(window.location.hash);
 const state = opening.state;
 setScheme(state.scheme); // the page's colours before anything is drawn
+applyCompact(state); // a link's compact mode (embed.js), before the plot is sized
 const ui = {
   expr: $('expr'), mirror: $('expr-mirror'), message: $('expr-message'), varName: $('var-name'), varDomain: $('var-domain'),
   params: $('params'), modulus: $('opt-modulus'), phase: $('opt-phase'), infinity: $('opt-infinity'),
@@ -512,3 +514,5 @@ installScripting(page, {
 // Export and copy (export.js): PNG, SVG, CSV and JSON of the plot and of every result; window.residuary.export.
 installExport(page, { baseRequest: () => plot.baseRequest(), persist: () => persist(), results: () => window.residuary.results() });
 
+// The Embed control and, in a frame, the message interface (embed.js).
+installEmbed(page, { started });

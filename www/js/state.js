@@ -55,6 +55,9 @@ export function defaultState() {
     laurent: null, // the Laurent section's choice: {center: [x, y] | "infinity", inner, outer, from, to} (laurent-panel.js)
     trails: null, // pole trails for one parameter: {name, from, to, steps, shown} (trails.js)
     scheme: 'system', // the page's colours: 'light', 'dark' or 'system' (follows prefers-color-scheme)
+    // embedding (embed.js, docs/embedding.md): a link's compact mode, its panels (null: the default
+    // ones) and the one parent origin whose messages the framed page takes (null: its parent's, any)
+    compact: false, compact_panels: null, parent_origin: null,
   };
 }
 
@@ -87,6 +90,9 @@ export function sanitize(raw) {
   if (['columns', 'j', 'i'].includes(raw.complex_format)) s.complex_format = raw.complex_format;
   if (['light', 'dark', 'system'].includes(raw.scheme)) s.scheme = raw.scheme;
   s.integral = sanitizeIntegral(raw.integral);
+  if (raw.compact === true) s.compact = true;
+  if (Array.isArray(raw.compact_panels)) s.compact_panels = raw.compact_panels.filter((p) => typeof p === 'string' && /^[a-z]{1,20}$/.test(p)).slice(0, 20);
+  if (typeof raw.parent_origin === 'string' && /^https?:\/\/[^\s/]+$/.test(raw.parent_origin)) s.parent_origin = raw.parent_origin;
   const t = raw.trails;
   if (t && typeof t === 'object' && typeof t.name === 'string' && Number.isFinite(t.from) && Number.isFinite(t.to) && t.from !== t.to &&
     Number.isInteger(t.steps) && t.steps >= 2 && t.steps <= 400) {
@@ -136,7 +142,7 @@ export async function openState(hash) {
   const link = await decodeLink(hash || '');
   if (link.kind === 'ok') {
     const state = sanitize(link.raw);
-    const previous = stored && !sameState(stored, state) ? stored : null;
+    const previous = !state.compact && stored && !sameState(stored, state) ? stored : null; // a frame replaces nothing
     if (previous) safeStorage.put(PREVIOUS_KEY, JSON.stringify(previous));
     return { state, fromLink: true, linkGivesView: Array.isArray(link.raw.view), hadStored: Boolean(stored), previous, problem: null };
   }
@@ -159,12 +165,13 @@ export const lastWrittenHash = () => lastStateHash;
 export function onStorage(fn) { storageListener = fn; }
 
 /** Keep the state in both places, whole: this browser's storage (its outcome goes to the
- *  onStorage listener) and the address (packed when long; the newest call wins). */
+ *  onStorage listener; a compact, embedded page keeps nothing in the browser, so a frame never
+ *  overwrites the user's own page) and the address (packed when long; the newest call wins). */
 export async function saveState(state) {
   const serial = ++stateWrites;
   const json = JSON.stringify(state);
-  const outcome = safeStorage.put(STORAGE_KEY, json);
-  if (storageListener) storageListener(outcome);
+  const outcome = state.compact ? 'ok' : safeStorage.put(STORAGE_KEY, json);
+  if (storageListener && !state.compact) storageListener(outcome);
   let hash;
   try { hash = await encodeLink(JSON.parse(json)); } catch (e) { return outcome; }
   if (serial !== stateWrites || window.location.hash === hash) return outcome;
