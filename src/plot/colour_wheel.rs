@@ -337,6 +337,10 @@ mod tests {
     #[test]
     fn the_new_wheels_stay_readable_for_dichromats_and_in_grey_and_the_old_one_does_not() {
         let figure = |w, r| min_step_difference(w, r);
+        for w in [Wheel::Ramp, Wheel::BlueYellow, Wheel::Oklch, Wheel::Hsv] {
+            let f = [Reader::Deutan, Reader::Protan, Reader::Grey].map(|r| format!("{r:?} {:.4}", figure(w, r)));
+            eprintln!("min ΔE_OK at π/3 steps, {w:?}: {}", f.join(", "));
+        }
         for reader in [Reader::Deutan, Reader::Protan, Reader::Grey] {
             let got = figure(Wheel::Ramp, reader);
             assert!(got > READABLE, "ramp, {reader:?}: min ΔE_OK {got}");

@@ -5,6 +5,9 @@ import { defaultIntegral, sanitizeIntegral } from './real-integral.js';
 
 const STORAGE_KEY = 'residuary.page.v1';
 
+/** The colour wheels (the contract's phase_plot `wheel` names). */
+export const WHEELS = ['ramp', 'blue_yellow', 'oklch', 'hsv'];
+
 /** localStorage that never throws (file:// pages may refuse it). */
 export const safeStorage = {
   get(key) {
@@ -24,7 +27,7 @@ export function defaultState() {
     modulus: false,
     phase: false,
     infinity: false,
-    wheel: 'oklch',
+    wheel: 'ramp',       // the colour wheel: lightness rises with arg, readable in grey (a link's own wheel is kept)
     symbols: 'own',
     // the region: its mode (view, rect, circle, ellipse, polygon), each shape's numbers (ellipse:
     // [cx, cy, a, b, angle in radians]; polygon: its vertices in order) and reversed (a circle,
@@ -68,7 +71,7 @@ export function sanitize(raw) {
   if (Number.isFinite(raw.sample_period) && raw.sample_period > 0) s.sample_period = raw.sample_period;
   if (Array.isArray(raw.point) && raw.point.length === 2 && raw.point.every(Number.isFinite)) s.point = raw.point.slice();
   if (['auto', 's', 'z', 'none'].includes(raw.domain)) s.domain = raw.domain;
-  if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
+  if (WHEELS.includes(raw.wheel)) s.wheel = raw.wheel;
   if (raw.symbols === 'own' || raw.symbols === 'diagram') s.symbols = raw.symbols;
   s.integral = sanitizeIntegral(raw.integral);
   const t = raw.trails;
