@@ -2592,6 +2592,20 @@ describe('readable for everyone: wheels under emulated colour vision, the keyboa
     assert.deepEqual(b.log.errors, []);
   });
 
+  test('a link naming the old wheel keeps it; the Display choice offers all four; an unknown wheel is refused by code', async () => {
+    await load(b.page, withState({ f: 'z', var: 'z', wheel: 'oklch' }));
+    assert.equal((await scriptState(b.page)).wheel, 'oklch');
+    assert.equal(await b.page.inputValue('#opt-wheel'), 'oklch');
+    assert.deepEqual(await b.page.$$eval('#opt-wheel option', (os) => os.map((o) => o.value)), ['ramp', 'blue_yellow', 'oklch', 'hsv']);
+    const bad = await scriptSet(b.page, { wheel: 'rainbow' });
+    assert.equal(bad.ok, false);
+    assert.equal(bad.error.code, 'invalid_field');
+    await b.page.selectOption('#opt-wheel', 'blue_yellow');
+    assert.equal((await scriptState(b.page)).wheel, 'blue_yellow');
+    await load(b.page, withState({ f: 'z', var: 'z' }));
+    assert.equal((await scriptState(b.page)).wheel, 'ramp', 'a link without a wheel gets the default');
+  });
+
   test('every input, select, textarea and button has an accessible name', async () => {
     const unnamed = async () => b.page.evaluate(() => {
       const name = (e) => {
