@@ -27,7 +27,7 @@ PLOT OPTIONS
   --param NAME=VALUE    a parameter, real or complex ('0.3' or '0.3+0.1i'); repeatable
   --view X0,X1,Y0,Y1    the real and imaginary ranges (default -4,4,-4,4)
   --size WxH            pixels (default 800x800)
-  --wheel oklch|hsv     colour wheel (default oklch, perceptually even)
+  --wheel NAME          colour wheel: oklch (default, perceptually even), hsv, ramp (lightness rises with arg), blue_yellow
   --modulus-lines       draw log-spaced lines of constant |f|
   --phase-lines         draw lines of constant arg f
   --infinity            plot f(1/w) around w = 0

@@ -3405,3 +3405,225 @@ window.addEventListener('message', (ev) => window.__messages.push({ from: ev.sou
     assert.deepEqual(b.log.errors, []);
   });
 });
+
+describe('readable for everyone: wheels under emulated colour vision, the keyboard cursor, named controls', () => {
+  let b, core;
+  before(async () => {
+    assert.ok(existsSync(pagePath), `build the page first (make build): ${pagePath}`);
+    b = await openBrowser({ width: 1280, height: 1000 });
+    core = await nodeCore();
+  });
+  after(async () => { if (b) await b.close(); });
+
+  /** Encoded sRGB bytes → OKLab (Ottosson 2020's published matrices, the sRGB curve of IEC 61966-2-1). */
+  function oklab([r, g, bl]) {
+    const lin = [r, g, bl].map((u) => { u /= 255; return u <= 0.04045 ? u / 12.92 : Math.pow((u + 0.055) / 1.055, 2.4); });
+    const l = 0.4122214708 * lin[0] + 0.5363325363 * lin[1] + 0.0514459929 * lin[2];
+    const m = 0.2119034982 * lin[0] + 0.6806995451 * lin[1] + 0.1073969566 * lin[2];
+    const s = 0.0883024619 * lin[0] + 0.2817188376 * lin[1] + 0.6299787005 * lin[2];
+    const [a, c, d] = [l, m, s].map(Math.cbrt);
+    return [0.2104542553 * a + 0.7936177850 * c - 0.0040720468 * d,
+      1.9779984951 * a - 2.4285922050 * c + 0.4505937099 * d,
+      0.0259040371 * a + 0.7827717662 * c - 0.8086757660 * d];
+  }
+  const deltaE = (p, q) => Math.hypot(p[0] - q[0], p[1] - q[1], p[2] - q[2]);
+
+  /** The screenshot's colours (3 × 3 means) at plane points, with the browser's emulation on. */
+  async function seenAt(points, deficiency) {
+    const cdp = await b.page.context().newCDPSession(b.page);
+    await cdp.send('Emulation.setEmulatedVisionDeficiency', { type: deficiency });
+    const m = await plotMap(b.page);
+    const box = await b.page.locator('#plot').boundingBox();
+    const png = await b.page.screenshot({ clip: box });
+    await cdp.send('Emulation.setEmulatedVisionDeficiency', { type: 'none' });
+    await cdp.detach();
+    // decoded in a blank page of the same browser (no page policy in the way)
+    const blank = await b.context.newPage();
+    const px = points.map((p) => { const q = m.toPx(p); return [q[0] - box.x, q[1] - box.y]; });
+    const colours = await blank.evaluate(async ({ b64, px }) => {
+      const img = new Image();
+      img.src = 'data:image/png;base64,' + b64;
+      await img.decode();
+      const c = document.createElement('canvas');
+      c.width = img.width; c.height = img.height;
+      const ctx = c.getContext('2d');
+      ctx.drawImage(img, 0, 0);
+      return px.map(([x, y]) => {
+        const d = ctx.getImageData(Math.round(x) - 1, Math.round(y) - 1, 3, 3).data;
+        const sum = [0, 0, 0];
+        for (let i = 0; i < d.length; i += 4) for (let k = 0; k < 3; k++) sum[k] += d[i + k];
+        return sum.map((v) => v / 9);
+      });
+    }, { b64: png.toString('base64'), px });
+    await blank.close();
+    return colours;
+  }
+
+  async function plotOf(f, wheel) {
+    const out = await scriptSet(b.page, { f, var: 'z', params: {}, view: [-1, 1, -1, 1], wheel, modulus: false, phase: false, region: 'view' });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    await plotDone(b.page);
+  }
+
+  test('the default wheel keeps arg 0, 2π/3, −2π/3 apart under emulated deuteranopia, protanopia and achromatopsia; the old one does not', async () => {
+    await load(b.page);
+    assert.equal((await scriptState(b.page)).wheel, 'ramp', 'the default wheel');
+    const r = 0.6;
+    // f = z: arg f = t there; 0.06 rad off the axes the plot draws through 0
+    const at = [0, 2 * Math.PI / 3, -2 * Math.PI / 3].map((t) => [r * Math.cos(t + 0.06), r * Math.sin(t + 0.06)]);
+    const figures = {};
+    for (const wheel of ['ramp', 'blue_yellow', 'oklch']) {
+      await plotOf('z', wheel);
+      figures[wheel] = {};
+      for (const deficiency of ['none', 'deuteranopia', 'protanopia', 'achromatopsia']) {
+        const labs = (await seenAt(at, deficiency)).map(oklab);
+        figures[wheel][deficiency] = Math.min(deltaE(labs[0], labs[1]), deltaE(labs[1], labs[2]), deltaE(labs[2], labs[0]));
+      }
+    }
+    writeFileSync(join(artifacts, 'vision-deficiency.json'), JSON.stringify(figures, null, 1));
+    // ΔE_OK 0.06 ≈ three just-noticeable differences (from memory: JND ≈ 0.02 in OKLab)
+    for (const d of ['none', 'deuteranopia', 'protanopia', 'achromatopsia']) {
+      assert.ok(figures.ramp[d] > 0.06, `ramp under ${d}: min ΔE_OK ${figures.ramp[d]}`);
+    }
+    for (const d of ['none', 'deuteranopia', 'protanopia']) {
+      assert.ok(figures.blue_yellow[d] > 0.06, `blue_yellow under ${d}: min ΔE_OK ${figures.blue_yellow[d]}`);
+    }
+    // the constant-lightness wheel: flat in grey
+    assert.ok(figures.oklch.achromatopsia < 0.03, `oklch under achromatopsia: ${figures.oklch.achromatopsia}`);
+    assert.ok(figures.oklch.none > 0.06, `oklch in colour: ${figures.oklch.none}`);
+  });
+
+  test('in grey a zero and a pole differ without markers: counter-clockwise the picture lightens round z, darkens round 1/z', async () => {
+    await load(b.page);
+    const n = 48, r = 0.6;
+    // half a step off the axes the plot draws through 0
+    const ring = Array.from({ length: n }, (_, k) => [r * Math.cos(2 * Math.PI * (k + 0.5) / n), r * Math.sin(2 * Math.PI * (k + 0.5) / n)]);
+    const count = async (f) => {
+      await plotOf(f, 'ramp');
+      const L = (await seenAt(ring, 'achromatopsia')).map((c) => oklab(c)[0]);
+      let up = 0, down = 0;
+      for (let k = 0; k < n; k++) { const d = L[(k + 1) % n] - L[k]; if (d > 0.002) up++; else if (d < -0.002) down++; }
+      return { up, down, L: L.map((x) => x.toFixed(3)).join(' ') };
+    };
+    // arg z rises by 2π counter-clockwise round 0, arg 1/z = −arg z falls (by definition)
+    const zero = await count('z'), pole = await count('1/z');
+    // one step crosses the jump at arg f = π
+    assert.ok(zero.up >= n - 2 && zero.down === 1, `round the zero: ${JSON.stringify(zero)}`);
+    assert.ok(pole.down >= n - 2 && pole.up === 1, `round the pole: ${JSON.stringify(pole)}`);
+  });
+
+  test('C shows a keyboard cursor; arrows (Shift: ten times) move it; its readout is the core\'s value and is announced, throttled', async () => {
+    await load(b.page);
+    const out = await scriptSet(b.page, { f: 'z^2 - 1', var: 'z', params: {}, view: [-2, 2, -2, 2], region: 'view' });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    await plotDone(b.page);
+    assert.equal(await b.page.getAttribute('#cursor-live', 'aria-live'), 'polite');
+    await b.page.focus('#plot');
+    const v0 = (await scriptState(b.page)).view;
+    await b.page.keyboard.press('c');
+    const c0 = JSON.parse(await b.page.getAttribute('#plot', 'data-cursor'));
+    assert.ok(Math.abs(c0[0] - (v0[0] + v0[1]) / 2) < 1e-9 && Math.abs(c0[1] - (v0[2] + v0[3]) / 2) < 1e-9, `starts at the centre: ${c0}`);
+    // count the announcements while keys come fast
+    await b.page.evaluate(() => {
+      window.__told = [];
+      new MutationObserver(() => window.__told.push([performance.now(), document.getElementById('cursor-live').textContent]))
+        .observe(document.getElementById('cursor-live'), { childList: true, characterData: true, subtree: true });
+    });
+    for (let i = 0; i < 3; i++) await b.page.keyboard.press('ArrowRight');
+    await b.page.keyboard.press('Shift+ArrowUp');
+    for (let i = 0; i < 8; i++) await b.page.keyboard.press('ArrowLeft');
+    await b.page.keyboard.press('ArrowRight');
+    await b.page.waitForTimeout(1500);
+    const m = await plotMap(b.page);
+    const c1 = JSON.parse(await b.page.getAttribute('#plot', 'data-cursor'));
+    const want = [c0[0] + (3 - 8 + 1) * 4 * m.scale, c0[1] + 40 * m.scale]; // 4 pixels a press, Shift 40
+    assert.ok(Math.hypot(c1[0] - want[0], c1[1] - want[1]) < 1e-9, `cursor ${c1} vs ${want}`);
+    assert.deepEqual((await scriptState(b.page)).view, v0, 'the view stays while the cursor moves inside it');
+    const z = JSON.parse(await b.page.getAttribute('#readout', 'data-z'));
+    const f = JSON.parse(await b.page.getAttribute('#readout', 'data-f'));
+    assert.deepEqual(z, c1);
+    // by hand: (x + iy)² − 1 = x² − y² − 1 + 2ixy
+    assert.ok(Math.abs(f[0] - (z[0] * z[0] - z[1] * z[1] - 1)) < 1e-12 && Math.abs(f[1] - 2 * z[0] * z[1]) < 1e-12, JSON.stringify(f));
+    const node = core.run({ task: 'evaluate', f: 'z^2 - 1', at: [z] });
+    assert.deepEqual(node.values[0], f, 'the same as the core in node');
+    const told = await b.page.evaluate(() => window.__told);
+    assert.ok(told.length >= 1 && told.length <= 4, `announced ${told.length} times for 13 presses: ${JSON.stringify(told)}`);
+    for (let i = 1; i < told.length; i++) assert.ok(told[i][0] - told[i - 1][0] >= 550, `announcements ${told[i][0] - told[i - 1][0]} ms apart`);
+    const last = told[told.length - 1][1];
+    assert.equal(last, await b.page.textContent('#readout'), 'the last position is announced');
+    assert.match(last, /^z = .* {3}f = .* {3}\|f\| = .* {3}arg f = /);
+    // Escape hides it; the arrows pan again
+    await b.page.keyboard.press('Escape');
+    assert.equal(await b.page.getAttribute('#plot', 'data-cursor'), null);
+    await b.page.keyboard.press('ArrowRight');
+    await b.page.waitForTimeout(300);
+    const v1 = (await scriptState(b.page)).view;
+    assert.ok(v1[0] > v0[0], 'ArrowRight pans once the cursor is hidden');
+    // the cursor follows past the edge: the view moves with it
+    await b.page.keyboard.press('c');
+    for (let i = 0; i < 12; i++) await b.page.keyboard.press('Shift+ArrowRight');
+    await b.page.waitForTimeout(300);
+    const c2 = JSON.parse(await b.page.getAttribute('#plot', 'data-cursor'));
+    const v2 = (await scriptState(b.page)).view;
+    assert.ok(c2[0] < v2[1] && v2[1] > v1[1], `the view follows the cursor: ${c2} in ${v2}`);
+    assert.deepEqual(b.log.errors, []);
+  });
+
+  test('a link naming the old wheel keeps it; the Display choice offers all four; an unknown wheel is refused by code', async () => {
+    await load(b.page, withState({ f: 'z', var: 'z', wheel: 'oklch' }));
+    assert.equal((await scriptState(b.page)).wheel, 'oklch');
+    assert.equal(await b.page.inputValue('#opt-wheel'), 'oklch');
+    assert.deepEqual(await b.page.$$eval('#opt-wheel option', (os) => os.map((o) => o.value)), ['ramp', 'blue_yellow', 'oklch', 'hsv']);
+    const bad = await scriptSet(b.page, { wheel: 'rainbow' });
+    assert.equal(bad.ok, false);
+    assert.equal(bad.error.code, 'invalid_field');
+    await b.page.selectOption('#opt-wheel', 'blue_yellow');
+    assert.equal((await scriptState(b.page)).wheel, 'blue_yellow');
+    await load(b.page, withState({ f: 'z', var: 'z' }));
+    assert.equal((await scriptState(b.page)).wheel, 'ramp', 'a link without a wheel gets the default');
+  });
+
+  test('every input, select, textarea and button has an accessible name', async () => {
+    const unnamed = async () => b.page.evaluate(() => {
+      const name = (e) => {
+        const by = e.getAttribute('aria-labelledby');
+        if (by) { const t = by.split(/\s+/).map((id) => (document.getElementById(id) || {}).textContent || '').join(' ').trim(); if (t) return t; }
+        const al = (e.getAttribute('aria-label') || '').trim();
+        if (al) return al;
+        if (e.labels && [...e.labels].some((l) => l.textContent.trim())) return [...e.labels].map((l) => l.textContent.trim()).join(' ');
+        if (e.tagName === 'BUTTON' || e.getAttribute('role') === 'button') { const t = e.textContent.trim(); if (t) return t; }
+        if (e.tagName === 'INPUT' && ['button', 'submit', 'reset'].includes(e.type) && e.value) return e.value;
+        const title = (e.getAttribute('title') || '').trim();
+        return title;
+      };
+      const controls = [...document.querySelectorAll('input, select, textarea, button, [role=slider], [role=button], [role=checkbox], [contenteditable=true]')]
+        .filter((e) => e.type !== 'hidden');
+      return { count: controls.length, bad: controls.filter((e) => !name(e)).map((e) => e.outerHTML.slice(0, 160)) };
+    });
+    await load(b.page);
+    // parameters (their sliders and fields), the transfer reading, the inverse, the integral and Laurent sections, the image curve
+    const out = await scriptSet(b.page, { f: 'wn^2/(s^2 + 2*zeta*wn*s + wn^2)', var: 's', params: { wn: 2, zeta: 0.3 },
+      panels: { transfer: true, inverse: true, integral: true, laurent: true, image: true } });
+    assert.ok(out.ok, JSON.stringify(out.error));
+    await b.page.evaluate(() => document.querySelectorAll('details').forEach((d) => { d.open = true; }));
+    await b.page.waitForTimeout(300);
+    // the check itself finds an unnamed control
+    await b.page.evaluate(() => { const i = document.createElement('input'); i.id = 'a11y-probe'; document.body.append(i); });
+    assert.equal((await unnamed()).bad.length, 1, 'an unnamed probe is found');
+    await b.page.evaluate(() => document.getElementById('a11y-probe').remove());
+    const first = await unnamed();
+    writeFileSync(join(artifacts, 'named-controls.json'), JSON.stringify(first));
+    assert.ok(first.count > 60, `only ${first.count} controls found`);
+    assert.deepEqual(first.bad, [], 'unnamed controls');
+    // the trails controls and the region editors of every shape
+    for (const region of [{ shape: 'rectangle', corners: [[-1, -1], [1, 1]] }, { shape: 'polygon', vertices: [[0, 1], [-1, -1], [1, -1]] }]) {
+      const r = await scriptSet(b.page, { f: 'z^2 + a', var: 'z', params: { a: 1 }, region });
+      assert.ok(r.ok || (r.error && r.error.code), JSON.stringify(r.error));
+      assert.deepEqual((await unnamed()).bad, [], `unnamed controls with ${region.shape}`);
+    }
+    // playwright's own accessibility snapshot names the plot and its readout
+    const snapshot = await b.page.locator('body').ariaSnapshot();
+    assert.match(snapshot, /Phase plot/);
+    assert.deepEqual(b.log.errors, []);
+  });
+});

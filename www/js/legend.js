@@ -44,8 +44,19 @@ export function drawWheelKey(canvas, wheel) {
   ctx.fillText('±π', c - R - 2, c);
   ctx.fillText('−π/2', c, c + R - 2);
   ctx.fillText('arg f', c, c);
+  const caption = canvas.closest('figure') && canvas.closest('figure').querySelector('figcaption');
+  if (caption) caption.textContent = WHEEL_CAPTIONS[wheel] || WHEEL_CAPTIONS.oklch;
+  canvas.setAttribute('aria-label', 'Colour key: ' + (WHEEL_CAPTIONS[wheel] || WHEEL_CAPTIONS.oklch));
   return true;
 }
+
+/** What each wheel's key says (the wheels: src/plot/colour_wheel.rs). */
+const WHEEL_CAPTIONS = {
+  ramp: 'Colour and lightness show arg f: dark blue just above −π, lighter through red to light yellow at π, where it jumps back to dark. Round a zero, counter-clockwise, it gets lighter; round a pole, darker. Brightness steps (with modulus lines) show |f|.',
+  blue_yellow: 'Colour shows arg f on a blue–yellow loop: yellow at 0, light at π/2, blue at ±π, dark at −π/2. Brightness steps (with modulus lines) show |f|.',
+  oklch: 'Colour shows arg f; brightness steps (with modulus lines) show |f|.',
+  hsv: 'Colour shows arg f; brightness steps (with modulus lines) show |f|.',
+};
 
 /** List each marker shape with its meaning. */
 export function fillMarkerKey(list) {

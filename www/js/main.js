@@ -10,6 +10,7 @@ import { showUnderline, syncMirror, checkExpression } from './expr-input.js';
 import { renderParams, functionInput } from './params.js';
 import { createPlot, plotDescription } from './plot.js';
 import { createReadout } from './readout.js';
+import { attachPlotCursor } from './plot-cursor.js';
 import { createRegionEditor } from './region.js';
 import { createContourEditor, createContourLive, windings } from './contour-edit.js';
 import { contourStatus } from './contour.js';
@@ -108,6 +109,7 @@ const plot = createPlot(ui.canvas, {
   onContourHover: (pos) => page.contourEdit && page.contourEdit.hover(pos),
   onDoubleClick: (pos) => Boolean(page.contourEdit && page.contourEdit.doubleClick(pos)),
   onKey: (event) => Boolean(page.contourEdit && page.contourEdit.key(event)),
+  onCursorKey: (event) => Boolean(page.plotCursor && page.plotCursor.key(event)),
   onStatus: (what) => {
     ui.plotStatus.textContent = what === 'drawing' ? 'Drawing…' : what === 'error' ? 'Plot failed (see the message on the plot).' : '';
     ui.canvas.dataset.status = what;
@@ -115,6 +117,7 @@ const plot = createPlot(ui.canvas, {
 });
 page.plot = plot;
 const readoutAt = createReadout(page);
+page.plotCursor = attachPlotCursor(page, readoutAt, $('cursor-live')); // the keyboard cursor and its announced readout
 const region = createRegionEditor(page, (how) => {
   pipeline.regionMoved(); plot.draw(); persist();
   if (how && how.now && state.autoFind && page.exprOk) pipeline.find(); else pipeline.autoSearchSoon();

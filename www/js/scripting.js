@@ -5,7 +5,7 @@
 // (view, panels and the display options); links and stored states keep the page's own shape.
 import { Engine, runNow, responseError, yieldToBrowser } from './engine.js';
 import { paramsForRequest, functionInput } from './params.js';
-import { sanitize, saveState } from './state.js';
+import { sanitize, saveState, WHEELS } from './state.js';
 import { regionProblem } from './region.js';
 import { askInverse, currentInverseSpan } from './inverse.js';
 import { askTransfer, transferOpen, setTransferPoint, currentTransferPoint, setTransferDomain } from './transfer.js';
@@ -157,7 +157,7 @@ function nextPageState(current, partial) {
   }
   if (partial.panels && typeof partial.panels.integral === 'boolean') next.integral.open = partial.panels.integral;
   if ('laurent' in partial) next.laurent = laurentChoice(partial.laurent);
-  if ('wheel' in partial) { if (!['oklch', 'hsv'].includes(partial.wheel)) throw scriptError('invalid_field', 'wheel must be "oklch" or "hsv"'); next.wheel = partial.wheel; }
+  if ('wheel' in partial) { if (!WHEELS.includes(partial.wheel)) throw scriptError('invalid_field', `wheel must be one of ${WHEELS.map((w) => `"${w}"`).join(', ')}`); next.wheel = partial.wheel; }
   if ('trails' in partial) next.trails = trailsFrom(partial.trails);
   if ('domain' in partial) {
     const d = partial.domain === null ? 'none' : partial.domain;

@@ -9,6 +9,9 @@ const STORAGE_KEY = 'residuary.page.v1';
 // What this browser had when a link replaced it ("Restore what you had").
 const PREVIOUS_KEY = 'residuary.page.before-link.v1';
 
+/** The colour wheels (the contract's phase_plot `wheel` names). */
+export const WHEELS = ['ramp', 'blue_yellow', 'oklch', 'hsv'];
+
 /** localStorage that never throws (file:// pages may refuse it). */
 export const safeStorage = {
   get(key) {
@@ -35,7 +38,7 @@ export function defaultState() {
     modulus: false,
     phase: false,
     infinity: false,
-    wheel: 'oklch',
+    wheel: 'ramp',       // the colour wheel: lightness rises with arg, readable in grey (a link's own wheel is kept)
     symbols: 'own',
     complex_format: 'columns', // complex numbers in exported and copied text: 'columns' (re, im), 'j' (a+bj) or 'i' (a+bi) (export.js)
     // the region: its mode (view, rect, circle, ellipse, polygon), each shape's numbers (ellipse:
@@ -85,7 +88,7 @@ export function sanitize(raw) {
   if (Number.isFinite(raw.sample_period) && raw.sample_period > 0) s.sample_period = raw.sample_period;
   if (Array.isArray(raw.point) && raw.point.length === 2 && raw.point.every(Number.isFinite)) s.point = raw.point.slice();
   if (['auto', 's', 'z', 'none'].includes(raw.domain)) s.domain = raw.domain;
-  if (raw.wheel === 'hsv' || raw.wheel === 'oklch') s.wheel = raw.wheel;
+  if (WHEELS.includes(raw.wheel)) s.wheel = raw.wheel;
   if (raw.symbols === 'own' || raw.symbols === 'diagram') s.symbols = raw.symbols;
   if (['columns', 'j', 'i'].includes(raw.complex_format)) s.complex_format = raw.complex_format;
   if (['light', 'dark', 'system'].includes(raw.scheme)) s.scheme = raw.scheme;

@@ -55,7 +55,8 @@ pub struct PhasePlotRequest {
 
 #[derive(Debug, Clone, Default, Serialize, Deserialize)]
 pub struct PlotOptionsInput {
-    /// `"oklch"` (default, perceptually even) or `"hsv"`.
+    /// `"oklch"` (default, perceptually even), `"hsv"`, `"ramp"` (lightness rising with arg,
+    /// readable in grey) or `"blue_yellow"` (kept by deutan and protan readers).
     #[serde(default)]
     pub wheel: Option<String>,
     #[serde(default)]
@@ -85,11 +86,12 @@ pub fn pixels(req: &PhasePlotRequest) -> Result<Pixels, ApiError> {
     let [x0, x1, y0, y1] = req.view;
     let [width, height] = req.size;
     let wheel = match req.options.wheel.as_deref() {
-        None | Some("oklch") => Wheel::Oklch,
-        Some("hsv") => Wheel::Hsv,
-        Some(other) => {
-            return Err(ApiError::invalid(format!("unknown colour wheel \"{other}\"; use \"oklch\" or \"hsv\"")))
-        }
+        None => Wheel::Oklch,
+        Some(name) => Wheel::from_name(name).ok_or_else(|| {
+            ApiError::invalid(format!(
+                "unknown colour wheel \"{name}\"; use \"oklch\", \"hsv\", \"ramp\" or \"blue_yellow\""
+            ))
+        })?,
     };
     let opts = PlotOptions {
         wheel,

@@ -15,7 +15,7 @@ import { markerAt, markerScreenPoint } from './overlays.js';
  *  editing (contour-edit.js): `hooks.contourDrawing()` (a polygon is being drawn: every press is the
  *  editor's), `hooks.onContourPress(pos)` (true: the editor takes the press), `hooks.onContourMove(pos)`,
  *  `hooks.onContourRelease(pos, moved)`, `hooks.onContourHover(pos | null)`, `hooks.onDoubleClick(pos)`,
- *  `hooks.onKey(event)` (true: handled). Zooming goes through plot.zoom and plot.reset. */
+ *  `hooks.onKey(event)` (true: handled), `hooks.onCursorKey(event)` (the keyboard cursor; true: handled). Zooming goes through plot.zoom and plot.reset. */
 export function attachInput(plot, viewChanged, hooks) {
   const canvas = plot.canvas;
   const pointers = new Map();
@@ -159,6 +159,8 @@ export function attachInput(plot, viewChanged, hooks) {
       const d = { ArrowLeft: [-step, 0], ArrowRight: [step, 0], ArrowUp: [0, step], ArrowDown: [0, -step] }[k];
       if (d && hooks.onMarkerNudge(plot.selected, d)) { event.preventDefault(); return; }
     }
+    // the keyboard cursor (plot-cursor.js): C shows it, then the arrows move it instead of panning
+    if (hooks.onCursorKey && hooks.onCursorKey(event)) { event.preventDefault(); return; }
     const pan = 40 * plot.scale;
     if (k === '+' || k === '=') plot.zoom(1 / 1.25);
     else if (k === '-' || k === '_') plot.zoom(1.25);
